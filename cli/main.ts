@@ -1,0 +1,25 @@
+/**
+ * The `rateloom` command line. Each command lives in its own file and registers itself here.
+ * Commands only parse flags, read files, call the library and print.
+ */
+import { Command } from 'commander';
+import { EXIT_BAD_INPUT } from './run';
+
+const program = new Command();
+program
+  .name('rateloom')
+  .description('Chemical kinetics regression and isothermal reactor sizing')
+  .version('0.1.0')
+  .showHelpAfterError('(run with --help for usage and an example)')
+  .exitOverride((err) => {
+    if (err.code === 'commander.helpDisplayed' || err.code === 'commander.version' || err.code === 'commander.help') process.exit(0);
+    process.exit(EXIT_BAD_INPUT);
+  });
+
+// Command registrations (one file per command):
+const registrations: Array<(p: Command) => void> = [];
+// @register-commands (keep this marker; add one import + push per command)
+
+for (const r of registrations) r(program);
+
+await program.parseAsync(process.argv);

@@ -1,0 +1,73 @@
+/**
+ * Shared command plumbing: exit codes, --json output and error printing, identical for every
+ * command. Exit codes: 0 success, 1 ran but the result is not trustworthy, 2 bad input or usage.
+ */
+import { isRateloomError } from '../src/core/errors';
+import { written } from './io';
+
+export const EXIT_OK = 0;
+export const EXIT_UNTRUSTWORTHY = 1;
+export const EXIT_BAD_INPUT = 2;
+
+export interface CommandOutput {
+  /** The one JSON document printed under --json. */
+  json: unknown;
+  /** Human-readable text printed otherwise (to stdout). */
+  text: string;
+  /** True when the result can be trusted (exit 0), false for exit 1. */
+  trustworthy: boolean;
+}
+
+/** Stable JSON: same input, same bytes (keys in insertion order, non-finite numbers as null). */
+export function toJson(value: unknown): string {
+  return JSON.stringify(
+    value,
+    (_k, v) => {
+      if (typeof v === 'number' && !Number.isFinite(v)) return null;
+      if (v instanceof Float64Array) return Array.from(v);
+      return v;
+    },
+    2,
+  );
+}
+
+/**
+ * Run a command body, print its output in the chosen mode and set the exit code. Bad input
+ * (RateloomError) exits 2 with the error; anything else is a bug and exits 2 with its message.
+ */
+export async function runCommand(json: boolean, body: () => Promise<CommandOutput> | CommandOutput): Promise<void> {
+  try {
+    const out = await body();
+    if (json) process.stdout.write(toJson(out.json) + '\n');
+    else {
+      if (out.text) process.stdout.write(out.text.endsWith('\n') ? out.text : out.text + '\n');
+      if (written.length) process.stderr.write(`wrote:\n${written.map((w) => `  ${w}`).join('\n')}\n`);
+    }
+    process.exitCode = out.trustworthy ? EXIT_OK : EXIT_UNTRUSTWORTHY;
+  } catch (e) {
+    if (isRateloomError(e)) {
+      if (json) process.stdout.write(toJson({ status: 'error', error: e.toJSON() }) + '\n');
+      else process.stderr.write(`error [${e.code}] ${e.message}\n`);
+    } else {
+      const err = e as Error;
+      if (json) process.stdout.write(toJson({ status: 'error', error: { code: 'E_INTERNAL', message: err.message } }) + '\n');
+      else process.stderr.write(`internal error: ${err.stack ?? err.message}\nThis is a rateloom bug; please report it with the input that caused it.\n`);
+    }
+    process.exitCode = EXIT_BAD_INPUT;
+  }
+}
+
+/** Progress reporting on stderr, only when attached to a terminal and not in --json mode. */
+export function progressReporter(json: boolean, label: string): ((done: number, total: number) => void) | undefined {
+  if (json || !process.stderr.isTTY) return undefined;
+  let last = -1;
+  return (done, total) => {
+    const pct = Math.floor((100 * done) / Math.max(total, 1));
+    if (pct === last) return;
+    last = pct;
+    const width = 30;
+    const filled = Math.round((width * pct) / 100);
+    process.stderr.write(`\r${label} [${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${pct}%`);
+    if (done >= total) process.stderr.write('\n');
+  };
+}
