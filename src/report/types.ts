@@ -1,0 +1,328 @@
+/**
+ * View-model types of the report layer. The report only formats what it is handed: the lead (or a
+ * command) fills these plain-data objects from the fit result (src/estimation) and the sizing
+ * result (src/design). Everything is JSON-serialisable; numbers are in the unit named beside them
+ * (SI unless a field says otherwise). Optional fields may be left out or set to null when a value
+ * was not computed; the report then shows "not computed" instead of a number.
+ */
+
+/** A warning shown in the summary: stable code, readable message, optional path (run, parameter). */
+export interface ReportWarning {
+  code: string;
+  message: string;
+  path?: ReadonlyArray<string | number>;
+}
+
+/** An interval [lo, hi] in the unit of the quantity it belongs to. */
+export type Interval = readonly [number, number];
+
+// ---------------------------------------------------------------------------------------------
+// Fit report
+// ---------------------------------------------------------------------------------------------
+
+/** One row of the parameter table. */
+export interface ParameterRowData {
+  /** Parameter name, for example 'k1' or 'E1'. */
+  name: string;
+  /** Unit of value, stdError and both intervals, for example 'mol/(kg s Pa)' or 'J/mol'. */
+  unit: string;
+  /** Estimate (or the held value when fixed). */
+  value: number;
+  /** Standard error in `unit`; null or absent when not computed. */
+  stdError?: number | null;
+  /** Confidence level of both intervals as a fraction, for example 0.95. */
+  ciLevel?: number;
+  /** Linearised (Wald) interval from the covariance, in `unit`. */
+  linearCI?: Interval | null;
+  /** Profile-likelihood interval in `unit`; an open side is null (interval not closed there). */
+  profileCI?: readonly [number | null, number | null] | null;
+  /** Held at its value during fitting; default false. */
+  fixed?: boolean;
+  /** Short flags such as 'at bound', 'poorly determined', 'correlated with k2'. */
+  flags?: string[];
+}
+
+/** Correlation matrix of the estimated parameters. */
+export interface CorrelationData {
+  /** Parameter names, in the order of the matrix rows and columns. */
+  names: string[];
+  /** Symmetric matrix with ones on the diagonal, values in [-1, 1]. */
+  matrix: number[][];
+}
+
+/** Lack-of-fit F test against pure error from replicates. */
+export interface LackOfFitData {
+  /** F statistic (dimensionless). */
+  F: number;
+  /** Degrees of freedom of lack of fit. */
+  dofLackOfFit: number;
+  /** Degrees of freedom of pure error. */
+  dofPureError: number;
+  /** p value (dimensionless, 0..1). */
+  pValue: number;
+  /** One-line reading, for example 'no evidence of lack of fit at the 5 % level'. */
+  conclusion?: string;
+}
+
+/** Regression statistics. */
+export interface FitStatisticsData {
+  /** Number of observations. */
+  n: number;
+  /** Number of estimated parameters. */
+  p: number;
+  /** Degrees of freedom n - p. */
+  dof: number;
+  /** Sum of squared (weighted) residuals. */
+  ssr: number;
+  /** Unit of ssr; '1' when residuals are weighted to be dimensionless. Default '1'. */
+  ssrUnit?: string;
+  /** Residual standard deviation sqrt(ssr / dof). */
+  residualStdDev: number;
+  /** Unit of residualStdDev; default '1'. */
+  residualUnit?: string;
+  /** Corrected Akaike information criterion (dimensionless). */
+  aicc: number;
+  /** Bayesian information criterion (dimensionless). */
+  bic: number;
+  /** How the covariance was computed, for example 's² (JᵀJ)⁻¹ at the optimum'. */
+  covarianceBasis: string;
+  /** Lack-of-fit test when replicates exist; null or absent otherwise. */
+  lackOfFit?: LackOfFitData | null;
+}
+
+/** A quantity with a label and unit, used for space time and feed ratio. */
+export interface LabelledValue {
+  /** Label shown on axes and in tables, for example 'W/F_A0', 'τ' or 'H2/A'. */
+  label: string;
+  /** Unit, for example 'kg s/mol', 's' or '1'. */
+  unit: string;
+  value: number;
+}
+
+/** Operating conditions of one run. */
+export interface RunConditionsData {
+  /** Temperature in K. */
+  temperature: number;
+  /** Total inlet pressure in Pa (shown in kPa). */
+  pressure: number;
+  /** Space time: W/F_A0 (kg s/mol) for packed beds or τ (s) for volume reactors. */
+  spaceTime?: LabelledValue | null;
+  /** Feed ratio, for example H2/A in mol/mol. */
+  feedRatio?: LabelledValue | null;
+}
+
+/** One measured response of one run. */
+export interface ResponseObservationData {
+  /** Response label, for example 'F_C out' or 'X_A'. */
+  response: string;
+  /** Unit of measured, predicted and residual, for example 'mol/s' or '1'. */
+  unit: string;
+  measured: number;
+  predicted: number;
+  /** measured - predicted, in `unit`. */
+  residual: number;
+  /** Studentized residual (dimensionless); null or absent when not computed. */
+  studentized?: number | null;
+}
+
+/** One run with its conditions and observations. */
+export interface RunObservationData {
+  runId: string;
+  conditions: RunConditionsData;
+  responses: ResponseObservationData[];
+}
+
+/** An (x, y) point. */
+export interface XY {
+  x: number;
+  y: number;
+}
+
+/** Measured points and predicted curve of one species along a run's coordinate. */
+export interface SpeciesProfileData {
+  species: string;
+  measured: XY[];
+  predicted: XY[];
+}
+
+/** Measured vs predicted profile along the reactor (or in time) for one run. */
+export interface RunProfileData {
+  runId: string;
+  /** Coordinate along the reactor, for example { label: 'W', unit: 'kg' } or { label: 't', unit: 's' }. */
+  coordinate: { label: string; unit: string };
+  /** The plotted quantity, for example { label: 'F_j', unit: 'mol/s' }. */
+  quantity: { label: string; unit: string };
+  species: SpeciesProfileData[];
+}
+
+/** Profile-likelihood curve of one parameter. */
+export interface LikelihoodProfileData {
+  parameter: string;
+  /** Unit of the parameter values. */
+  unit: string;
+  /** The estimate, drawn as a vertical rule. */
+  estimate: number;
+  /** Name of the objective, for example 'SSR' or 'Δ objective'; default 'objective'. */
+  objectiveLabel?: string;
+  /** Unit of the objective; default '1'. */
+  objectiveUnit?: string;
+  /** The curve: parameter value against objective (re-optimised over the others). */
+  points: { value: number; objective: number }[];
+  /** Objective value that bounds the profile interval, drawn as a horizontal rule. */
+  threshold: number;
+}
+
+/** One candidate model in the rival-model comparison. */
+export interface RivalModelData {
+  name: string;
+  ssr: number;
+  /** Unit of ssr; default '1'. */
+  ssrUnit?: string;
+  dof: number;
+  aicc: number;
+  bic: number;
+  /** Akaike weight in [0, 1]. */
+  akaikeWeight: number;
+  /** Short verdict, for example 'preferred', 'plausible', 'rejected'. */
+  verdict: string;
+}
+
+/** Everything the fit report shows. */
+export interface FitReportData {
+  title: string;
+  studyName: string;
+  /** Tool and version, for example 'rateloom 0.1.0'. */
+  generatedBy: string;
+  /** Free-form date text; left out for byte-identical reports. */
+  generatedAt?: string;
+  /** Fit status code, for example 'converged'. */
+  status: string;
+  /** True when the fit can be trusted. */
+  success: boolean;
+  message: string;
+  warnings: ReportWarning[];
+  parameters: ParameterRowData[];
+  correlation?: CorrelationData | null;
+  statistics: FitStatisticsData;
+  runs: RunObservationData[];
+  profiles?: RunProfileData[];
+  likelihoodProfiles?: LikelihoodProfileData[];
+  rivalModels?: RivalModelData[];
+  /** Rate laws as readable lines, for example 'r1 = k1 K_A p_A / (1 + K_A p_A)^2'. */
+  kinetics?: string[];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Sizing report
+// ---------------------------------------------------------------------------------------------
+
+/** One species of the outlet composition. */
+export interface OutletSpeciesData {
+  species: string;
+  /** Median outlet value. */
+  value: number;
+  /** Unit, for example 'mol/s' or '1' for mole fractions. */
+  unit: string;
+  /** Lower and upper band (same level as the size band), optional. */
+  lo?: number | null;
+  hi?: number | null;
+}
+
+/** One series of the production profile (a species flow or the conversion). */
+export interface ProductionSeriesData {
+  name: string;
+  points: { x: number; median: number; lo: number; hi: number }[];
+}
+
+/** Monte Carlo size distribution: the raw samples or a ready histogram. */
+export interface SizeDistributionData {
+  /** Sampled sizes in the size unit (preferred). */
+  samples?: number[];
+  /** Or pre-binned counts: [start, end) in the size unit. */
+  histogram?: { start: number; end: number; count: number }[];
+}
+
+/** Effect of one parameter on the required size. */
+export interface SensitivityRowData {
+  parameter: string;
+  /** Signed effect, in `SizingReportData.sensitivityUnit`. */
+  effect: number;
+}
+
+/** Everything the sizing report shows. */
+export interface SizingReportData {
+  title: string;
+  caseName: string;
+  generatedBy: string;
+  generatedAt?: string;
+  status: string;
+  success: boolean;
+  message: string;
+  /** What must be met, for example { description: 'production of C', value: 0.8, unit: 'mol/s' }. */
+  target: { description: string; value: number; unit: string };
+  /** Required size: median and upper percentiles over parameter uncertainty. */
+  size: { label: string; unit: string; median: number; p90: number; p95: number; nominal?: number | null };
+  /** Reactor type in words, for example 'packed bed, isothermal'. */
+  reactor?: string;
+  outlet: OutletSpeciesData[];
+  /** Pressure drop over the bed in Pa (shown in kPa); null when not modelled. */
+  pressureDrop?: { value: number; lo?: number | null; hi?: number | null; fractionOfInlet?: number | null } | null;
+  /** Tube layout when the bed is split into tubes; null otherwise. */
+  tubes?: { count: number; diameter: number; length: number; sizePerTube?: number | null } | null;
+  /** Production profile with its uncertainty band. */
+  productionProfile?: {
+    coordinate: { label: string; unit: string };
+    quantity: { label: string; unit: string };
+    /** Level of the lo-hi band as a fraction, for example 0.9. */
+    bandLevel: number;
+    series: ProductionSeriesData[];
+  } | null;
+  sizeDistribution?: SizeDistributionData | null;
+  /** What `effect` measures, for example 'change of P50 size for +1 standard error'. */
+  sensitivityMeasure?: string;
+  /** Unit of `effect`, for example '%'. */
+  sensitivityUnit?: string;
+  sensitivity?: SensitivityRowData[];
+  /** Monte Carlo draws that failed (solver trouble) out of the total. */
+  draws?: { total: number; failed: number } | null;
+  warnings: ReportWarning[];
+  /** Cautions that must be read before using the size (always shown prominently). */
+  cautions: string[];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Outputs
+// ---------------------------------------------------------------------------------------------
+
+/** A chart: its vega-lite spec plus a title and caption for the document. */
+export interface ChartSpec {
+  /** Stable id, used as the HTML element id, for example 'parity-F_C'. */
+  id: string;
+  title: string;
+  caption?: string;
+  /** The vega-lite specification (plain JSON). */
+  spec: import('vega-lite').TopLevelSpec;
+}
+
+/** A chart after rendering: SVG text, or the reason it could not be drawn. */
+export interface RenderedChart {
+  id: string;
+  title: string;
+  caption?: string;
+  svg?: string;
+  error?: string;
+  /** Warnings vega or vega-lite raised while compiling or drawing. */
+  messages?: string[];
+}
+
+/** What renderFitReport and renderSizingReport return. */
+export interface RenderedReport {
+  /** One self-contained HTML document (inline CSS and SVG, no scripts, no external URLs). */
+  html: string;
+  /** A Markdown summary of the same numbers. */
+  markdown: string;
+  /** The charts as rendered (for callers that want the SVG files separately). */
+  charts: RenderedChart[];
+  /** Problems met while drawing (a chart that failed, values dropped as non-finite). */
+  warnings: ReportWarning[];
+}
