@@ -1,0 +1,388 @@
+/**
+ * The production case file (rateloom's own JSON format) and its loader. The file states units per
+ * field; the loader converts everything to SI and checks names against the hand-off species.
+ * Every error names the field and a fix; a misspelt field name gets the closest valid name.
+ *
+ * Example (gas packed bed, conversion target):
+ * {
+ *   "name": "Plant A, line 2",
+ *   "reactor": { "kind": "packed-bed", "phase": "gas" },
+ *   "feed": { "totalFlow": "120 mol/s", "moleFractions": { "A": 0.3, "B": 0.6, "N2": 0.1 } },
+ *   "temperature": "520 K",
+ *   "pressure": "12 bar",
+ *   "target": { "conversion": 0.8, "species": "A" },
+ *   "tubes": { "innerDiameter": "32 mm", "particleDiameter": "4 mm", "voidFraction": 0.42,
+ *              "bulkDensity": "900 kg/m3", "particleDensity": "1550 kg/m3",
+ *              "viscosity": "2.4e-5 Pa s", "allowedPressureDrop": "1.5 bar" },
+ *   "heat": { "reactionEnthalpy": { "r1": "-95 kJ/mol" }, "heatCapacity": "38 J/(mol K)" },
+ *   "uncertainty": { "draws": 10000, "seed": 12345, "levels": [0.9, 0.95] }
+ * }
+ */
+import { RateloomError, closestName, type FieldPath } from '../core/errors';
+import { quantityToSI, type QuantityKind } from './case-units';
+
+export type DesignReactorKind = 'packed-bed' | 'plug-flow' | 'stirred-tank' | 'batch';
+
+/** What the size is chosen for. */
+export type DesignTarget =
+  | { kind: 'conversion'; species: string; /** Fractional conversion, 0..1. */ value: number }
+  | { kind: 'production'; species: string; /** Net production rate, mol/s (flow) or final mol/m3 made (batch). */ value: number }
+  | { kind: 'size'; /** Given size: kg (packed bed), m3 (plug flow, stirred tank), s (batch). */ value: number };
+
+/** Packed-bed tube bundle inputs, SI. */
+export interface TubeSpec {
+  /** Tube inner diameter, m. */
+  innerDiameter: number;
+  /** Catalyst particle diameter, m. */
+  particleDiameter: number;
+  /** Bed void fraction, dimensionless. */
+  voidFraction: number;
+  /** Catalyst bulk density of the bed, kg/m3. */
+  bulkDensity: number;
+  /** Density of the catalyst particles, kg/m3. */
+  particleDensity: number;
+  /** Gas viscosity, Pa s. */
+  viscosity: number;
+  /** Largest allowed pressure drop over the bed, Pa. */
+  allowedPressureDrop: number;
+}
+
+/** A loaded production case, all SI. */
+export interface DesignCase {
+  name: string;
+  reactor: { kind: DesignReactorKind; phase: 'gas' | 'liquid' };
+  /** Feed molar flows per species (mol/s), for flow reactors; indexed as `species`. */
+  feed: Float64Array;
+  /** Species order of `feed` and `concentrations` (the hand-off species order). */
+  species: string[];
+  /** Liquid inlet volumetric flow, m3/s (liquid flow reactors). */
+  volumetricFlow?: number;
+  /** Initial concentrations, mol/m3 (batch). */
+  concentrations?: Float64Array;
+  /** Temperature, K. */
+  temperature: number;
+  /** Inlet pressure, Pa (gas). */
+  pressure?: number;
+  target: DesignTarget;
+  tubes?: TubeSpec;
+  /** Pressure-drop parameter alpha given directly: 1/kg (packed bed) or 1/m3 (plug flow). */
+  alpha?: number;
+  /** Bulk density of catalyst, kg/m3, to convert between mass- and volume-based rates. */
+  bulkDensity?: number;
+  /** Catalyst loading of a batch or stirred tank with mass-based rates, kg/m3 of fluid. */
+  catalystLoading?: number;
+  heat?: {
+    /** Heat of reaction per reaction id, J/mol of reaction extent as written. */
+    reactionEnthalpy: Record<string, number>;
+    /** Mean molar heat capacity of the feed, J/(mol K). */
+    heatCapacity: number;
+    /** Adiabatic rise above which a warning is given, K; default 10. */
+    warnAbove: number;
+  };
+  uncertainty: {
+    /** Monte Carlo draws; default 10000. */
+    draws: number;
+    /** PRNG seed; default 20261201. */
+    seed: number;
+    /** Confidence levels reported, fractions; default [0.9, 0.95]. */
+    levels: number[];
+  };
+}
+
+export const DEFAULT_DRAWS = 10000;
+export const DEFAULT_SEED = 20261201;
+export const DEFAULT_LEVELS = [0.9, 0.95];
+
+type Obj = Record<string, unknown>;
+
+function isObj(v: unknown): v is Obj {
+  return !!v && typeof v === 'object' && !Array.isArray(v);
+}
+
+function checkFields(o: Obj, allowed: readonly string[], path: FieldPath): void {
+  for (const k of Object.keys(o)) {
+    if (!allowed.includes(k)) {
+      const near = closestName(k, allowed);
+      throw new RateloomError('E_UNKNOWN_FIELD', `unknown field '${k}'`, {
+        path: [...path, k],
+        fix: near ? `Did you mean '${near}'?` : `Allowed fields here: ${allowed.join(', ')}.`,
+        ...(near ? { details: { closest: near } } : {}),
+      });
+    }
+  }
+}
+
+function obj(v: unknown, path: FieldPath, what: string): Obj {
+  if (!isObj(v)) throw new RateloomError('E_TYPE', `${what} must be an object`, { path });
+  return v;
+}
+
+function need(o: Obj, key: string, path: FieldPath, fix: string): unknown {
+  if (o[key] === undefined) throw new RateloomError('E_MISSING_FIELD', `missing field '${key}'`, { path: [...path, key], fix });
+  return o[key];
+}
+
+function num(v: unknown, path: FieldPath, lo: number, hi: number, what: string): number {
+  if (typeof v !== 'number' || !Number.isFinite(v)) throw new RateloomError('E_TYPE', `${what} must be a number`, { path });
+  if (!(v >= lo && v <= hi)) {
+    throw new RateloomError('E_VALUE', `${what} ${v} lies outside [${lo}, ${hi}]`, { path, fix: `Give ${what} between ${lo} and ${hi}.` });
+  }
+  return v;
+}
+
+function positive(raw: unknown, kind: QuantityKind, path: FieldPath, what: string): number {
+  const v = quantityToSI(raw, kind, path);
+  if (!(v > 0)) throw new RateloomError('E_VALUE', `${what} must be positive (got ${v} in SI)`, { path });
+  return v;
+}
+
+function speciesIndex(name: unknown, species: readonly string[], path: FieldPath): number {
+  if (typeof name !== 'string') throw new RateloomError('E_TYPE', 'species name must be a string', { path });
+  const i = species.indexOf(name);
+  if (i < 0) {
+    const near = closestName(name, species);
+    throw new RateloomError('E_UNKNOWN_SPECIES', `species '${name}' is not in the fitted kinetics`, {
+      path,
+      fix: near ? `Did you mean '${near}'? Species: ${species.join(', ')}.` : `Use one of: ${species.join(', ')}.`,
+      ...(near ? { details: { closest: near } } : {}),
+    });
+  }
+  return i;
+}
+
+const TOP = ['name', 'reactor', 'feed', 'temperature', 'pressure', 'target', 'tubes', 'pressureDrop', 'bulkDensity', 'catalystLoading', 'heat', 'uncertainty', 'description'] as const;
+
+/**
+ * Validate a parsed case file against the hand-off species and reaction ids; return the case in SI.
+ * @param raw parsed JSON
+ * @param species species names of the fitted kinetics, in order
+ * @param reactionIds reaction ids of the fitted kinetics
+ */
+export function loadCase(raw: unknown, species: readonly string[], reactionIds: readonly string[]): DesignCase {
+  const top = obj(raw, [], 'the case file');
+  checkFields(top, TOP, []);
+  const name = need(top, 'name', [], 'Add "name": "a short label for the case".');
+  if (typeof name !== 'string' || !name.trim()) throw new RateloomError('E_TYPE', 'name must be a non-empty string', { path: ['name'] });
+
+  const r = obj(need(top, 'reactor', [], 'Add "reactor": { "kind": "packed-bed", "phase": "gas" }.'), ['reactor'], 'reactor');
+  checkFields(r, ['kind', 'phase'], ['reactor']);
+  const kinds: DesignReactorKind[] = ['packed-bed', 'plug-flow', 'stirred-tank', 'batch'];
+  const kind = need(r, 'kind', ['reactor'], `Give one of: ${kinds.join(', ')}.`) as DesignReactorKind;
+  if (!kinds.includes(kind)) {
+    const near = closestName(String(kind), kinds);
+    throw new RateloomError('E_VALUE', `reactor kind '${String(kind)}' is not supported for sizing`, {
+      path: ['reactor', 'kind'],
+      fix: `Use one of: ${kinds.join(', ')}${near ? ` (did you mean '${near}'?)` : ''}.`,
+    });
+  }
+  const phase = need(r, 'phase', ['reactor'], 'Give "gas" or "liquid".');
+  if (phase !== 'gas' && phase !== 'liquid') {
+    throw new RateloomError('E_VALUE', `phase '${String(phase)}' must be 'gas' or 'liquid'`, { path: ['reactor', 'phase'] });
+  }
+
+  const temperature = positive(need(top, 'temperature', [], 'Add "temperature": "520 K".'), 'temperature', ['temperature'], 'temperature');
+  let pressure: number | undefined;
+  if (top.pressure !== undefined) pressure = positive(top.pressure, 'pressure', ['pressure'], 'pressure');
+  if (phase === 'gas' && pressure === undefined) {
+    throw new RateloomError('E_MISSING_FIELD', 'a gas-phase case needs the inlet pressure', { path: ['pressure'], fix: 'Add "pressure": "10 bar".' });
+  }
+
+  // Feed.
+  const nS = species.length;
+  const f = obj(need(top, 'feed', [], 'Add "feed" with "totalFlow" and "moleFractions", or "flows".'), ['feed'], 'feed');
+  checkFields(f, ['totalFlow', 'moleFractions', 'flows', 'volumetricFlow', 'concentrations'], ['feed']);
+  const feed = new Float64Array(nS);
+  let concentrations: Float64Array | undefined;
+  let volumetricFlow: number | undefined;
+  if (kind === 'batch') {
+    if (f.concentrations !== undefined) {
+      concentrations = new Float64Array(nS);
+      const c = obj(f.concentrations, ['feed', 'concentrations'], 'concentrations');
+      for (const [s, q] of Object.entries(c)) {
+        const i = speciesIndex(s, species, ['feed', 'concentrations', s]);
+        concentrations[i] = quantityToSI(q, 'concentration', ['feed', 'concentrations', s]);
+        if (concentrations[i] < 0) throw new RateloomError('E_VALUE', 'concentration must not be negative', { path: ['feed', 'concentrations', s] });
+      }
+    } else if (f.moleFractions !== undefined && phase === 'gas') {
+      const y = moleFractions(f.moleFractions, species);
+      const cT = pressure! / (8.314462618 * temperature);
+      concentrations = Float64Array.from(y, (v) => v * cT);
+    } else {
+      throw new RateloomError('E_MISSING_FIELD', 'a batch case needs the initial composition', {
+        path: ['feed', 'concentrations'],
+        fix: 'Add "concentrations": { "A": "2 mol/L" } (or, for gas, "moleFractions" with temperature and pressure).',
+      });
+    }
+  } else {
+    if (f.flows !== undefined) {
+      if (f.totalFlow !== undefined || f.moleFractions !== undefined) {
+        throw new RateloomError('E_SCHEMA', 'give either "flows" or "totalFlow" with "moleFractions", not both', { path: ['feed'] });
+      }
+      const fl = obj(f.flows, ['feed', 'flows'], 'flows');
+      for (const [s, q] of Object.entries(fl)) {
+        const i = speciesIndex(s, species, ['feed', 'flows', s]);
+        feed[i] = quantityToSI(q, 'molarFlow', ['feed', 'flows', s]);
+        if (feed[i] < 0) throw new RateloomError('E_VALUE', 'a feed flow must not be negative', { path: ['feed', 'flows', s] });
+      }
+    } else {
+      const total = positive(need(f, 'totalFlow', ['feed'], 'Add "totalFlow": "100 mol/s" and "moleFractions", or use "flows".'), 'molarFlow', ['feed', 'totalFlow'], 'total flow');
+      const y = moleFractions(need(f, 'moleFractions', ['feed'], 'Add "moleFractions": { "A": 0.5, ... }.'), species);
+      for (let i = 0; i < nS; i++) feed[i] = y[i] * total;
+    }
+    if (!(feed.reduce((a, b) => a + b, 0) > 0)) throw new RateloomError('E_VALUE', 'the feed is empty', { path: ['feed'] });
+    if (phase === 'liquid') {
+      volumetricFlow = positive(
+        need(f, 'volumetricFlow', ['feed'], 'A liquid flow reactor needs "volumetricFlow": "2 m3/h".'),
+        'volumetricFlow',
+        ['feed', 'volumetricFlow'],
+        'volumetric flow',
+      );
+    }
+  }
+
+  // Target.
+  const t = obj(need(top, 'target', [], 'Add "target": { "conversion": 0.8, "species": "A" }.'), ['target'], 'target');
+  checkFields(t, ['conversion', 'production', 'size', 'species'], ['target']);
+  const given = ['conversion', 'production', 'size'].filter((k) => t[k] !== undefined);
+  if (given.length !== 1) {
+    throw new RateloomError('E_SCHEMA', `the target needs exactly one of conversion, production, size (got ${given.length})`, {
+      path: ['target'],
+      fix: 'Give "conversion" (with "species"), "production" (with "species"), or "size".',
+    });
+  }
+  let target: DesignTarget;
+  if (t.conversion !== undefined) {
+    const sp = need(t, 'species', ['target'], 'Name the key reactant: "species": "A".') as string;
+    const i = speciesIndex(sp, species, ['target', 'species']);
+    const X = num(t.conversion, ['target', 'conversion'], 0, 1, 'target conversion');
+    if (!(X > 0 && X < 1)) throw new RateloomError('E_VALUE', 'target conversion must lie strictly between 0 and 1', { path: ['target', 'conversion'] });
+    const inlet = kind === 'batch' ? concentrations![i] : feed[i];
+    if (!(inlet > 0)) throw new RateloomError('E_VALUE', `the key reactant '${sp}' is not in the feed`, { path: ['target', 'species'], fix: 'Choose a species present in the feed.' });
+    target = { kind: 'conversion', species: sp, value: X };
+  } else if (t.production !== undefined) {
+    const sp = need(t, 'species', ['target'], 'Name the product: "species": "C".') as string;
+    speciesIndex(sp, species, ['target', 'species']);
+    const kindQ: QuantityKind = kind === 'batch' ? 'concentration' : 'molarFlow';
+    target = { kind: 'production', species: sp, value: positive(t.production, kindQ, ['target', 'production'], 'production target') };
+  } else {
+    const kq: QuantityKind = kind === 'packed-bed' ? 'mass' : kind === 'batch' ? 'time' : 'volume';
+    target = { kind: 'size', value: positive(t.size, kq, ['target', 'size'], 'size') };
+  }
+
+  const out: DesignCase = {
+    name: name.trim(),
+    reactor: { kind, phase },
+    feed,
+    species: [...species],
+    temperature,
+    target,
+    uncertainty: { draws: DEFAULT_DRAWS, seed: DEFAULT_SEED, levels: [...DEFAULT_LEVELS] },
+  };
+  if (pressure !== undefined) out.pressure = pressure;
+  if (volumetricFlow !== undefined) out.volumetricFlow = volumetricFlow;
+  if (concentrations) out.concentrations = concentrations;
+
+  if (top.tubes !== undefined) {
+    if (kind !== 'packed-bed' || phase !== 'gas') {
+      throw new RateloomError('E_SCHEMA', 'tubes apply only to a gas-phase packed bed', { path: ['tubes'], fix: 'Remove "tubes" or use a gas packed-bed reactor.' });
+    }
+    const tb = obj(top.tubes, ['tubes'], 'tubes');
+    const names = ['innerDiameter', 'particleDiameter', 'voidFraction', 'bulkDensity', 'particleDensity', 'viscosity', 'allowedPressureDrop'] as const;
+    checkFields(tb, names, ['tubes']);
+    const p = (k: (typeof names)[number], q: QuantityKind) => positive(need(tb, k, ['tubes'], `Add "${k}".`), q, ['tubes', k], k);
+    const tubes: TubeSpec = {
+      innerDiameter: p('innerDiameter', 'length'),
+      particleDiameter: p('particleDiameter', 'length'),
+      voidFraction: num(need(tb, 'voidFraction', ['tubes'], 'Add "voidFraction": 0.4.'), ['tubes', 'voidFraction'], 0.05, 0.95, 'void fraction'),
+      bulkDensity: p('bulkDensity', 'density'),
+      particleDensity: p('particleDensity', 'density'),
+      viscosity: p('viscosity', 'viscosity'),
+      allowedPressureDrop: p('allowedPressureDrop', 'pressure'),
+    };
+    if (tubes.particleDiameter >= tubes.innerDiameter) {
+      throw new RateloomError('E_VALUE', 'the particle diameter is not smaller than the tube diameter', { path: ['tubes', 'particleDiameter'] });
+    }
+    if (tubes.allowedPressureDrop >= pressure!) {
+      throw new RateloomError('E_VALUE', 'the allowed pressure drop is not below the inlet pressure', { path: ['tubes', 'allowedPressureDrop'] });
+    }
+    out.tubes = tubes;
+    out.bulkDensity = tubes.bulkDensity;
+  }
+  if (top.pressureDrop !== undefined) {
+    if (top.tubes !== undefined) throw new RateloomError('E_SCHEMA', 'give "tubes" or "pressureDrop", not both', { path: ['pressureDrop'], fix: 'With tubes, alpha is computed from the Ergun equation; remove "pressureDrop".' });
+    if (phase !== 'gas' || (kind !== 'packed-bed' && kind !== 'plug-flow')) {
+      throw new RateloomError('E_SCHEMA', 'pressure drop applies only to gas packed beds and plug-flow reactors', { path: ['pressureDrop'] });
+    }
+    const pd = obj(top.pressureDrop, ['pressureDrop'], 'pressureDrop');
+    checkFields(pd, ['alpha'], ['pressureDrop']);
+    const a = quantityToSI(need(pd, 'alpha', ['pressureDrop'], 'Add "alpha": "0.002 1/kg".'), kind === 'packed-bed' ? 'alphaMass' : 'alphaVolume', ['pressureDrop', 'alpha']);
+    if (!(a >= 0)) throw new RateloomError('E_VALUE', 'alpha must not be negative', { path: ['pressureDrop', 'alpha'] });
+    out.alpha = a;
+  }
+  if (top.bulkDensity !== undefined) {
+    if (top.tubes !== undefined) throw new RateloomError('E_SCHEMA', 'bulk density is given in "tubes"; remove the top-level "bulkDensity"', { path: ['bulkDensity'] });
+    out.bulkDensity = positive(top.bulkDensity, 'density', ['bulkDensity'], 'bulk density');
+  }
+  if (top.catalystLoading !== undefined) out.catalystLoading = positive(top.catalystLoading, 'density', ['catalystLoading'], 'catalyst loading');
+
+  if (top.heat !== undefined) {
+    const h = obj(top.heat, ['heat'], 'heat');
+    checkFields(h, ['reactionEnthalpy', 'heatCapacity', 'warnAbove'], ['heat']);
+    const re = obj(need(h, 'reactionEnthalpy', ['heat'], 'Add "reactionEnthalpy": { "r1": "-90 kJ/mol" }.'), ['heat', 'reactionEnthalpy'], 'reactionEnthalpy');
+    const reactionEnthalpy: Record<string, number> = {};
+    for (const [id, q] of Object.entries(re)) {
+      if (!reactionIds.includes(id)) {
+        const near = closestName(id, reactionIds);
+        throw new RateloomError('E_VALUE', `reaction '${id}' is not in the fitted kinetics`, {
+          path: ['heat', 'reactionEnthalpy', id],
+          fix: near ? `Did you mean '${near}'?` : `Use one of: ${reactionIds.join(', ')}.`,
+        });
+      }
+      reactionEnthalpy[id] = quantityToSI(q, 'molarEnergy', ['heat', 'reactionEnthalpy', id]);
+    }
+    out.heat = {
+      reactionEnthalpy,
+      heatCapacity: positive(need(h, 'heatCapacity', ['heat'], 'Add "heatCapacity": "35 J/(mol K)".'), 'molarHeatCapacity', ['heat', 'heatCapacity'], 'heat capacity'),
+      warnAbove: h.warnAbove !== undefined ? positive(h.warnAbove, 'temperatureDifference', ['heat', 'warnAbove'], 'warning limit') : 10,
+    };
+  }
+
+  if (top.uncertainty !== undefined) {
+    const u = obj(top.uncertainty, ['uncertainty'], 'uncertainty');
+    checkFields(u, ['draws', 'seed', 'levels'], ['uncertainty']);
+    if (u.draws !== undefined) {
+      const d = num(u.draws, ['uncertainty', 'draws'], 0, 1e7, 'draws');
+      if (!Number.isInteger(d)) throw new RateloomError('E_VALUE', 'draws must be a whole number', { path: ['uncertainty', 'draws'] });
+      out.uncertainty.draws = d;
+    }
+    if (u.seed !== undefined) {
+      const s = num(u.seed, ['uncertainty', 'seed'], 0, 2 ** 32 - 1, 'seed');
+      if (!Number.isInteger(s)) throw new RateloomError('E_VALUE', 'seed must be a whole number', { path: ['uncertainty', 'seed'] });
+      out.uncertainty.seed = s;
+    }
+    if (u.levels !== undefined) {
+      if (!Array.isArray(u.levels) || u.levels.length === 0) throw new RateloomError('E_TYPE', 'levels must be a non-empty list such as [0.9, 0.95]', { path: ['uncertainty', 'levels'] });
+      out.uncertainty.levels = u.levels.map((l, i) => {
+        const v = num(l, ['uncertainty', 'levels', i], 0, 1, 'level');
+        if (!(v > 0.5 && v < 1)) throw new RateloomError('E_VALUE', `level ${v} must lie between 0.5 and 1 (for example 0.9 for P90)`, { path: ['uncertainty', 'levels', i] });
+        return v;
+      });
+    }
+  }
+  return out;
+
+  function moleFractions(v: unknown, sp: readonly string[]): number[] {
+    const mf = obj(v, ['feed', 'moleFractions'], 'moleFractions');
+    const y = new Array<number>(sp.length).fill(0);
+    let sum = 0;
+    for (const [s, q] of Object.entries(mf)) {
+      const i = speciesIndex(s, sp, ['feed', 'moleFractions', s]);
+      y[i] = num(q, ['feed', 'moleFractions', s], 0, 1, 'mole fraction');
+      sum += y[i];
+    }
+    if (Math.abs(sum - 1) > 1e-6) {
+      throw new RateloomError('E_VALUE', `mole fractions sum to ${sum}, not 1`, { path: ['feed', 'moleFractions'], fix: 'Make the mole fractions add up to 1.' });
+    }
+    return y;
+  }
+}
