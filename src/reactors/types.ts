@@ -47,6 +47,12 @@ export interface ReactorSpec {
   /** Pressure drop along a packed bed or plug-flow reactor (gas phase only); default none. */
   pressureDrop?: PressureDropSpec;
   membrane?: MembraneSpec;
+  /**
+   * Bulk density of the catalyst bed, kg catalyst per m3 of reactor, used to convert between
+   * volume-basis and mass-basis rates (packed bed with a volume-basis rate, plug flow with a
+   * mass-basis rate); default none (such a mix is refused).
+   */
+  bulkDensity?: number;
 }
 
 /** Conditions of one run (one lab experiment, or the production case). */

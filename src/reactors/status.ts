@@ -1,0 +1,23 @@
+/**
+ * The status table of reactor solutions: which statuses count as success and their default
+ * messages (the Outcome convention of core/outcome.ts).
+ */
+import type { StatusTable } from '../core/outcome';
+import type { ReactorStatus } from './types';
+
+export const REACTOR_STATUS: StatusTable<ReactorStatus> = {
+  success: { success: true, message: 'reactor solved' },
+  'integration-failed': { success: false, message: 'the integration of the mole balances failed' },
+  'pressure-exhausted': { success: false, message: 'the pressure falls to zero inside the reactor' },
+  'newton-failed': { success: false, message: 'the steady-state balances could not be solved' },
+  'non-finite': { success: false, message: 'a non-finite value appeared in the solution' },
+};
+
+/** success flag per status. */
+export const STATUS_SUCCESS: Record<ReactorStatus, boolean> = {
+  success: true,
+  'integration-failed': false,
+  'pressure-exhausted': false,
+  'newton-failed': false,
+  'non-finite': false,
+};
