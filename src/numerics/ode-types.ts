@@ -24,8 +24,12 @@ export interface OdeOptions {
   rtol?: number;
   /** Absolute tolerance (scalar or per component); default 1e-10. */
   atol?: number | Float64Array;
-  /** 'auto' (non-stiff first, switch to stiff on detection), 'nonstiff' (odex), 'stiff'; default 'auto'. */
-  method?: 'auto' | 'nonstiff' | 'stiff';
+  /**
+   * 'auto' (non-stiff Dormand-Prince first, switch to the stiff Rosenbrock method on detection),
+   * 'nonstiff' (Dormand-Prince 5(4)), 'stiff' (Rosenbrock RODAS4), 'odex' (extrapolation, a
+   * cross-check method that allocates per call); default 'auto'.
+   */
+  method?: 'auto' | 'nonstiff' | 'stiff' | 'odex';
   /** Analytic Jacobian for the stiff method; finite differences when omitted. */
   jac?: OdeJac;
   /** Maximum accepted+rejected steps; default 100000. */
@@ -37,6 +41,13 @@ export interface OdeOptions {
   /** Times at which to report the solution (dense output); default none. */
   tEval?: ArrayLike<number>;
   events?: OdeEvent[];
+  /** Largest step size magnitude, same unit as t; default |t1 - t0|. */
+  maxStep?: number;
+  /**
+   * Declare that f does not depend on t explicitly; the stiff method then skips the numerical
+   * df/dt (one right-hand-side evaluation per step saved). Default false.
+   */
+  autonomous?: boolean;
 }
 
 export type OdeStatus =
@@ -68,7 +79,7 @@ export interface OdeResult {
     steps: number;
     rejectedSteps: number;
     /** Method(s) that did the work. */
-    method: 'nonstiff' | 'stiff' | 'nonstiff+stiff';
+    method: 'nonstiff' | 'stiff' | 'nonstiff+stiff' | 'odex';
     luDecompositions: number;
   };
 }
