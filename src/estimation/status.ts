@@ -1,0 +1,45 @@
+/**
+ * The status table shared by the least-squares solvers and the fit (see core/outcome.ts):
+ * `success` follows from the code alone. Only the three convergence tests count as success.
+ */
+import type { StatusTable } from '../core/outcome';
+
+export type FitStatus =
+  | 'converged-ftol'
+  | 'converged-xtol'
+  | 'converged-gtol'
+  | 'max-iterations'
+  | 'max-evaluations'
+  | 'model-failure'
+  | 'singular';
+
+export const FIT_STATUS: StatusTable<FitStatus> = {
+  'converged-ftol': {
+    success: true,
+    message: 'Converged: the relative reduction of the sum of squares fell below ftol',
+  },
+  'converged-xtol': {
+    success: true,
+    message: 'Converged: the relative change of the scaled parameters fell below xtol',
+  },
+  'converged-gtol': {
+    success: true,
+    message: 'Converged: the scaled gradient (cosine between residuals and Jacobian columns) fell below gtol',
+  },
+  'max-iterations': {
+    success: false,
+    message: 'Not converged: the iteration limit was reached',
+  },
+  'max-evaluations': {
+    success: false,
+    message: 'Not converged: the model-evaluation limit was reached',
+  },
+  'model-failure': {
+    success: false,
+    message: 'Not converged: the model could not be evaluated',
+  },
+  singular: {
+    success: false,
+    message: 'The Jacobian at the solution is rank-deficient: some parameters are not identifiable from these data',
+  },
+};

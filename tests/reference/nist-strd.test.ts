@@ -1,0 +1,97 @@
+/**
+ * NIST StRD nonlinear regression: fitModel from both official starts must reproduce the certified
+ * estimates to 6 significant digits and standard errors to 4, or report a non-converged status.
+ * A wrong answer called converged fails the test.
+ */
+import { describe, expect, it } from 'vitest';
+import { makeParameter } from '../../src/core/parameter';
+import { fitModel } from '../../src/estimation/fit';
+import type { SolverName } from '../../src/estimation/fit-types';
+import type { RegressionModel } from '../../src/estimation/model';
+import { readNist, type NistDataset } from './nist-strd-data';
+
+type Fn = (b: Float64Array, x: number) => number;
+const MODELS: Record<string, Fn> = {
+  Misra1a: (b, x) => b[0] * (1 - Math.exp(-b[1] * x)),
+  Chwirut2: (b, x) => Math.exp(-b[0] * x) / (b[1] + b[2] * x),
+  DanWood: (b, x) => b[0] * x ** b[1],
+  BoxBOD: (b, x) => b[0] * (1 - Math.exp(-b[1] * x)),
+};
+
+function nistModel(d: NistDataset, f: Fn): RegressionModel {
+  return {
+    nObservations: d.x.length,
+    parameterNames: d.certified.map((_, i) => `b${i + 1}`),
+    predict(theta, out) {
+      for (let i = 0; i < d.x.length; i++) out[i] = f(theta, d.x[i]);
+      return true;
+    },
+  };
+}
+
+function fitNist(d: NistDataset, start: number[], solver: SolverName) {
+  const params = start.map((v, i) => makeParameter({ name: `b${i + 1}`, value: v }));
+  return fitModel(
+    nistModel(d, MODELS[d.name]),
+    params,
+    { measured: Float64Array.from(d.y), sigma: new Float64Array(d.y.length).fill(1), sigmaKnown: false },
+    { solver, profile: false },
+  );
+}
+
+const relErr = (a: number, b: number): number => Math.abs(a - b) / Math.abs(b);
+
+describe('NIST StRD nonlinear regression, own trust-region LM', () => {
+  for (const name of Object.keys(MODELS)) {
+    const d = readNist(name);
+    d.starts.forEach((start, s) => {
+      it(`${name} from start ${s + 1}`, () => {
+        const fit = fitNist(d, start, 'trust-region');
+        if (!fit.success) {
+          // A non-converged status is an acceptable answer; it must not carry a success flag.
+          expect(fit.status).not.toMatch(/^converged/);
+          return;
+        }
+        fit.parameters.forEach((p, i) => {
+          // Source: NIST StRD, <name>, certified values (estimates to 6 significant digits).
+          expect(relErr(p.value, d.certified[i])).toBeLessThan(5e-6);
+          // Source: NIST StRD, <name>, certified values (standard deviations to 4 significant digits).
+          expect(relErr(p.stdError ?? NaN, d.certifiedStdDev[i])).toBeLessThan(5e-4);
+        });
+        // Source: NIST StRD, <name>, certified values (residual sum of squares).
+        expect(relErr(fit.statistics.ssr, d.rss)).toBeLessThan(1e-6);
+        expect(relErr(fit.statistics.residualStdDev ?? NaN, d.residualStdDev)).toBeLessThan(1e-6);
+      });
+    });
+  }
+
+  it('converges from the start that lies near the solution on every dataset', () => {
+    // Source: NIST StRD certified values; start 2 is the "closer" official start.
+    for (const name of Object.keys(MODELS)) {
+      const d = readNist(name);
+      const fit = fitNist(d, d.starts[1], 'trust-region');
+      expect(fit.success, `${name}: ${fit.message}`).toBe(true);
+    }
+  });
+});
+
+describe('NIST StRD nonlinear regression, card package ml-levenberg-marquardt (wrapped)', () => {
+  for (const name of Object.keys(MODELS)) {
+    const d = readNist(name);
+    d.starts.forEach((start, s) => {
+      it(`${name} from start ${s + 1}: right answer or honest non-convergence`, () => {
+        const fit = fitNist(d, start, 'card');
+        if (!fit.success) {
+          expect(fit.status).not.toMatch(/^converged/);
+          return;
+        }
+        fit.parameters.forEach((p, i) => {
+          // Source: NIST StRD, <name>, certified values.
+          expect(relErr(p.value, d.certified[i])).toBeLessThan(5e-6);
+          // Source: NIST StRD, <name>, certified values.
+          expect(relErr(p.stdError ?? NaN, d.certifiedStdDev[i])).toBeLessThan(5e-4);
+        });
+      });
+    });
+  }
+});
