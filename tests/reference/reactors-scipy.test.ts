@@ -1,0 +1,169 @@
+/**
+ * Gas-phase packed beds with several reactions and pressure drop against SciPy solve_ivp
+ * (Radau, rtol 1e-11), plus element balances along the profile and the stiff case's method.
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { buildChemistry } from '../../src/chemistry/mechanism';
+import { solveReactor } from '../../src/reactors';
+import { massAction } from '../reactors/mass-action';
+
+interface RefCase {
+  species: string[];
+  T: number;
+  P0: number;
+  feed: number[];
+  W: number;
+  alpha: number;
+  params: Record<string, number>;
+  W_points: number[];
+  profile: { F: number[]; p: number }[];
+  radau_vs_lsoda_max_rel_diff: number;
+}
+const ref = JSON.parse(readFileSync(new URL('./scipy/reactors_multi.json', import.meta.url), 'utf8')) as {
+  scipy: string;
+  R: number;
+  cases: Record<string, RefCase>;
+};
+
+const KINETICS = {
+  multi: {
+    kin: massAction(
+      ['A', 'B', 'C', 'D', 'I'],
+      [
+        { nu: { A: -1, B: -1, C: 1 }, orders: { A: 1, B: 1 }, k: 'k1', reverse: { orders: { C: 1 }, K: 'K1' }, basis: 'mass' },
+        { nu: { C: -1, D: 1 }, orders: { C: 1 }, k: 'k2', basis: 'mass' },
+      ],
+      ['k1', 'K1', 'k2'],
+    ),
+    chem: buildChemistry(
+      [
+        { name: 'A', formula: 'C2H4' },
+        { name: 'B', formula: 'H2O' },
+        { name: 'C', formula: 'C2H6O' },
+        { name: 'D', formula: 'C2H6O' },
+        { name: 'I', formula: 'N2', inert: true },
+      ],
+      [
+        { id: 'r1', equation: 'A + B <=> C' },
+        { id: 'r2', equation: 'C -> D' },
+      ],
+    ),
+  },
+  stiff: {
+    kin: massAction(
+      ['A', 'B', 'C', 'I'],
+      [
+        { nu: { A: -1, B: 1 }, orders: { A: 1 }, k: 'k1', reverse: { orders: { B: 1 }, K: 'K1' }, basis: 'mass' },
+        { nu: { B: -1, C: 1 }, orders: { B: 1 }, k: 'k2', basis: 'mass' },
+      ],
+      ['k1', 'K1', 'k2'],
+    ),
+    chem: buildChemistry(
+      [
+        { name: 'A', formula: 'C4H10' },
+        { name: 'B', formula: 'C4H10' },
+        { name: 'C', formula: 'C4H10' },
+        { name: 'I', formula: 'Ar', inert: true },
+      ],
+      [
+        { id: 'r1', equation: 'A <=> B' },
+        { id: 'r2', equation: 'B -> C' },
+      ],
+    ),
+  },
+} as const;
+
+function solveCase(name: 'multi' | 'stiff', extra: object = {}) {
+  const c = ref.cases[name];
+  const { kin } = KINETICS[name];
+  const theta = Float64Array.from(kin.parameterNames.map((p) => c.params[p]));
+  const run = { id: name, temperature: c.T, pressure: c.P0, feed: Float64Array.from(c.feed), size: c.W };
+  return solveReactor({ kind: 'packed-bed', phase: 'gas', pressureDrop: { alpha: c.alpha } }, run, kin, theta, {
+    rtol: 1e-10,
+    atol: 1e-13,
+    profile: true,
+    profilePoints: c.W_points,
+    ...extra,
+  });
+}
+
+describe('SciPy reference: gas-phase packed beds with pressure drop', () => {
+  it('records the SciPy version and a self-consistent reference', () => {
+    expect(ref.scipy).toMatch(/^\d+\.\d+/);
+    // Source: SciPy solve_ivp Radau vs LSODA, script tests/reference/scipy/reactors_multi.py
+    for (const c of Object.values(ref.cases)) expect(c.radau_vs_lsoda_max_rel_diff).toBeLessThan(1e-8);
+  });
+
+  for (const name of ['multi', 'stiff'] as const) {
+    it(`${name}: outlet and profile agree to 1e-6 relative`, () => {
+      const c = ref.cases[name];
+      const s = solveCase(name);
+      expect(s.status).toBe('success');
+      const prof = s.profile!;
+      expect(prof.x).toEqual(c.W_points);
+      const FT0 = c.feed.reduce((a, b) => a + b, 0);
+      for (let i = 0; i < c.W_points.length; i++) {
+        for (let j = 0; j < c.species.length; j++) {
+          const want = c.profile[i].F[j];
+          // Source: SciPy solve_ivp (Radau, rtol 1e-11), script tests/reference/scipy/reactors_multi.py
+          expect(Math.abs(prof.amounts[i][j] - want)).toBeLessThan(1e-6 * Math.max(Math.abs(want), 1e-3 * FT0));
+        }
+        // Source: SciPy solve_ivp (Radau), same script: pressure ratio p along the bed
+        expect(Math.abs(prof.pressureRatio[i] - c.profile[i].p)).toBeLessThan(1e-6 * c.profile[i].p);
+      }
+      const last = c.profile[c.profile.length - 1];
+      for (let j = 0; j < c.species.length; j++) {
+        // Source: SciPy solve_ivp outlet, script tests/reference/scipy/reactors_multi.py
+        expect(Math.abs(s.outletAmounts[j] - last.F[j]) / Math.abs(last.F[j])).toBeLessThan(1e-6);
+      }
+      expect(Math.abs(s.pressureRatio - last.p) / last.p).toBeLessThan(1e-6);
+      for (const row of prof.concentrations) for (const v of row) expect(Number.isFinite(v)).toBe(true);
+    });
+  }
+
+  it('multi: element balances close to round-off at every profile point', () => {
+    const s = solveCase('multi');
+    const { chem, kin } = KINETICS.multi;
+    expect(Array.from(chem.stoich)).toEqual(Array.from(kin.stoich));
+    const nS = chem.speciesNames.length;
+    const feed = ref.cases.multi.feed;
+    for (const row of s.profile!.amounts) {
+      for (let e = 0; e < chem.elements.length; e++) {
+        let before = 0;
+        let after = 0;
+        for (let j = 0; j < nS; j++) {
+          before += chem.elementMatrix[e * nS + j] * feed[j];
+          after += chem.elementMatrix[e * nS + j] * row[j];
+        }
+        // Source: element conservation of balanced reactions (common practice, no source)
+        expect(Math.abs(after - before)).toBeLessThan(1e-12 * before);
+      }
+    }
+  });
+
+  it('stiff: completes through the stiff method within its step budget', () => {
+    const s = solveCase('stiff', { maxSteps: 2000 });
+    expect(s.status).toBe('success');
+    expect(s.stats.method).toContain('stiff');
+    expect(s.stats.steps).toBeLessThan(2000);
+    // A, B and C are isomers (C4H10); the inert is carried unchanged
+    const { chem, kin } = KINETICS.stiff;
+    expect(Array.from(chem.stoich)).toEqual(Array.from(kin.stoich));
+    const nS = chem.speciesNames.length;
+    const feed = ref.cases.stiff.feed;
+    for (const row of s.profile!.amounts) {
+      for (let e = 0; e < chem.elements.length; e++) {
+        let before = 0;
+        let after = 0;
+        for (let j = 0; j < nS; j++) {
+          before += chem.elementMatrix[e * nS + j] * feed[j];
+          after += chem.elementMatrix[e * nS + j] * row[j];
+        }
+        // Source: element conservation of balanced reactions (common practice, no source)
+        expect(Math.abs(after - before)).toBeLessThan(1e-12 * before);
+      }
+      expect(row[3]).toBe(1);
+    }
+  });
+});
