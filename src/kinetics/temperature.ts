@@ -1,0 +1,38 @@
+/**
+ * Temperature dependence about a reference temperature T_ref (reparameterised forms, which
+ * decorrelate the pre-factor from the energy in regression; Schwaab & Pinto 2007, Chem. Eng. Sci.
+ * 62, 2750):
+ *   Arrhenius:    k(T) = k_ref * exp(-E/R  * (1/T - 1/T_ref))
+ *   van 't Hoff:  K(T) = K_ref * exp(-dH/R * (1/T - 1/T_ref))
+ * R = 8.314462618 J/(mol K) (CODATA 2018, exact: N_A * k_B).
+ */
+import type { Node, NodeStore } from './expression/ast';
+
+/** Molar gas constant, J/(mol K). Source: CODATA 2018 (exact, N_A k_B). */
+export const GAS_CONSTANT = 8.314462618;
+
+/** k(T) = kRef exp(-E/R (1/T - 1/Tref)); E in J/mol, T and Tref in K. */
+export function arrhenius(kRef: number, activationEnergy: number, T: number, Tref: number): number {
+  return kRef * Math.exp((-activationEnergy / GAS_CONSTANT) * (1 / T - 1 / Tref));
+}
+
+/** K(T) = KRef exp(-dH/R (1/T - 1/Tref)); dH in J/mol, T and Tref in K. */
+export function vantHoff(KRef: number, enthalpy: number, T: number, Tref: number): number {
+  return KRef * Math.exp((-enthalpy / GAS_CONSTANT) * (1 / T - 1 / Tref));
+}
+
+/**
+ * Tree of ref * exp(-energy/R (1/T - 1/Tref)); just `ref` when energy is undefined.
+ * Used for both Arrhenius (energy = E) and van 't Hoff (energy = dH) terms.
+ */
+export function temperatureFactorNode(
+  s: NodeStore,
+  ref: Node,
+  energy: Node | undefined,
+  T: Node,
+  Tref: number,
+): Node {
+  if (!energy) return ref;
+  const inv = s.sub(s.div(s.num(1), T), s.num(1 / Tref));
+  return s.mul(ref, s.call('exp', [s.mul(s.neg(s.div(energy, s.num(GAS_CONSTANT))), inv)]));
+}
