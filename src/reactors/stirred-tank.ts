@@ -5,16 +5,15 @@
  * rate is mass-basis) for mass-basis rates; liquid C_j = F_j / v0, gas C_j = C_T0 F_j / F_T (outlet
  * at the inlet pressure, p = 1).
  *
- * Method: damped Newton with the exact Jacobian dG/dF = -I + (dR/dC)(dC/dF) from
- * CompiledKinetics.ratesJacC and LU solves, projected onto non-negative flows with backtracking
- * on ||G|| (Deuflhard, Newton Methods for Nonlinear Problems, Springer 2004, ch. 3, in its simplest
- * residual-based form); then a residual check, and a search for further steady states: a scan of
+ * Method: damped Newton (numerics/newton.ts, Dennis & Schnabel 1983) with the exact Jacobian
+ * dG/dF = -I + (dR/dC)(dC/dF) from CompiledKinetics.ratesJacC, flows kept non-negative; then a residual check, and a search for further steady states: a scan of
  * the scalar residual along the extent of reaction when there is one reaction, Newton from starting
  * points spread between feed and full conversion otherwise. Sensitivities by implicit
  * differentiation, (dG/dF) dF/dtheta = -dG/dtheta, with the LU at the solution.
  */
 import type { CompiledKinetics } from '../kinetics/compiled';
 import { luFactor, luSolve } from '../numerics/lu';
+import { newton } from '../numerics/newton';
 import {
   basisWeights, checkKinetics, checkPositive, checkPressure, checkSpeciesVector, checkTemperature, checkTheta, runPath,
 } from './checks';
@@ -42,10 +41,6 @@ class TankSystem {
   // Newton work
   readonly J: Float64Array;
   readonly piv: Int32Array;
-  private readonly G: Float64Array;
-  private readonly dx: Float64Array;
-  private readonly trial: Float64Array;
-  private readonly Gt: Float64Array;
   evaluations = 0;
   jacobians = 0;
   iterations = 0;
@@ -70,10 +65,6 @@ class TankSystem {
     this.dCdp = new Float64Array(nS);
     this.J = new Float64Array(nS * nS);
     this.piv = new Int32Array(nS);
-    this.G = new Float64Array(nS);
-    this.dx = new Float64Array(nS);
-    this.trial = new Float64Array(nS);
-    this.Gt = new Float64Array(nS);
   }
 
   conc(F: Float64Array, out: Float64Array): void {
@@ -121,38 +112,30 @@ class TankSystem {
   }
 
   /**
-   * Damped, projected Newton from x (updated in place). Returns the final max-norm residual
-   * (Infinity when it fails with a singular Jacobian or a non-finite value).
+   * Damped Newton (numerics/newton.ts) from x, kept at non-negative flows; x is updated in place.
+   * Returns the final max-norm residual (Infinity when Newton failed without a finite point).
    */
   newton(x: Float64Array, tol: number): number {
-    const { nS, G, dx, trial, Gt, J, piv } = this;
-    let g = this.residual(x, G);
-    for (let it = 0; it < MAX_ITER && g > tol; it++) {
-      this.iterations++;
-      this.jacobian(x);
-      if (luFactor(J, nS, piv) !== 0) return Infinity;
-      for (let j = 0; j < nS; j++) dx[j] = -G[j];
-      luSolve(J, nS, piv, dx);
-      let lambda = 1;
-      let accepted = false;
-      for (let k = 0; k < 30; k++) {
-        for (let j = 0; j < nS; j++) {
-          const v = x[j] + lambda * dx[j];
-          trial[j] = v > 0 ? v : 0;
-        }
-        const gt = this.residual(trial, Gt);
-        if (Number.isFinite(gt) && gt < (1 - 1e-4 * lambda) * g) {
-          x.set(trial);
-          G.set(Gt);
-          g = gt;
-          accepted = true;
-          break;
-        }
-        lambda *= 0.5;
-      }
-      if (!accepted) return g;
-    }
-    return Number.isFinite(g) ? g : Infinity;
+    const res = newton(
+      (F, out) => {
+        this.residual(F, out);
+      },
+      x,
+      {
+        jac: (F, out) => {
+          this.jacobian(F);
+          out.set(this.J);
+        },
+        ftol: tol,
+        lower: 0,
+        maxIterations: MAX_ITER,
+      },
+    );
+    this.iterations += res.iterations;
+    if (!res.x.every(Number.isFinite)) return Infinity;
+    x.set(res.x);
+    if (res.success) return res.residualNorm;
+    return Number.isFinite(res.residualNorm) ? Math.max(res.residualNorm, 2 * tol) : Infinity;
   }
 }
 

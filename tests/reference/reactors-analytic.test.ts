@@ -4,13 +4,13 @@
 import { describe, expect, it } from 'vitest';
 import { solveReactor } from '../../src/reactors';
 import { R_GAS } from '../../src/reactors/gas';
-import { massAction } from '../reactors/mass-action';
+import { compile, pl, rpl } from '../reactors/compiled';
 
 const tight = { rtol: 1e-11, atol: 1e-14 };
 const rel = (a: number, b: number): number => Math.abs(a - b) / Math.abs(b);
 
 describe('first order A -> B, liquid', () => {
-  const kin = massAction(['A', 'B'], [{ nu: { A: -1, B: 1 }, orders: { A: 1 }, k: 'k' }], ['k']);
+  const kin = compile(['A', 'B'], [{ equation: 'A -> B', rate: pl('k') }], ['k']);
   const k = 0.02; // 1/s
   const v0 = 1e-3; // m3/s
   const V = 0.1; // m3 -> tau = 100 s
@@ -46,7 +46,7 @@ describe('second order 2 A -> B, liquid plug flow', () => {
   it('X = 2 k C_A0 tau / (1 + 2 k C_A0 tau) for r = k C_A^2 per reaction', () => {
     // r is per reaction event; A is consumed at 2 r, so dC_A/dtau = -2 k C_A^2 and
     // 1/C_A - 1/C_A0 = 2 k tau.
-    const kin = massAction(['A', 'B'], [{ nu: { A: -2, B: 1 }, orders: { A: 2 }, k: 'k' }], ['k']);
+    const kin = compile(['A', 'B'], [{ equation: '2 A -> B', rate: pl('k') }], ['k']);
     const k = 1e-4; // m3/(mol s)
     const v0 = 2e-3;
     const V = 0.5;
@@ -64,7 +64,7 @@ describe('second order 2 A -> B, liquid plug flow', () => {
 
 describe('reversible A <=> B in a batch', () => {
   it('C_A(t) = C_Ae + (C_A0 - C_Ae) exp(-(kf + kr) t)', () => {
-    const kin = massAction(['A', 'B'], [{ nu: { A: -1, B: 1 }, orders: { A: 1 }, k: 'kf', reverse: { orders: { B: 1 }, K: 'K' } }], ['kf', 'K']);
+    const kin = compile(['A', 'B'], [{ equation: 'A <=> B', rate: rpl('kf', 'K') }], ['kf', 'K']);
     const kf = 3e-3;
     const kr = 1e-3;
     const CA0 = 500;
@@ -86,7 +86,7 @@ describe('reversible A <=> B in a batch', () => {
 });
 
 describe('pressure drop with constant total moles', () => {
-  const kin = massAction(['A', 'B'], [{ nu: { A: -1, B: 1 }, orders: { A: 1 }, k: 'k', basis: 'mass' }], ['k']);
+  const kin = compile(['A', 'B'], [{ equation: 'A -> B', rate: pl('k', 'mass') }], ['k']);
   const alpha = 0.015; // 1/kg
   const W = 50; // kg
   for (const k of [0, 2e-4]) {
@@ -106,7 +106,7 @@ describe('pressure drop with constant total moles', () => {
 
 describe('first order gas A -> 2 B with volume change, plug flow without pressure drop', () => {
   it('k tau = (1 + eps) ln(1/(1 - X)) - eps X', () => {
-    const kin = massAction(['A', 'B', 'I'], [{ nu: { A: -1, B: 2 }, orders: { A: 1 }, k: 'k' }], ['k']);
+    const kin = compile(['A', 'B', { name: 'I', inert: true }], [{ equation: 'A -> 2 B', rate: pl('k') }], ['k']);
     const k = 0.5; // 1/s
     const T = 550;
     const P0 = 2e5;
@@ -128,7 +128,7 @@ describe('first order gas A -> 2 B with volume change, plug flow without pressur
 
 describe('equilibrium of A <=> 2 B with an inert over a very large catalyst mass', () => {
   it('reaches the equilibrium conversion computed from K_C', () => {
-    const kin = massAction(['A', 'B', 'I'], [{ nu: { A: -1, B: 2 }, orders: { A: 1 }, k: 'k', reverse: { orders: { B: 2 }, K: 'KC' }, basis: 'mass' }], ['k', 'KC']);
+    const kin = compile(['A', 'B', { name: 'I', inert: true }], [{ equation: 'A <=> 2 B', rate: rpl('k', 'KC', 'mass') }], ['k', 'KC']);
     const T = 700;
     const P0 = 3e5;
     const KC = 20; // mol/m3

@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { buildChemistry } from '../../src/chemistry/mechanism';
 import { solveReactor } from '../../src/reactors';
-import { massAction } from '../reactors/mass-action';
+import { compile, pl, rpl } from '../reactors/compiled';
 
 interface RefCase {
   species: string[];
@@ -26,53 +26,34 @@ const ref = JSON.parse(readFileSync(new URL('./scipy/reactors_multi.json', impor
   cases: Record<string, RefCase>;
 };
 
+const MULTI_SPECIES = [
+  { name: 'A', formula: 'C2H4' },
+  { name: 'B', formula: 'H2O' },
+  { name: 'C', formula: 'C2H6O' },
+  { name: 'D', formula: 'C2H6O' },
+  { name: 'I', formula: 'N2', inert: true },
+];
+const MULTI_REACTIONS = [
+  { equation: 'A + B <=> C', rate: rpl('k1', 'K1', 'mass') },
+  { equation: 'C -> D', rate: pl('k2', 'mass') },
+];
+const STIFF_SPECIES = [
+  { name: 'A', formula: 'C4H10' },
+  { name: 'B', formula: 'C4H10' },
+  { name: 'C', formula: 'C4H10' },
+  { name: 'I', formula: 'Ar', inert: true },
+];
+const STIFF_REACTIONS = [
+  { equation: 'A <=> B', rate: rpl('k1', 'K1', 'mass') },
+  { equation: 'B -> C', rate: pl('k2', 'mass') },
+];
+const chemOf = (species: typeof MULTI_SPECIES, reactions: typeof MULTI_REACTIONS) =>
+  buildChemistry(species, reactions.map((r, i) => ({ id: `r${i + 1}`, equation: r.equation })));
+
 const KINETICS = {
-  multi: {
-    kin: massAction(
-      ['A', 'B', 'C', 'D', 'I'],
-      [
-        { nu: { A: -1, B: -1, C: 1 }, orders: { A: 1, B: 1 }, k: 'k1', reverse: { orders: { C: 1 }, K: 'K1' }, basis: 'mass' },
-        { nu: { C: -1, D: 1 }, orders: { C: 1 }, k: 'k2', basis: 'mass' },
-      ],
-      ['k1', 'K1', 'k2'],
-    ),
-    chem: buildChemistry(
-      [
-        { name: 'A', formula: 'C2H4' },
-        { name: 'B', formula: 'H2O' },
-        { name: 'C', formula: 'C2H6O' },
-        { name: 'D', formula: 'C2H6O' },
-        { name: 'I', formula: 'N2', inert: true },
-      ],
-      [
-        { id: 'r1', equation: 'A + B <=> C' },
-        { id: 'r2', equation: 'C -> D' },
-      ],
-    ),
-  },
-  stiff: {
-    kin: massAction(
-      ['A', 'B', 'C', 'I'],
-      [
-        { nu: { A: -1, B: 1 }, orders: { A: 1 }, k: 'k1', reverse: { orders: { B: 1 }, K: 'K1' }, basis: 'mass' },
-        { nu: { B: -1, C: 1 }, orders: { B: 1 }, k: 'k2', basis: 'mass' },
-      ],
-      ['k1', 'K1', 'k2'],
-    ),
-    chem: buildChemistry(
-      [
-        { name: 'A', formula: 'C4H10' },
-        { name: 'B', formula: 'C4H10' },
-        { name: 'C', formula: 'C4H10' },
-        { name: 'I', formula: 'Ar', inert: true },
-      ],
-      [
-        { id: 'r1', equation: 'A <=> B' },
-        { id: 'r2', equation: 'B -> C' },
-      ],
-    ),
-  },
-} as const;
+  multi: { kin: compile(MULTI_SPECIES, MULTI_REACTIONS, ['k1', 'K1', 'k2']), chem: chemOf(MULTI_SPECIES, MULTI_REACTIONS) },
+  stiff: { kin: compile(STIFF_SPECIES, STIFF_REACTIONS, ['k1', 'K1', 'k2']), chem: chemOf(STIFF_SPECIES, STIFF_REACTIONS) },
+};
 
 function solveCase(name: 'multi' | 'stiff', extra: object = {}) {
   const c = ref.cases[name];
