@@ -1,0 +1,16 @@
+/**
+ * The cautions every sizing result carries, whatever its status. They are part of the result (and
+ * of the --json output) so that no printed size travels without them.
+ */
+
+export const CAUTIONS: readonly string[] = [
+  'Preliminary estimate for screening only.',
+  'Assumes isothermal operation; the heat of reaction must be removed or supplied to hold the temperature, and no temperature profile, hot spot or runaway was modelled.',
+  'Heat removal, runaway, pressure relief and pressure-vessel design must be done by licensed engineers under the applicable local codes and standards.',
+  'Kinetics are valid only within the range of the data; outside it the size is an extrapolation.',
+];
+
+/** A fresh copy of the cautions for one result. */
+export function cautions(): string[] {
+  return [...CAUTIONS];
+}

@@ -1,0 +1,267 @@
+/**
+ * Sizing the production reactor from fitted kinetics, with the uncertainty carried through: the one
+ * entry point of the design module. It checks feasibility (equilibrium conversion), sizes the
+ * reactor for the target (terminal event on the mole balances, or the stirred-tank balance solved
+ * for the size), designs the tube bundle of a packed bed, propagates the parameter covariance
+ * (Monte Carlo and delta method), compares the case with the data coverage, checks the isothermal
+ * assumption, and attaches the cautions. Numerical trouble is a status, never a throw.
+ */
+import type { CompiledKinetics } from '../kinetics/compiled';
+import { outcome, type Outcome, type StatusTable, type Warning } from '../core/outcome';
+import type { FittedKinetics } from './handoff';
+import type { DesignCase } from './case';
+import { buildSystem, GAS_CONSTANT, type DesignSystem } from './system';
+import { Sizer, fmt, type SizeOnce } from './sizer';
+import { equilibriumConversion, type EquilibriumLimit } from './feasibility';
+import { designTubes, type TubeDesign } from './tubes';
+import { parameterMap } from './handoff-load';
+import { propagate, type UncertaintyResult } from './uncertainty';
+import { extrapolationWarnings } from './extrapolation';
+import { heatCheck, type HeatCheck } from './heat';
+import { cautions } from './cautions';
+
+export type SizingStatus =
+  | 'sized'
+  | 'rated'
+  | 'target-unreachable'
+  | 'pressure-exhausted'
+  | 'too-many-tubes'
+  | 'integration-failed'
+  | 'draws-failed';
+
+export const SIZING_STATUS: StatusTable<SizingStatus> = {
+  sized: { success: true, message: 'reactor sized for the target' },
+  rated: { success: true, message: 'given reactor rated' },
+  'target-unreachable': { success: false, message: 'the target cannot be reached' },
+  'pressure-exhausted': { success: false, message: 'the pressure runs out before the target is reached' },
+  'too-many-tubes': { success: false, message: 'no tube count keeps the pressure drop within the allowed value' },
+  'integration-failed': { success: false, message: 'the reactor model could not be solved' },
+  'draws-failed': { success: false, message: 'too many Monte Carlo draws failed for the percentiles to be trusted' },
+};
+
+export interface SizingOptions {
+  /** Monte Carlo draws; default from the case (10000). 0 skips Monte Carlo (delta method only). */
+  draws?: number;
+  /** PRNG seed; default from the case. */
+  seed?: number;
+  /** Confidence levels (fractions); default from the case ([0.9, 0.95]). */
+  levels?: number[];
+  /** Draws used for the conversion band; default 200. */
+  profileDraws?: number;
+  /** Fraction of failed draws above which the result is 'draws-failed'; default 0.01. */
+  maxFailedFraction?: number;
+  /** Progress of the Monte Carlo draws (done, total). */
+  onProgress?: (done: number, total: number) => void;
+}
+
+export interface SizingInput {
+  handoff: FittedKinetics;
+  /** Kinetics compiled from the hand-off (species and parameter order). */
+  kinetics: CompiledKinetics;
+  kase: DesignCase;
+  /** Molar masses per species, kg/mol (needed for tubes: Ergun mass flux). */
+  molarMasses?: ArrayLike<number>;
+  options?: SizingOptions;
+}
+
+export interface SizingResult extends Outcome<SizingStatus> {
+  case: string;
+  reactor: { kind: DesignCase['reactor']['kind']; phase: 'gas' | 'liquid' };
+  target: DesignCase['target'];
+  /** Catalyst mass (kg), volume (m3) or batch time (s) for the target, nominal fit. */
+  size?: { value: number; unit: 'kg' | 'm3' | 's'; quantity: 'catalyst mass' | 'volume' | 'batch time' };
+  /** W/F_A0 (kg s/mol) for a packed bed, V/v0 (s) for plug flow and stirred tank, t (s) for batch. */
+  spaceTime?: { value: number; unit: 'kg s/mol' | 's'; definition: string };
+  outlet?: {
+    /** mol/s (flow reactors) or mol/m3 (batch). */
+    amounts: Record<string, number>;
+    amountUnit: 'mol/s' | 'mol/m3';
+    moleFractions: Record<string, number>;
+    /** Conversion of the key species (target species), 0..1. */
+    conversion?: { species: string; value: number };
+  };
+  pressure?: { inlet: number; outlet: number; drop: number; dropBar: number; unit: 'Pa' };
+  tubes?: TubeDesign;
+  equilibrium?: EquilibriumLimit;
+  heat?: HeatCheck;
+  uncertainty?: UncertaintyResult;
+  /** Always present, whatever the status. */
+  cautions: string[];
+}
+
+const QUANTITY = { kg: 'catalyst mass', m3: 'volume', s: 'batch time' } as const;
+
+/** Size (or rate) the production reactor of a case. */
+export function sizeReactor(input: SizingInput): SizingResult {
+  const { handoff, kinetics, kase } = input;
+  const opts = input.options ?? {};
+  const map = parameterMap(handoff, kinetics.parameterNames);
+  const sys = buildSystem(kinetics, kase, map.theta);
+  const sizer = new Sizer(sys);
+  const warnings: Warning[] = [];
+  const base = {
+    case: kase.name,
+    reactor: { ...kase.reactor },
+    target: kase.target,
+    cautions: cautions(),
+  };
+  const fail = (status: SizingStatus, detail: string, extra: Partial<SizingResult> = {}): SizingResult => ({
+    ...outcome(SIZING_STATUS, status, warnings, detail),
+    ...base,
+    ...extra,
+  });
+  const t = kase.target;
+  const keyName = t.kind === 'conversion' ? t.species : firstReactant(sys);
+  const key = keyName !== undefined ? kase.species.indexOf(keyName) : -1;
+
+  // Feasibility.
+  let equilibrium: EquilibriumLimit | undefined;
+  if (t.kind === 'conversion') {
+    equilibrium = equilibriumConversion(kinetics, kase, map.theta, t.species);
+    if (t.value >= equilibrium.conversion - 1e-9) {
+      return fail(
+        'target-unreachable',
+        `target conversion of ${t.species} ${fmt(t.value, 4)} is at or beyond the ${equilibrium.method === 'limiting-reactant' ? 'largest conversion the limiting reactant allows' : 'equilibrium conversion'} ` +
+          `${fmt(equilibrium.conversion, 6)} at ${fmt(kase.temperature, 5)} K${kase.pressure !== undefined ? ` and ${fmt(kase.pressure / 1e5, 5)} bar` : ''}; lower the target below ${fmt(equilibrium.conversion, 4)} or change the temperature, pressure or feed`,
+        { equilibrium },
+      );
+    }
+    if (!equilibrium.settled) warnings.push({ code: 'W_EQUILIBRIUM', message: 'the equilibrium (plateau) conversion had not settled; the feasibility check is approximate' });
+  }
+
+  // Nominal sizing.
+  let res: SizeOnce;
+  let tubes: TubeDesign | undefined;
+  if (kase.tubes && t.kind !== 'size') {
+    if (!input.molarMasses) {
+      return fail('integration-failed', 'the tube design needs the molar masses of all species (give molarMass or formula per species in the hand-off)');
+    }
+    const ts = designTubes(sizer, input.molarMasses);
+    res = ts.sizing;
+    if (ts.status === 'too-many-tubes') return fail('too-many-tubes', ts.detail ?? '');
+    if (ts.design) tubes = ts.design;
+  } else {
+    res = sizer.size();
+  }
+  if (res.status === 'pressure-exhausted') {
+    const where = res.exhaustedAt!;
+    const conv = key >= 0 ? sizer.conversion(res.y, key) : NaN;
+    return fail(
+      'pressure-exhausted',
+      `the pressure falls to zero at ${fmt(where, 5)} ${sys.unit}${sys.unit === 'kg' ? ' of catalyst' : ''}` +
+        (Number.isFinite(conv) ? `, where the conversion of ${keyName} is only ${fmt(conv, 4)}` : '') +
+        '; use wider or more tubes, larger particles or a smaller pressure-drop parameter',
+      { equilibrium, pressure: { inlet: kase.pressure!, outlet: 0, drop: kase.pressure!, dropBar: kase.pressure! / 1e5, unit: 'Pa' } },
+    );
+  }
+  if (res.status !== 'sized') {
+    return fail(res.status, res.detail ?? '', equilibrium ? { equilibrium } : {});
+  }
+  const nominal = t.kind === 'size' ? t.value : res.size;
+  const out = describeOutlet(sys, sizer, res.y, key);
+  const result: SizingResult = {
+    ...outcome(SIZING_STATUS, t.kind === 'size' ? 'rated' : 'sized', warnings),
+    ...base,
+    size: { value: nominal, unit: sys.unit, quantity: QUANTITY[sys.unit] },
+    spaceTime: spaceTime(sys, nominal, key),
+    outlet: out,
+    ...(equilibrium ? { equilibrium } : {}),
+    ...(tubes ? { tubes } : {}),
+  };
+  if (kase.pressure !== undefined && kase.reactor.kind !== 'batch') {
+    const pr = sys.hasPressure ? Math.sqrt(Math.max(res.y[sys.nS], 0)) : 1;
+    const P = kase.pressure * pr;
+    result.pressure = { inlet: kase.pressure, outlet: P, drop: kase.pressure - P, dropBar: (kase.pressure - P) / 1e5, unit: 'Pa' };
+  }
+  const heat = heatCheck(sys, res.y);
+  if (heat.check) result.heat = heat.check;
+  warnings.push(...heat.warnings);
+  warnings.push(...extrapolationWarnings(handoff, kase, handoff.coverage.conversion ? conversionOf(sizer, res.y, handoff.coverage.conversion.species) : undefined));
+
+  // Uncertainty.
+  const draws = opts.draws ?? kase.uncertainty.draws;
+  const quantityFn =
+    t.kind === 'size'
+      ? (s: Sizer) => {
+          const r = s.rate(t.value);
+          return { value: r.status === 'sized' && key >= 0 ? s.conversion(r.y, key) : NaN, status: r.status };
+        }
+      : (s: Sizer) => {
+          const r = s.size();
+          return { value: r.status === 'sized' ? r.size : NaN, status: r.status };
+        };
+  const unc = propagate(
+    sizer,
+    map,
+    quantityFn,
+    t.kind === 'size' ? (out.conversion?.value ?? NaN) : nominal,
+    t.kind === 'size' ? 'conversion' : 'size',
+    t.kind === 'size' ? '1' : sys.unit,
+    key >= 0 ? key : undefined,
+    {
+      draws,
+      seed: opts.seed ?? kase.uncertainty.seed,
+      levels: opts.levels ?? kase.uncertainty.levels,
+      ...(opts.profileDraws !== undefined ? { profileDraws: opts.profileDraws } : {}),
+      ...(opts.onProgress ? { onProgress: opts.onProgress } : {}),
+    },
+  );
+  result.uncertainty = unc;
+  if (unc.failed.count > 0) {
+    const reasons = Object.entries(unc.failed.reasons).map(([r, n]) => `${n} ${r}`).join(', ');
+    warnings.push({
+      code: 'W_DRAWS_FAILED',
+      message: `${unc.failed.count} of ${unc.draws} Monte Carlo draws failed (${reasons}); percentiles use the ${unc.succeeded} that succeeded`,
+      path: ['uncertainty'],
+    });
+  }
+  const maxFail = opts.maxFailedFraction ?? 0.01;
+  if (draws > 0 && unc.failed.count > maxFail * draws) {
+    Object.assign(result, outcome(SIZING_STATUS, 'draws-failed', warnings, `${unc.failed.count} of ${draws} draws failed`));
+  }
+  if (!Number.isFinite(unc.deltaMethod.sd)) {
+    warnings.push({ code: 'W_DELTA', message: 'the delta-method standard deviation could not be computed (a perturbed parameter set failed)' });
+  }
+  result.warnings = warnings;
+  return result;
+}
+
+function firstReactant(sys: DesignSystem): string | undefined {
+  for (let j = 0; j < sys.nS; j++) if (sys.kinetics.stoich[j] < 0 && sys.y0[j] > 0) return sys.kase.species[j];
+  return undefined;
+}
+
+function conversionOf(sizer: Sizer, y: Float64Array, species: string): number | undefined {
+  const j = sizer.sys.kase.species.indexOf(species);
+  return j >= 0 && sizer.sys.y0[j] > 0 ? sizer.conversion(y, j) : undefined;
+}
+
+function describeOutlet(sys: DesignSystem, sizer: Sizer, y: Float64Array, key: number): NonNullable<SizingResult['outlet']> {
+  const amounts: Record<string, number> = {};
+  const moleFractions: Record<string, number> = {};
+  let total = 0;
+  for (let j = 0; j < sys.nS; j++) total += Math.max(y[j], 0);
+  sys.kase.species.forEach((s, j) => {
+    amounts[s] = Math.max(y[j], 0);
+    moleFractions[s] = total > 0 ? Math.max(y[j], 0) / total : 0;
+  });
+  return {
+    amounts,
+    amountUnit: sys.kase.reactor.kind === 'batch' ? 'mol/m3' : 'mol/s',
+    moleFractions,
+    ...(key >= 0 ? { conversion: { species: sys.kase.species[key], value: sizer.conversion(y, key) } } : {}),
+  };
+}
+
+function spaceTime(sys: DesignSystem, size: number, key: number): SizingResult['spaceTime'] {
+  const k = sys.kase;
+  if (k.reactor.kind === 'batch') return { value: size, unit: 's', definition: 'batch time t' };
+  if (k.reactor.kind === 'packed-bed') {
+    const FA0 = key >= 0 ? k.feed[key] : k.feed.reduce((a, b) => a + b, 0);
+    const name = key >= 0 ? k.species[key] : 'total';
+    return { value: size / FA0, unit: 'kg s/mol', definition: `W/F_${name}0` };
+  }
+  const FT0 = k.feed.reduce((a, b) => a + b, 0);
+  const v0 = k.reactor.phase === 'liquid' ? k.volumetricFlow! : (FT0 * GAS_CONSTANT * k.temperature) / k.pressure!;
+  return { value: size / v0, unit: 's', definition: 'V/v0 (inlet volumetric flow)' };
+}
