@@ -224,5 +224,15 @@ export function compoundToSI(value: number, unit: string, opts: Pick<UnitOptions
       fix: "Write the unit with symbols, '/', spaces for products and ^ for powers, for example 'mol/(kg s bar^2)' or 'kJ/mol'.",
     });
   }
-  return { value: value * p.factor, unit: formatSiUnit(p.dims) };
+  return { value: value * p.factor, unit: siUnitText(p.dims) };
+}
+
+/** SI unit text of a dimension vector: a quantity's own SI name when it has one (J/mol, Pa, mol/(kg s)), else generic. */
+export function siUnitText(dims: Dims): string {
+  for (const def of Object.values(QUANTITIES)) {
+    if (def.dims.length === 1 && sameDims(def.dims[0], dims)) return def.si;
+  }
+  if (sameDims(dims, RATE_MASS)) return 'mol/(kg s)';
+  if (sameDims(dims, RATE_VOLUME)) return 'mol/(m3 s)';
+  return formatSiUnit(dims);
 }

@@ -66,7 +66,8 @@ describe('unit parsing', () => {
     // Pa^1.5 = kg^1.5 m^-1.5 s^-3, so mol/(kg s Pa^1.5) = m^1.5 s^2 mol / kg^2.5
     expect(compoundToSI(1, 'mol/(kg s Pa^1.5)').unit).toBe('m^1.5 s^2 mol/kg^2.5');
     expect(compoundToSI(1, 'mol/(g s bar)').value).toBeCloseTo(1e-2, 15);
-    expect(compoundToSI(5, 'kJ/mol')).toEqual({ value: 5000, unit: 'kg m^2/(s^2 mol)' });
+    expect(compoundToSI(5, 'kJ/mol')).toEqual({ value: 5000, unit: 'J/mol' });
+    expect(compoundToSI(1, 'mmol/(g min)').unit).toBe('mol/(kg s)');
     expect(() => compoundToSI(1, 'mol/(kg s')).toThrow(/\)/);
   });
 });

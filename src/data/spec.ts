@@ -1,0 +1,75 @@
+/**
+ * The data part of a study file as written (before validation): CSV sources, their layout and
+ * column mapping. Every number carries its unit; see schema/study.schema.json for descriptions.
+ */
+
+/** A value and its unit, for example { value: 250, unit: 'degC' }. */
+export interface MeasureSpec {
+  value: number;
+  unit: string;
+}
+
+/** A quantity read from a CSV column, or one constant for all rows. Exactly one of column/value. */
+export interface FieldSpec {
+  column?: string;
+  value?: number;
+  unit: string;
+  /** Pressure only: gauge readings (the source's ambientPressure is added). Default false. */
+  gauge?: boolean;
+}
+
+export type ResponseKind = 'outlet-flow' | 'outlet-concentration' | 'conversion' | 'rate' | 'outlet-pressure';
+
+export const RESPONSE_KINDS: readonly ResponseKind[] = ['outlet-flow', 'outlet-concentration', 'conversion', 'rate', 'outlet-pressure'];
+
+export interface MeasuredSpec {
+  response: ResponseKind;
+  /** Species measured; required for every response except outlet-pressure. */
+  species?: string;
+  column: string;
+  unit: string;
+  /** Column with the standard deviation of each value (same unit). */
+  sigmaColumn?: string;
+  /** outlet-pressure only: gauge readings. Default false. */
+  gauge?: boolean;
+  /** Name of an entry of the study's errorModels. */
+  errorModel?: string;
+}
+
+export interface PerRunColumns {
+  run: string;
+  group?: string;
+  temperature: FieldSpec;
+  pressure?: FieldSpec;
+  catalystMass?: FieldSpec;
+  volume?: FieldSpec;
+  time?: FieldSpec;
+  feed?: Record<string, FieldSpec>;
+  totalFeed?: FieldSpec;
+  feedFractions?: Record<string, FieldSpec>;
+  volumetricFlow?: FieldSpec;
+  inletConcentrations?: Record<string, FieldSpec>;
+  initialConcentrations?: Record<string, FieldSpec>;
+  initialVolume?: FieldSpec;
+  measured?: MeasuredSpec[];
+}
+
+export interface PerRunSourceSpec {
+  file: string;
+  layout: 'per-run';
+  /** Added to gauge pressure columns. */
+  ambientPressure?: MeasureSpec;
+  columns: PerRunColumns;
+}
+
+export interface LongSourceSpec {
+  file: string;
+  layout: 'long';
+  response: ResponseKind;
+  /** Unit of the value and sigma columns. */
+  unit: string;
+  errorModel?: string;
+  columns: { run: string; position?: FieldSpec; species?: string; value: string; sigma?: string };
+}
+
+export type SourceSpec = PerRunSourceSpec | LongSourceSpec;

@@ -1,0 +1,282 @@
+/**
+ * Checks across rows and the validation report: duplicate run ids, reactant outlet above inlet
+ * (more than `noiseSigmas` sigma), element balance of runs with every outlet flow measured,
+ * replicate groups and the pooled pure-error estimate
+ *   s^2 = sum_groups sum_i (y_i - ybar_g)^2 / sum_groups (n_g - 1)
+ * (the pure-error sum of squares of the lack-of-fit test; common practice in regression analysis).
+ * A Ledger counts rows per source so that rowsIn = rowsUsed + rowsRejected always holds.
+ */
+import { RateloomError } from '../core/errors';
+import type { MappedObservation, MappedRun, RowLocation } from './mapping';
+import { describeRules, type CheckSettings, type PureError, type Rejection, type ReplicateGroup, type SourceSummary, type ValidationReport } from './report';
+
+/** Row bookkeeping for every source of a study. */
+export class Ledger {
+  private readonly sources = new Map<string, { layout: 'per-run' | 'long'; rowsIn: number; rejected: Set<number> }>();
+  readonly rejections: Rejection[] = [];
+
+  addSource(file: string, layout: 'per-run' | 'long', rowsIn: number): void {
+    this.sources.set(file, { layout, rowsIn, rejected: new Set() });
+  }
+
+  /** Record problems; each names a row that is then counted as rejected. */
+  reject(...problems: Rejection[]): void {
+    for (const p of problems) {
+      this.rejections.push(p);
+      this.sources.get(p.file)?.rejected.add(p.line);
+    }
+  }
+
+  isRejected(loc: RowLocation): boolean {
+    return this.sources.get(loc.file)?.rejected.has(loc.line) ?? false;
+  }
+
+  summaries(): SourceSummary[] {
+    return [...this.sources.entries()].map(([file, s]) => ({
+      file,
+      layout: s.layout,
+      rowsIn: s.rowsIn,
+      rowsUsed: s.rowsIn - s.rejected.size,
+      rowsRejected: s.rejected.size,
+    }));
+  }
+}
+
+/** Relative equality within tol (both zero, or |a - b| <= tol * max(|a|, |b|)); undefined equals undefined only. */
+function close(a: number | undefined, b: number | undefined, tol: number): boolean {
+  if (a === undefined || b === undefined) return a === b;
+  return Math.abs(a - b) <= tol * Math.max(Math.abs(a), Math.abs(b));
+}
+
+function closeVec(a: Float64Array | undefined, b: Float64Array | undefined, tol: number): boolean {
+  if (!a || !b) return a === b;
+  for (let i = 0; i < a.length; i++) if (!close(a[i], b[i], tol)) return false;
+  return true;
+}
+
+/** Same conditions within a relative tolerance (temperature, pressure, size, feed, group, ...). */
+export function sameConditions(a: MappedRun, b: MappedRun, tol: number): boolean {
+  return (
+    a.group === b.group &&
+    close(a.temperature, b.temperature, tol) &&
+    close(a.pressure, b.pressure, tol) &&
+    close(a.size, b.size, tol) &&
+    close(a.catalystMass, b.catalystMass, tol) &&
+    close(a.volumetricFlow, b.volumetricFlow, tol) &&
+    close(a.initialVolume, b.initialVolume, tol) &&
+    closeVec(a.feed, b.feed, tol) &&
+    closeVec(a.initialConcentrations, b.initialConcentrations, tol)
+  );
+}
+
+/**
+ * Merge rows with the same run id: equal conditions add measurements to the first run; different
+ * conditions reject the later row. Returns the unique runs in order of first appearance.
+ */
+export function mergeDuplicateRuns(runs: readonly MappedRun[], ledger: Ledger, tol: number): MappedRun[] {
+  const byId = new Map<string, MappedRun>();
+  for (const r of runs) {
+    const first = byId.get(r.id);
+    if (!first) byId.set(r.id, r);
+    else if (!sameConditions(first, r, tol)) {
+      ledger.reject({
+        file: r.location.file,
+        line: r.location.line,
+        reason: 'duplicate-run',
+        message: `run id '${r.id}' was already used at ${first.location.file}:${first.location.line} with different conditions`,
+      });
+    }
+  }
+  return [...byId.values()];
+}
+
+export interface InletCheckContext {
+  kind: string;
+  phase: 'gas' | 'liquid';
+  /** Per species: net reactant (consumed by some reaction, produced by none, not inert). */
+  reactant: readonly boolean[];
+  /** Standard deviation of an observation when known (sigma column or fixed error model), SI. */
+  sigmaOf: (o: MappedObservation) => number | undefined;
+  settings: CheckSettings;
+}
+
+/**
+ * Outlet above inlet: a reactant's outlet flow (flow reactors), liquid outlet concentration or
+ * batch concentration above its inlet (initial) value by more than noiseSigmas sigma, or a
+ * conversion below -noiseSigmas sigma. Returns the rejection or undefined.
+ */
+export function checkAboveInlet(o: MappedObservation, run: MappedRun, ctx: InletCheckContext): Rejection | undefined {
+  const k = ctx.settings.noiseSigmas;
+  const j = o.speciesIndex;
+  if (j === undefined || !ctx.reactant[j]) return undefined;
+  const flowReactor = ctx.kind !== 'batch' && ctx.kind !== 'semibatch';
+  let inlet: number | undefined;
+  if (o.response === 'conversion') {
+    const s = ctx.sigmaOf(o) ?? ctx.settings.fallbackRelativeNoise;
+    if (o.value < -k * s) {
+      return { ...loc(o), reason: 'above-inlet', message: `conversion of ${o.species} is ${fmt(o.value)}, more than ${k} sigma (sigma ${fmt(s)}) below zero: the outlet exceeds the inlet` };
+    }
+    return undefined;
+  }
+  if (o.response === 'outlet-flow' && flowReactor) inlet = run.feed?.[j];
+  else if (o.response === 'outlet-concentration') {
+    if (flowReactor && ctx.phase === 'liquid' && run.feed && run.volumetricFlow) inlet = run.feed[j] / run.volumetricFlow;
+    else if (ctx.kind === 'batch') inlet = run.initialConcentrations?.[j];
+  }
+  if (inlet === undefined) return undefined;
+  const s = ctx.sigmaOf(o) ?? ctx.settings.fallbackRelativeNoise * inlet;
+  if (o.value > inlet + k * s) {
+    return {
+      ...loc(o),
+      reason: 'above-inlet',
+      message: `outlet ${o.response === 'outlet-flow' ? 'flow' : 'concentration'} of reactant ${o.species} (${fmt(o.value)} ${o.unit}) is more than ${k} sigma (sigma ${fmt(s)} ${o.unit}) above its inlet ${fmt(inlet)} ${o.unit}`,
+    };
+  }
+  return undefined;
+}
+
+export interface ElementData {
+  elements: readonly string[];
+  /** nE x nS row-major atom counts. */
+  elementMatrix: Float64Array;
+  hasFormula: readonly boolean[];
+}
+
+/**
+ * Element balance of one per-run row: needs every species with a formula and every species' outlet
+ * flow measured at the outlet (or its liquid outlet concentration with the volumetric flow).
+ * Rejects when |out_e - in_e| > tolerance * in_e for any element e with in_e > 0.
+ */
+export function checkElementBalance(run: MappedRun, rowObs: readonly MappedObservation[], chem: ElementData, ctx: Pick<InletCheckContext, 'kind' | 'phase' | 'settings'>): Rejection | undefined {
+  const nS = chem.hasFormula.length;
+  const nE = chem.elements.length;
+  if (nE === 0 || !chem.hasFormula.every(Boolean) || !run.feed || ctx.kind === 'batch' || ctx.kind === 'semibatch') return undefined;
+  const out = new Float64Array(nS).fill(NaN);
+  for (const o of rowObs) {
+    if (o.speciesIndex === undefined || o.position !== undefined) continue;
+    if (o.response === 'outlet-flow') out[o.speciesIndex] = o.value;
+    else if (o.response === 'outlet-concentration' && ctx.phase === 'liquid' && run.volumetricFlow !== undefined && Number.isNaN(out[o.speciesIndex])) {
+      out[o.speciesIndex] = o.value * run.volumetricFlow;
+    }
+  }
+  if (out.some((x) => Number.isNaN(x))) return undefined;
+  const tol = ctx.settings.elementBalanceTolerance;
+  for (let e = 0; e < nE; e++) {
+    let fin = 0;
+    let fout = 0;
+    for (let j = 0; j < nS; j++) {
+      fin += chem.elementMatrix[e * nS + j] * run.feed[j];
+      fout += chem.elementMatrix[e * nS + j] * out[j];
+    }
+    if (fin > 0 && Math.abs(fout - fin) > tol * fin) {
+      return {
+        file: run.location.file,
+        line: run.location.line,
+        reason: 'element-balance',
+        message: `element ${chem.elements[e]} is off by ${fmt((100 * (fout - fin)) / fin)}% (in ${fmt(fin)} mol/s, out ${fmt(fout)} mol/s; limit ${tol * 100}% of the inlet element flow)`,
+      };
+    }
+  }
+  return undefined;
+}
+
+/** Replicate groups: runs with equal conditions within the relative tolerance (two or more runs each). */
+export function findReplicates(runs: readonly MappedRun[], tol: number): ReplicateGroup[] {
+  const order = runs.map((_, i) => i).sort((a, b) => runs[a].temperature - runs[b].temperature);
+  const parent = runs.map((_, i) => i);
+  const find = (i: number): number => {
+    while (parent[i] !== i) {
+      parent[i] = parent[parent[i]];
+      i = parent[i];
+    }
+    return i;
+  };
+  for (let a = 0; a < order.length; a++) {
+    const ra = runs[order[a]];
+    for (let b = a + 1; b < order.length; b++) {
+      const rb = runs[order[b]];
+      if (rb.temperature - ra.temperature > tol * Math.max(ra.temperature, rb.temperature)) break;
+      if (sameConditions(ra, rb, tol)) parent[find(order[b])] = find(order[a]);
+    }
+  }
+  const groups = new Map<number, string[]>();
+  runs.forEach((r, i) => {
+    const root = find(i);
+    const g = groups.get(root) ?? [];
+    g.push(r.id);
+    groups.set(root, g);
+  });
+  const out: ReplicateGroup[] = [];
+  for (const ids of groups.values()) if (ids.length > 1) out.push({ id: `rep${out.length + 1}`, runIds: ids });
+  return out;
+}
+
+/**
+ * Pooled pure error per response (and species): observations of the same response at the same
+ * position in runs of one replicate group (or repeated rows of one run) are replicates.
+ */
+export function pureErrors(observations: readonly MappedObservation[], groups: readonly ReplicateGroup[]): PureError[] {
+  const groupOf = new Map<string, string>();
+  for (const g of groups) for (const id of g.runIds) groupOf.set(id, g.id);
+  const cells = new Map<string, { key: string; o: MappedObservation; values: number[] }>();
+  for (const o of observations) {
+    const g = groupOf.get(o.runId) ?? `run:${o.runId}`;
+    const respKey = `${o.response}|${o.species ?? ''}`;
+    const key = `${g}|${respKey}|${o.position === undefined ? '' : o.position.toPrecision(9)}`;
+    const c = cells.get(key) ?? { key: respKey, o, values: [] };
+    c.values.push(o.value);
+    cells.set(key, c);
+  }
+  const pooled = new Map<string, PureError>();
+  for (const c of cells.values()) {
+    if (c.values.length < 2) continue;
+    const mean = c.values.reduce((a, b) => a + b, 0) / c.values.length;
+    const ss = c.values.reduce((a, y) => a + (y - mean) ** 2, 0);
+    const p = pooled.get(c.key) ?? { response: c.o.response, ...(c.o.species !== undefined ? { species: c.o.species } : {}), unit: c.o.unit, sumSquares: 0, dof: 0, sigma: 0 };
+    p.sumSquares += ss;
+    p.dof += c.values.length - 1;
+    pooled.set(c.key, p);
+  }
+  return [...pooled.values()].map((p) => ({ ...p, sigma: Math.sqrt(p.sumSquares / p.dof) }));
+}
+
+/** Assemble the report; rejections sorted by file and line. */
+export function buildReport(ledger: Ledger, replicateGroups: ReplicateGroup[], pureError: PureError[], settings: CheckSettings): ValidationReport {
+  const sources = ledger.summaries();
+  const rejections = [...ledger.rejections].sort((a, b) => (a.file === b.file ? a.line - b.line : a.file < b.file ? -1 : 1));
+  return {
+    sources,
+    rowsIn: sources.reduce((a, s) => a + s.rowsIn, 0),
+    rowsUsed: sources.reduce((a, s) => a + s.rowsUsed, 0),
+    rowsRejected: sources.reduce((a, s) => a + s.rowsRejected, 0),
+    rejections,
+    rules: describeRules(settings),
+    replicateGroups,
+    pureError,
+    settings,
+  };
+}
+
+/** Format one rejection as 'file:line:column: reason: message'. */
+export function formatRejection(r: Rejection): string {
+  return `${r.file}:${r.line}${r.column !== undefined ? `:${r.column}` : ''}: ${r.reason}: ${r.message}`;
+}
+
+/** Strict mode: any rejected row is an error listing all of them. */
+export function assertNoRejections(report: ValidationReport): void {
+  if (report.rowsRejected === 0) return;
+  const list = report.rejections.map(formatRejection);
+  throw new RateloomError('E_DATA', `${report.rowsRejected} data row(s) rejected in strict mode:\n  ${list.join('\n  ')}`, {
+    location: { file: report.rejections[0].file, line: report.rejections[0].line, ...(report.rejections[0].column ? { column: report.rejections[0].column } : {}) },
+    fix: 'Correct or remove the rows listed, or run without --strict to skip them.',
+    details: { rejections: report.rejections },
+  });
+}
+
+function loc(o: MappedObservation): Pick<Rejection, 'file' | 'line' | 'column'> {
+  return { file: o.location.file, line: o.location.line, ...(o.location.column !== undefined ? { column: o.location.column } : {}) };
+}
+
+function fmt(x: number): string {
+  return Number(x.toPrecision(4)).toString();
+}

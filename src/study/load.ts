@@ -1,0 +1,390 @@
+/**
+ * Study loader: JSON text -> structural check against schema/study.schema.json -> chemistry,
+ * parameters, reactor and error models in SI -> CSV sources mapped and validated -> Study and
+ * ValidationReport. Pure apart from the injected `readFile`.
+ */
+import { dirname, isAbsolute, resolve } from 'node:path';
+import { buildChemistry } from '../chemistry/mechanism';
+import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec';
+import { RateloomError, isRateloomError } from '../core/errors';
+import type { RateLawSpec } from '../kinetics/spec';
+import type { ReactorSpec } from '../reactors/types';
+import { unitFor } from '../units';
+import { readCsv } from '../data/csv';
+import { mapLongSource, mapPerRunSource, type MappedObservation, type MappedRun, type MappedSource, type RowLocation } from '../data/mapping';
+import { DEFAULT_CHECKS, type CheckSettings } from '../data/report';
+import type { LongSourceSpec, MeasureSpec, PerRunSourceSpec, SourceSpec } from '../data/spec';
+import { Ledger, assertNoRejections, buildReport, checkAboveInlet, checkElementBalance, findReplicates, mergeDuplicateRuns, pureErrors } from '../data/validation';
+import schemaJson from '../../schema/study.schema.json';
+import { checkSchema, type JsonSchema } from './schema-check';
+import { buildParameters, type ParameterSpec } from './parameters';
+import { DEFAULT_ERROR_MODEL, sigmaFromModel, type CandidateSet, type ErrorModel, type LoadedStudy, type Observation, type Study, type StudyRun } from './types';
+
+/** The study-file schema as an object (the same file editors use). */
+export const STUDY_SCHEMA = schemaJson as unknown as JsonSchema;
+
+interface RawStudy {
+  title?: string;
+  species: SpeciesSpec[];
+  reactions: ReactionSpec[];
+  keyReactant?: string;
+  reactor: {
+    kind: ReactorSpec['kind'];
+    phase: ReactorSpec['phase'];
+    bulkDensity?: MeasureSpec;
+    pressureDrop?: { alpha?: MeasureSpec; ergun?: Record<string, MeasureSpec | number> };
+    membrane?: { permeation: Record<string, MeasureSpec>; sweep?: Record<string, MeasureSpec> };
+  };
+  referenceTemperature?: number | MeasureSpec;
+  data: SourceSpec[];
+  parameters: ParameterSpec[];
+  errorModels?: Record<string, { absolute?: MeasureSpec; relative?: number; replicates?: true }>;
+  candidates?: { name: string; description?: string; reactions: Record<string, RateLawSpec>; parameters?: ParameterSpec[] }[];
+  checks?: Partial<CheckSettings> & { strict?: boolean };
+}
+
+export interface LoadOptions {
+  /** Fail with a RateloomError listing every rejected row; default: the study's checks.strict, else false. */
+  strict?: boolean;
+}
+
+function parseJson(text: string, file: string): unknown {
+  const clean = text.replace(/^\uFEFF/, '');
+  try {
+    return JSON.parse(clean);
+  } catch (e) {
+    const msg = (e as Error).message;
+    const m = /position (\d+)/.exec(msg);
+    let where = {};
+    if (m) {
+      const before = clean.slice(0, Number(m[1]));
+      where = { line: before.split('\n').length, column: Number(m[1]) - before.lastIndexOf('\n') };
+    }
+    throw new RateloomError('E_JSON', `study file is not valid JSON (${msg})`, { location: { file, ...where } });
+  }
+}
+
+/** Rethrow a schema problem with the study file as its location. */
+function withFile<T>(file: string, f: () => T): T {
+  try {
+    return f();
+  } catch (e) {
+    if (isRateloomError(e) && !e.location) {
+      throw new RateloomError(e.code, e.problem, { path: e.path, fix: e.fix, location: { file }, ...(e.details ? { details: e.details } : {}) });
+    }
+    throw e;
+  }
+}
+
+function reactorSpec(raw: RawStudy['reactor'], speciesNames: readonly string[]): ReactorSpec {
+  const spec: ReactorSpec = { kind: raw.kind, phase: raw.phase };
+  const path = ['reactor'];
+  if (raw.bulkDensity) spec.bulkDensity = unitFor('density', raw.bulkDensity.unit, { path: [...path, 'bulkDensity', 'unit'] }).toSI(raw.bulkDensity.value);
+  const pd = raw.pressureDrop;
+  if (pd) {
+    if ((pd.alpha === undefined) === (pd.ergun === undefined)) {
+      throw new RateloomError('E_SCHEMA', "give exactly one of 'alpha' and 'ergun' for the pressure drop", { path: [...path, 'pressureDrop'] });
+    }
+    if (pd.alpha) {
+      const q = raw.kind === 'packed-bed' ? 'inverse-mass' : 'inverse-volume';
+      spec.pressureDrop = { alpha: unitFor(q, pd.alpha.unit, { path: [...path, 'pressureDrop', 'alpha', 'unit'] }).toSI(pd.alpha.value) };
+    } else if (pd.ergun) {
+      const e = pd.ergun;
+      const m = (k: string, q: Parameters<typeof unitFor>[0]) => {
+        const v = e[k] as MeasureSpec;
+        return unitFor(q, v.unit, { path: [...path, 'pressureDrop', 'ergun', k, 'unit'] }).toSI(v.value);
+      };
+      spec.pressureDrop = {
+        ergun: {
+          particleDiameter: m('particleDiameter', 'length'),
+          voidFraction: e.voidFraction as number,
+          superficialMassFlux: m('superficialMassFlux', 'mass-flux'),
+          viscosity: m('viscosity', 'viscosity'),
+          inletDensity: m('inletDensity', 'density'),
+          crossSection: m('crossSection', 'area'),
+          catalystDensity: m('catalystDensity', 'density'),
+        },
+      };
+    }
+  }
+  if (raw.membrane) {
+    const conv = (map: Record<string, MeasureSpec> | undefined, q: 'frequency' | 'concentration', key: string) => {
+      const out: Record<string, number> = {};
+      for (const [sp, v] of Object.entries(map ?? {})) {
+        if (!speciesNames.includes(sp)) throw new RateloomError('E_UNKNOWN_SPECIES', `unknown species '${sp}'`, { path: [...path, 'membrane', key, sp] });
+        out[sp] = unitFor(q, v.unit, { path: [...path, 'membrane', key, sp, 'unit'] }).toSI(v.value);
+      }
+      return out;
+    };
+    spec.membrane = { permeation: conv(raw.membrane.permeation, 'frequency', 'permeation'), ...(raw.membrane.sweep ? { sweep: conv(raw.membrane.sweep, 'concentration', 'sweep') } : {}) };
+  } else if (raw.kind === 'membrane') {
+    throw new RateloomError('E_MISSING_FIELD', "a membrane reactor needs 'membrane' with permeation coefficients", { path: [...path, 'membrane'] });
+  }
+  return spec;
+}
+
+function errorModels(raw: RawStudy['errorModels']): Record<string, ErrorModel> {
+  const out: Record<string, ErrorModel> = { [DEFAULT_ERROR_MODEL]: { name: DEFAULT_ERROR_MODEL, kind: 'unweighted', absolute: 0, relative: 0 } };
+  for (const [name, m] of Object.entries(raw ?? {})) {
+    const path = ['errorModels', name];
+    if (name === DEFAULT_ERROR_MODEL) throw new RateloomError('E_VALUE', `'${DEFAULT_ERROR_MODEL}' is reserved for responses without an error model`, { path });
+    if (m.replicates) {
+      if (m.absolute || m.relative !== undefined) throw new RateloomError('E_SCHEMA', "'replicates' cannot be combined with 'absolute' or 'relative'", { path });
+      out[name] = { name, kind: 'replicates', absolute: 0, relative: 0 };
+      continue;
+    }
+    if (!m.absolute && m.relative === undefined) throw new RateloomError('E_MISSING_FIELD', "an error model needs 'absolute', 'relative' (or both) or 'replicates': true", { path });
+    let absolute = 0;
+    if (m.absolute) {
+      // The unit fixes the response dimension: try every response quantity.
+      const qs = ['molar-flow', 'concentration', 'dimensionless', 'rate', 'pressure'] as const;
+      const found = qs.map((q) => { try { return unitFor(q, m.absolute!.unit); } catch { return undefined; } }).find(Boolean);
+      if (!found) throw new RateloomError('E_UNIT', `unit '${m.absolute.unit}' is not a unit of any response (flow, concentration, fraction, rate, pressure)`, { path: [...path, 'absolute', 'unit'] });
+      absolute = m.absolute.value * found.factor;
+      if (!(absolute > 0)) throw new RateloomError('E_VALUE', 'absolute sigma must be above zero', { path: [...path, 'absolute', 'value'] });
+    }
+    const relative = m.relative ?? 0;
+    out[name] = { name, kind: m.absolute && m.relative !== undefined ? 'combined' : m.absolute ? 'absolute' : 'relative', absolute, relative };
+  }
+  return out;
+}
+
+/**
+ * Load a study. `text` is the study file, `studyPath` its path (CSV paths are relative to its
+ * folder), `readFile` reads a CSV by absolute path. Throws RateloomError for bad input (and, in
+ * strict mode, for any rejected row); otherwise rejected rows are listed in the report.
+ */
+export function loadStudy(text: string, studyPath: string, readFile: (absPath: string) => string, options: LoadOptions = {}): LoadedStudy {
+  const raw = parseJson(text, studyPath);
+  withFile(studyPath, () => checkSchema(raw, STUDY_SCHEMA));
+  return withFile(studyPath, () => resolveStudy(raw as RawStudy, studyPath, readFile, options));
+}
+
+function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: string) => string, options: LoadOptions): LoadedStudy {
+  const chemistry = buildChemistry(raw.species, raw.reactions);
+  const speciesNames = chemistry.speciesNames;
+  const nS = speciesNames.length;
+  const settings: CheckSettings = {
+    ...DEFAULT_CHECKS,
+    ...(raw.checks?.elementBalanceTolerance !== undefined ? { elementBalanceTolerance: raw.checks.elementBalanceTolerance } : {}),
+    ...(raw.checks?.noiseSigmas !== undefined ? { noiseSigmas: raw.checks.noiseSigmas } : {}),
+    ...(raw.checks?.replicateTolerance !== undefined ? { replicateTolerance: raw.checks.replicateTolerance } : {}),
+  };
+  const strict = options.strict ?? raw.checks?.strict ?? false;
+  const reactor = reactorSpec(raw.reactor, speciesNames);
+  const models = errorModels(raw.errorModels);
+  const modelNames = Object.keys(models);
+
+  // Reactants: consumed by some reaction, produced by none, not inert.
+  const nR = chemistry.reactionIds.length;
+  const reactant = speciesNames.map((_, j) => {
+    let consumed = false;
+    for (let i = 0; i < nR; i++) {
+      const nu = chemistry.stoich[i * nS + j];
+      if (nu > 0) return false;
+      if (nu < 0) consumed = true;
+    }
+    return consumed && !chemistry.inert[j];
+  });
+  let keyReactantIndex: number;
+  if (raw.keyReactant !== undefined) {
+    keyReactantIndex = speciesNames.indexOf(raw.keyReactant);
+    if (keyReactantIndex < 0) throw new RateloomError('E_UNKNOWN_SPECIES', `key reactant '${raw.keyReactant}' is not a declared species`, { path: ['keyReactant'] });
+  } else {
+    keyReactantIndex = speciesNames.findIndex((_, j) => chemistry.reactantCoefficients[j] > 0);
+    if (keyReactantIndex < 0) keyReactantIndex = 0;
+  }
+
+  // Data sources.
+  const baseDir = dirname(studyPath);
+  const tables = raw.data.map((src, i) => {
+    const abs = isAbsolute(src.file) ? src.file : resolve(baseDir, src.file);
+    let text: string;
+    try {
+      text = readFile(abs);
+    } catch (e) {
+      if (isRateloomError(e)) throw e;
+      throw new RateloomError('E_FILE', `data file '${src.file}' cannot be read (${(e as Error).message})`, { path: ['data', i, 'file'], location: { file: abs } });
+    }
+    return readCsv(text, src.file);
+  });
+  const ledger = new Ledger();
+  raw.data.forEach((s, i) => ledger.addSource(s.file, s.layout, tables[i].rows.length));
+  const ctxFor = (i: number) => ({ speciesNames, kind: reactor.kind, phase: reactor.phase, errorModelNames: modelNames, path: ['data', i] });
+
+  const perRun: MappedSource[] = [];
+  raw.data.forEach((s, i) => {
+    if (s.layout === 'per-run') perRun.push(mapPerRunSource(tables[i], s as PerRunSourceSpec, ctxFor(i)));
+  });
+  for (const m of perRun) ledger.reject(...m.rejections);
+  if (!perRun.length) throw new RateloomError('E_MISSING_FIELD', 'the data need at least one per-run source (run conditions)', { path: ['data'] });
+
+  let runs = mergeDuplicateRuns(perRun.flatMap((m) => m.runs), ledger, settings.replicateTolerance);
+  const sigmaOf = (o: MappedObservation): number | undefined => {
+    if (o.sigma !== undefined) return o.sigma;
+    const m = models[o.errorModel ?? DEFAULT_ERROR_MODEL];
+    return m && m.kind !== 'replicates' ? sigmaFromModel(m, o.value) : undefined;
+  };
+  const inletCtx = { kind: reactor.kind, phase: reactor.phase, reactant, sigmaOf, settings };
+  const runById = new Map(runs.map((r) => [r.id, r]));
+
+  // Per-run observations: drop those of rejected rows, then physical checks row by row.
+  let observations = perRun.flatMap((m) => m.observations).filter((o) => !ledger.isRejected(o.location));
+  const byRow = new Map<string, MappedObservation[]>();
+  for (const o of observations) {
+    const key = `${o.location.file}\u0000${o.location.line}`;
+    const list = byRow.get(key) ?? [];
+    list.push(o);
+    byRow.set(key, list);
+  }
+  for (const list of byRow.values()) {
+    const run = runById.get(list[0].runId) as MappedRun;
+    const rowRun = run.location.line === list[0].location.line && run.location.file === list[0].location.file ? run : { ...run, location: { file: list[0].location.file, line: list[0].location.line } };
+    for (const o of list) {
+      const bad = checkAboveInlet(o, run, inletCtx);
+      if (bad) ledger.reject(bad);
+    }
+    const eb = checkElementBalance(rowRun, list, chemistry, inletCtx);
+    if (eb) ledger.reject(eb);
+  }
+  const rejectedRuns = new Map<string, RowLocation>();
+  runs = runs.filter((r) => {
+    if (!ledger.isRejected(r.location)) return true;
+    rejectedRuns.set(r.id, r.location);
+    return false;
+  });
+  // Other rows of a rejected run (repeated rows with equal conditions) go with it.
+  for (const r of perRun.flatMap((m) => m.runs)) {
+    const at = rejectedRuns.get(r.id);
+    if (at && !ledger.isRejected(r.location)) ledger.reject({ file: r.location.file, line: r.location.line, reason: 'run-rejected', message: `run '${r.id}' was rejected (${at.file}:${at.line})` });
+  }
+  observations = observations.filter((o) => !ledger.isRejected(o.location) && !rejectedRuns.has(o.runId));
+
+  // Long sources, against the surviving runs.
+  const known = new Set(runs.map((r) => r.id));
+  raw.data.forEach((s, i) => {
+    if (s.layout !== 'long') return;
+    const m = mapLongSource(tables[i], s as LongSourceSpec, ctxFor(i), known, rejectedRuns);
+    ledger.reject(...m.rejections);
+    for (const o of m.observations) {
+      const bad = checkAboveInlet(o, runById.get(o.runId) as MappedRun, inletCtx);
+      if (bad) ledger.reject(bad);
+      else observations.push(o);
+    }
+  });
+
+  // Batch and semibatch runs take their size (time) from the last profile point when not given.
+  const maxPos = new Map<string, number>();
+  for (const o of observations) if (o.position !== undefined) maxPos.set(o.runId, Math.max(maxPos.get(o.runId) ?? 0, o.position));
+  runs = runs.map((r) => (r.size !== undefined ? r : maxPos.has(r.id) ? { ...r, size: maxPos.get(r.id) as number } : r));
+  for (const r of runs) {
+    if (r.size !== undefined) continue;
+    ledger.reject({ file: r.location.file, line: r.location.line, reason: 'missing', message: `run '${r.id}' has no reaction time and no profile points to take it from` });
+    for (const o of observations) if (o.runId === r.id) ledger.reject({ file: o.location.file, line: o.location.line, reason: 'run-rejected', message: `run '${r.id}' was rejected (${r.location.file}:${r.location.line})` });
+  }
+  runs = runs.filter((r) => r.size !== undefined);
+  const runIndex = new Map(runs.map((r, i) => [r.id, i]));
+  observations = observations.filter((o) => runIndex.has(o.runId) && !ledger.isRejected(o.location));
+
+  const replicateGroups = findReplicates(runs, settings.replicateTolerance);
+  const pure = pureErrors(observations, replicateGroups);
+  const report = buildReport(ledger, replicateGroups, pure, settings);
+  if (strict) assertNoRejections(report);
+
+  // Observations with error models; replicates sigma from the pooled pure error of the response.
+  const studyObs: Observation[] = observations.map((o, index) => {
+    const modelName = o.errorModel ?? DEFAULT_ERROR_MODEL;
+    let sigma = o.sigma;
+    if (sigma === undefined && models[modelName].kind === 'replicates') {
+      const pe = pure.find((p) => p.response === o.response && p.species === o.species && p.sigma > 0);
+      if (!pe) {
+        throw new RateloomError('E_DATA', `error model '${modelName}' estimates sigma from replicates, but no replicate runs measure ${o.response}${o.species ? ` of ${o.species}` : ''}`, {
+          path: ['errorModels', modelName],
+          fix: 'Add replicate runs (equal conditions) or give an absolute or relative sigma.',
+        });
+      }
+      sigma = pe.sigma;
+      models[modelName] = { ...models[modelName], dof: pe.dof };
+    }
+    return {
+      index,
+      runId: o.runId,
+      runIndex: runIndex.get(o.runId) as number,
+      response: o.response,
+      ...(o.species !== undefined ? { species: o.species, speciesIndex: o.speciesIndex } : {}),
+      ...(o.position !== undefined ? { position: o.position } : {}),
+      value: o.value,
+      unit: o.unit,
+      ...(sigma !== undefined ? { sigma } : {}),
+      errorModel: modelName,
+      location: o.location,
+    };
+  });
+
+  const studyRuns: StudyRun[] = runs.map((r) => ({
+    id: r.id,
+    temperature: r.temperature,
+    size: r.size as number,
+    ...(r.pressure !== undefined ? { pressure: r.pressure } : {}),
+    ...(r.feed ? { feed: r.feed } : {}),
+    ...(r.volumetricFlow !== undefined ? { volumetricFlow: r.volumetricFlow } : {}),
+    ...(r.initialConcentrations ? { initialConcentrations: r.initialConcentrations } : {}),
+    ...(r.initialVolume !== undefined ? { initialVolume: r.initialVolume } : {}),
+    ...(r.catalystMass !== undefined ? { catalystMass: r.catalystMass } : {}),
+    ...(r.group !== undefined ? { group: r.group } : {}),
+    location: r.location,
+  }));
+
+  // Reference temperature: given, or the round number nearest the inverse-mean of the data range.
+  let referenceTemperature: number;
+  let referenceTemperatureSource: Study['referenceTemperatureSource'] = 'study';
+  if (raw.referenceTemperature !== undefined) {
+    const t = raw.referenceTemperature;
+    referenceTemperature = typeof t === 'number' ? t : unitFor('temperature', t.unit, { path: ['referenceTemperature', 'unit'] }).toSI(t.value);
+    if (!(referenceTemperature > 0)) throw new RateloomError('E_VALUE', 'reference temperature must be above 0 K', { path: ['referenceTemperature'] });
+  } else {
+    referenceTemperatureSource = 'data';
+    const Ts = studyRuns.map((r) => r.temperature);
+    referenceTemperature = Ts.length ? Math.round(2 / (1 / Math.min(...Ts) + 1 / Math.max(...Ts))) : 298;
+  }
+
+  const groups = [...new Set(studyRuns.map((r) => r.group).filter((g): g is string => g !== undefined))];
+  const hasGroupColumn = studyRuns.some((r) => r.group !== undefined);
+  const base = buildParameters(raw.parameters, raw.reactions.map((r) => r.rate), groups, hasGroupColumn, ['parameters']);
+  const candidates: CandidateSet[] = (raw.candidates ?? []).map((c, ci) => {
+    const path = ['candidates', ci];
+    const replaced = Object.keys(c.reactions);
+    for (const id of replaced) {
+      if (!chemistry.reactionIds.includes(id)) throw new RateloomError('E_VALUE', `candidate '${c.name}' replaces unknown reaction '${id}'`, { path: [...path, 'reactions', id] });
+    }
+    const reactions = raw.reactions.map((r) => (c.reactions[r.id] ? { ...r, rate: c.reactions[r.id] } : r));
+    const own = buildParameters([...raw.parameters, ...(c.parameters ?? [])], reactions.map((r) => r.rate), groups, hasGroupColumn, [...path, 'parameters']);
+    return { name: c.name, ...(c.description !== undefined ? { description: c.description } : {}), reactions, replaced, parameters: own.parameters, scopes: own.scopes };
+  });
+  const names = new Set<string>();
+  for (const c of candidates) {
+    if (names.has(c.name)) throw new RateloomError('E_VALUE', `candidate name '${c.name}' is used twice`, { path: ['candidates'] });
+    names.add(c.name);
+  }
+
+  const study: Study = {
+    ...(raw.title !== undefined ? { title: raw.title } : {}),
+    studyPath,
+    species: raw.species,
+    reactions: raw.reactions,
+    chemistry,
+    keyReactant: speciesNames[keyReactantIndex],
+    keyReactantIndex,
+    reactor,
+    referenceTemperature,
+    referenceTemperatureSource,
+    parameters: base.parameters,
+    scopes: base.scopes,
+    runs: studyRuns,
+    observations: studyObs,
+    errorModels: models,
+    candidates,
+    replicateGroups,
+  };
+  return { study, report };
+}

@@ -1,0 +1,124 @@
+/**
+ * The resolved study: validated, SI, ready for estimation and simulation. Produced by loadStudy
+ * (load.ts) from the study file and its CSV sources.
+ */
+import type { Chemistry } from '../chemistry/mechanism';
+import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec';
+import type { Parameter } from '../core/parameter';
+import type { ReactorSpec, RunConditions } from '../reactors/types';
+import type { ReplicateGroup, ValidationReport } from '../data/report';
+import type { ResponseKind } from '../data/spec';
+
+export type { ResponseKind } from '../data/spec';
+
+/** Where a value came from: file and 1-based line (and column header) of the CSV. */
+export interface SourceLocation {
+  file: string;
+  line: number;
+  column?: string;
+}
+
+/** A run of the study: its SI conditions, the group it belongs to, and the row that defined it. */
+export interface StudyRun extends RunConditions {
+  /** Run group (for example the catalyst charge) for per-run-group parameters. */
+  group?: string;
+  location: SourceLocation;
+}
+
+export interface Observation {
+  /** Position in study.observations. */
+  index: number;
+  runId: string;
+  /** Index of the run in study.runs. */
+  runIndex: number;
+  response: ResponseKind;
+  species?: string;
+  speciesIndex?: number;
+  /** Position (kg or m3 along the reactor) or time (s) of a profile point; undefined = outlet / end. */
+  position?: number;
+  /** Measured value, SI (`unit`). Conversion is a fraction; rate counts consumption of a reactant as positive. */
+  value: number;
+  /** SI unit of value and sigma. */
+  unit: string;
+  /** Standard deviation given with the value (sigma column), SI. */
+  sigma?: number;
+  /** Name of the error model in study.errorModels. */
+  errorModel: string;
+  location: SourceLocation;
+}
+
+/**
+ * How the standard deviation of a response is known.
+ *   absolute / relative / combined: sigma^2 = absolute^2 + (relative * y)^2 (SI).
+ *   replicates: sigma from the pooled pure error of replicate runs (`absolute` holds it, SI).
+ *   unweighted: equal weights, one unknown sigma estimated from the residuals.
+ */
+export interface ErrorModel {
+  name: string;
+  kind: 'absolute' | 'relative' | 'combined' | 'replicates' | 'unweighted';
+  /** SI, in the unit of the response; 0 when not used. */
+  absolute: number;
+  /** Fraction; 0 when not used. */
+  relative: number;
+  /** Degrees of freedom behind a replicates sigma. */
+  dof?: number;
+}
+
+/** Name of the error model used by observations that name none. */
+export const DEFAULT_ERROR_MODEL = 'unweighted';
+
+/** sigma of an observation value y under a model; undefined for 'unweighted'. */
+export function sigmaFromModel(m: ErrorModel, y: number): number | undefined {
+  if (m.kind === 'unweighted') return undefined;
+  return Math.sqrt(m.absolute * m.absolute + (m.relative * y) ** 2);
+}
+
+/** A per-run-group parameter: one copy per group, named '<base>@<group>'. */
+export interface ParameterScope {
+  base: string;
+  scope: 'global' | 'per-run-group';
+  /** group id -> expanded parameter name (per-run-group only). */
+  members?: Record<string, string>;
+}
+
+/** A rival rate-law set. */
+export interface CandidateSet {
+  name: string;
+  description?: string;
+  /** Full reaction list with the replaced rate laws. */
+  reactions: ReactionSpec[];
+  /** Ids of the reactions whose rate laws were replaced. */
+  replaced: string[];
+  /** All parameters of this candidate: the base ones plus its own (SI), expanded per group. */
+  parameters: Parameter[];
+  scopes: ParameterScope[];
+}
+
+export interface Study {
+  title?: string;
+  /** Path of the study file as given. */
+  studyPath: string;
+  species: SpeciesSpec[];
+  reactions: ReactionSpec[];
+  chemistry: Chemistry;
+  /** Species whose conversion is reported. */
+  keyReactant: string;
+  keyReactantIndex: number;
+  reactor: ReactorSpec;
+  /** K; given in the study or picked near the middle of the data's temperatures. */
+  referenceTemperature: number;
+  referenceTemperatureSource: 'study' | 'data';
+  /** Parameters in SI, per-run-group ones expanded to '<base>@<group>'. */
+  parameters: Parameter[];
+  scopes: ParameterScope[];
+  runs: StudyRun[];
+  observations: Observation[];
+  errorModels: Record<string, ErrorModel>;
+  candidates: CandidateSet[];
+  replicateGroups: ReplicateGroup[];
+}
+
+export interface LoadedStudy {
+  study: Study;
+  report: ValidationReport;
+}
