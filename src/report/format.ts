@@ -28,7 +28,7 @@ function trimZeros(s: string): string {
 }
 
 /**
- * Format a number with `sig` significant digits (default 4). Magnitudes in [1e-3, 1e5) print in
+ * Format a number with `sig` significant digits (default 4). Magnitudes in [0.01, 1e5) print in
  * fixed point, others as mantissa×10ⁿ. null/undefined -> 'not computed'; NaN/±Infinity -> 'n/a'.
  */
 export function formatNumber(x: number | null | undefined, sig = SIG_VALUE): string {
@@ -38,7 +38,7 @@ export function formatNumber(x: number | null | undefined, sig = SIG_VALUE): str
   // round to `sig` digits first so that 99999.9 and 9.99996 pick the right form after rounding
   const abs = Math.abs(Number(x.toPrecision(sig)));
   const minus = x < 0 ? '−' : '';
-  if (abs >= 1e-3 && abs < 1e5) {
+  if (abs >= 1e-2 && abs < 1e5) {
     const digits = Math.max(0, sig - 1 - Math.floor(Math.log10(abs)));
     return minus + trimZeros(abs.toFixed(Math.min(digits, 20)));
   }

@@ -59,7 +59,7 @@ function chart(
             data: { values: rows },
             mark: { type: 'point' },
             encoding: {
-              x: { field: xField, type: 'quantitative', title: xTitle, scale: { zero: false } },
+              x: { field: xField, type: 'quantitative', title: xTitle, scale: { zero: false, padding: 12 } },
               y: { field: yField, type: 'quantitative', title: yTitle },
               ...responseEncoding(responses),
             },

@@ -56,8 +56,13 @@ export function sizeDistributionCharts(data: SizingReportData, size: ChartSize =
           layer: [
             {
               data: { values: bins },
-              mark: { type: 'bar', color: OKABE_ITO[5], cornerRadiusEnd: 0, stroke: '#ffffff', strokeWidth: 0.5 },
-              encoding: { x, x2: { field: 'end' }, y: { field: 'count', type: 'quantitative', title: axisTitle('Draws', 'count') } },
+              mark: { type: 'rect', color: OKABE_ITO[5], stroke: '#ffffff', strokeWidth: 0.5 },
+              encoding: {
+                x,
+                x2: { field: 'end' },
+                y: { field: 'count', type: 'quantitative', title: axisTitle('Draws', 'count'), scale: { zero: true } },
+                y2: { datum: 0 },
+              },
             },
             {
               data: { values: rules },

@@ -1,0 +1,240 @@
+/**
+ * HTML writers: one self-contained document per fit and per sizing. Sections of the fit report:
+ * summary (status, warnings, kinetics), parameters with both interval kinds, statistics, charts,
+ * rival models, observations. Sections of the sizing report: summary, cautions (always, up front),
+ * warnings, size cards, outlet and design tables, charts, sensitivity. Charts arrive rendered.
+ */
+import { escapeHtml, formatNumber, formatUnit, paToKPa } from './format';
+import {
+  cautionsBlock,
+  chartGrid,
+  countCell,
+  headerBlock,
+  htmlDocument,
+  intervalCell,
+  keyValueTable,
+  levelText,
+  numCell,
+  statusBlock,
+  table,
+  textCell,
+  unitSpan,
+  warningsBlock,
+} from './html-parts';
+import type { FitReportData, RenderedChart, SizingReportData } from './types';
+
+/** Rendered fit charts by section (same keys as FitChartGroups). */
+export interface RenderedFitCharts {
+  parity: RenderedChart[];
+  residuals: RenderedChart[];
+  profiles: RenderedChart[];
+  correlation: RenderedChart[];
+  likelihood: RenderedChart[];
+  rivals: RenderedChart[];
+}
+
+/** Rendered sizing charts by section (same keys as SizingChartGroups). */
+export interface RenderedSizingCharts {
+  production: RenderedChart[];
+  distribution: RenderedChart[];
+  sensitivity: RenderedChart[];
+}
+
+function flagsHtml(flags: string[] | undefined, fixed: boolean | undefined): string {
+  const all = [...(fixed && !(flags ?? []).includes('fixed') ? ['fixed'] : []), ...(flags ?? [])];
+  return `<td>${all.map((f) => `<span class="flag">${escapeHtml(f)}</span>`).join('')}</td>`;
+}
+
+function parameterTable(data: FitReportData): string {
+  const level = data.parameters.find((p) => p.ciLevel !== undefined)?.ciLevel;
+  const lv = levelText(level);
+  const rows = data.parameters.map((p) => [
+    `<th scope="row"><code>${escapeHtml(p.name)}</code></th>`,
+    numCell(p.value, p.unit),
+    p.fixed ? `<td class="na">fixed</td>` : numCell(p.stdError, p.unit, 3),
+    p.fixed ? `<td class="na">fixed</td>` : intervalCell(p.linearCI ?? null, p.unit),
+    p.fixed ? `<td class="na">fixed</td>` : intervalCell(p.profileCI ?? null, p.unit),
+    flagsHtml(p.flags, p.fixed),
+  ]);
+  return table(
+    ['Parameter', 'Estimate', 'Std. error', `${lv}linear CI`, `${lv}profile CI`, 'Flags'],
+    rows,
+    'Linear intervals come from the covariance; profile intervals from re-optimising the objective ("open" = not closed within the bounds).',
+  );
+}
+
+function statisticsTable(data: FitReportData): string {
+  const s = data.statistics;
+  const rows: [string, string][] = [
+    ['Observations n', countCell(s.n, 'obs.')],
+    ['Estimated parameters p', countCell(s.p, 'par.')],
+    ['Degrees of freedom n − p', countCell(s.dof, 'dof')],
+    ['Sum of squared residuals', numCell(s.ssr, s.ssrUnit ?? '1')],
+    ['Residual standard deviation', numCell(s.residualStdDev, s.residualUnit ?? '1')],
+    ['AICc', numCell(s.aicc, '1', 5)],
+    ['BIC', numCell(s.bic, '1', 5)],
+    ['Covariance basis', textCell(s.covarianceBasis)],
+  ];
+  const lof = s.lackOfFit;
+  if (lof) {
+    rows.push(
+      ['Lack of fit F', numCell(lof.F, '1')],
+      ['Lack of fit / pure error dof', `<td class="num">${escapeHtml(`${lof.dofLackOfFit} / ${lof.dofPureError}`)}${unitSpan('dof')}</td>`],
+      ['Lack of fit p value', numCell(lof.pValue, '1', 3)],
+    );
+    if (lof.conclusion) rows.push(['Lack of fit reading', textCell(lof.conclusion)]);
+  } else {
+    rows.push(['Lack of fit', textCell('not tested (no replicates)')]);
+  }
+  return keyValueTable(rows);
+}
+
+function rivalTable(data: FitReportData): string {
+  const models = data.rivalModels ?? [];
+  if (models.length === 0) return '<p>No rival models were compared.</p>';
+  const best = Math.min(...models.map((m) => m.aicc).filter(Number.isFinite));
+  const rows = models.map((m) => [
+    `<th scope="row">${escapeHtml(m.name)}</th>`,
+    numCell(m.ssr, m.ssrUnit ?? '1'),
+    countCell(m.dof, 'dof'),
+    numCell(m.aicc, '1', 5),
+    numCell(Number.isFinite(best) ? m.aicc - best : null, '1', 3),
+    numCell(m.bic, '1', 5),
+    numCell(m.akaikeWeight, '1', 3),
+    textCell(m.verdict),
+  ]);
+  return table(['Model', 'SSR', 'dof', 'AICc', 'ΔAICc', 'BIC', 'Akaike weight', 'Verdict'], rows);
+}
+
+function observationTable(data: FitReportData): string {
+  if (data.runs.length === 0) return '<p>No observations.</p>';
+  const st = data.runs.find((r) => r.conditions.spaceTime)?.conditions.spaceTime;
+  const fr = data.runs.find((r) => r.conditions.feedRatio)?.conditions.feedRatio;
+  const head = ['Run', 'T', 'P', ...(st ? [st.label] : []), ...(fr ? [fr.label] : []), 'Response', 'Measured', 'Predicted', 'Residual', 'Studentized'];
+  const rows: string[][] = [];
+  for (const run of data.runs) {
+    const c = run.conditions;
+    for (const r of run.responses) {
+      rows.push([
+        `<th scope="row">${escapeHtml(run.runId)}</th>`,
+        numCell(c.temperature, 'K'),
+        numCell(paToKPa(c.pressure), 'kPa'),
+        ...(st ? [c.spaceTime ? numCell(c.spaceTime.value, c.spaceTime.unit) : numCell(null, '')] : []),
+        ...(fr ? [c.feedRatio ? numCell(c.feedRatio.value, c.feedRatio.unit, 3) : numCell(null, '')] : []),
+        textCell(r.response),
+        numCell(r.measured, r.unit),
+        numCell(r.predicted, r.unit),
+        numCell(r.residual, r.unit, 3),
+        numCell(r.studentized, '1', 3),
+      ]);
+    }
+  }
+  return table(head, rows);
+}
+
+function section(id: string, title: string, body: string): string {
+  return `<section id="${id}"><h2>${escapeHtml(title)}</h2>${body}</section>`;
+}
+
+/** The fit report as one HTML document. */
+export function renderFitHtml(data: FitReportData, charts: RenderedFitCharts): string {
+  const kinetics = data.kinetics && data.kinetics.length
+    ? `<div class="kinetics" aria-label="rate laws">${data.kinetics.map((k) => `<div>${escapeHtml(k)}</div>`).join('')}</div>`
+    : '';
+  const body = [
+    headerBlock(data.title, [`Study: ${data.studyName}`, data.generatedBy, data.generatedAt ?? '']),
+    section('summary', 'Summary', statusBlock(data.success, data.status, data.message) + warningsBlock(data.warnings) + kinetics),
+    section('parameters', 'Parameters', parameterTable(data)),
+    section('statistics', 'Statistics', statisticsTable(data)),
+    section(
+      'fit-quality',
+      'Fit quality',
+      `<h3>Parity</h3>${chartGrid(charts.parity)}<h3>Residuals</h3>${chartGrid(charts.residuals)}` +
+        (charts.profiles.length ? `<h3>Profiles along the reactor</h3>${chartGrid(charts.profiles)}` : ''),
+    ),
+    section(
+      'identifiability',
+      'Identifiability',
+      (charts.correlation.length ? chartGrid(charts.correlation) : '<p>No correlation matrix was computed.</p>') +
+        (charts.likelihood.length ? `<h3>Profile likelihood</h3>${chartGrid(charts.likelihood)}` : ''),
+    ),
+    section('rival-models', 'Rival models', rivalTable(data) + chartGrid(charts.rivals)),
+    section('observations', 'Observations', observationTable(data)),
+    `<footer>Generated by ${escapeHtml(data.generatedBy)}. Units are SI except pressure (kPa); “–” marks a dimensionless quantity.</footer>`,
+  ].join('\n');
+  return htmlDocument(data.title, body);
+}
+
+function card(label: string, value: number | null | undefined, unit: string, primary = false): string {
+  const v = value === null || value === undefined ? 'not computed' : formatNumber(value);
+  return `<div class="card${primary ? ' primary' : ''}"><div class="label">${escapeHtml(label)}</div><div class="value">${escapeHtml(v)}${unitSpan(unit)}</div></div>`;
+}
+
+function designTable(data: SizingReportData): string {
+  const rows: [string, string][] = [
+    ['Target', `<td class="num">${escapeHtml(`${data.target.description}: ${formatNumber(data.target.value)}`)}${unitSpan(data.target.unit)}</td>`],
+  ];
+  if (data.reactor) rows.push(['Reactor', textCell(data.reactor)]);
+  if (data.size.nominal !== undefined && data.size.nominal !== null) rows.push([`Nominal ${data.size.label} (best estimate)`, numCell(data.size.nominal, data.size.unit)]);
+  const dp = data.pressureDrop;
+  if (dp) {
+    rows.push(['Pressure drop', numCell(paToKPa(dp.value), 'kPa')]);
+    if (dp.lo !== null && dp.lo !== undefined && dp.hi !== null && dp.hi !== undefined) {
+      rows.push(['Pressure drop band', intervalCell([paToKPa(dp.lo), paToKPa(dp.hi)], 'kPa')]);
+    }
+    if (dp.fractionOfInlet !== null && dp.fractionOfInlet !== undefined) rows.push(['Pressure drop / inlet pressure', numCell(dp.fractionOfInlet * 100, '%', 3)]);
+  } else {
+    rows.push(['Pressure drop', textCell('not modelled')]);
+  }
+  const t = data.tubes;
+  if (t) {
+    rows.push(['Tubes', countCell(t.count, 'tubes')], ['Tube inner diameter', numCell(t.diameter * 1000, 'mm', 3)], ['Tube length', numCell(t.length, 'm', 3)]);
+    if (t.sizePerTube !== null && t.sizePerTube !== undefined) rows.push([`Per tube: ${data.size.label}`, numCell(t.sizePerTube, data.size.unit)]);
+  }
+  if (data.draws) {
+    rows.push(['Monte Carlo draws', countCell(data.draws.total, 'draws')], ['Failed draws', countCell(data.draws.failed, 'draws')]);
+  }
+  return keyValueTable(rows);
+}
+
+function outletTable(data: SizingReportData): string {
+  if (data.outlet.length === 0) return '<p>No outlet composition was passed.</p>';
+  const rows = data.outlet.map((o) => [
+    `<th scope="row">${escapeHtml(o.species)}</th>`,
+    numCell(o.value, o.unit),
+    numCell(o.lo, o.unit),
+    numCell(o.hi, o.unit),
+  ]);
+  return table(['Species', 'Median', 'Low', 'High'], rows, 'Outlet at the P50 size; low/high span the uncertainty band.');
+}
+
+function sensitivityTable(data: SizingReportData): string {
+  const rows = [...(data.sensitivity ?? [])]
+    .sort((a, b) => Math.abs(b.effect) - Math.abs(a.effect))
+    .map((r) => [`<th scope="row"><code>${escapeHtml(r.parameter)}</code></th>`, numCell(r.effect, data.sensitivityUnit ?? '1', 3)]);
+  if (rows.length === 0) return '';
+  return table(['Parameter', 'Effect'], rows, data.sensitivityMeasure);
+}
+
+/** The sizing report as one HTML document; cautions are always shown right after the status. */
+export function renderSizingHtml(data: SizingReportData, charts: RenderedSizingCharts): string {
+  const s = data.size;
+  const failed = data.draws && data.draws.failed > 0 ? `<p>${escapeHtml(`${data.draws.failed} of ${data.draws.total} draws failed and are not in the percentiles.`)}</p>` : '';
+  const body = [
+    headerBlock(data.title, [`Case: ${data.caseName}`, data.generatedBy, data.generatedAt ?? '']),
+    section(
+      'summary',
+      'Summary',
+      statusBlock(data.success, data.status, data.message) +
+        cautionsBlock(data.cautions) +
+        warningsBlock(data.warnings) +
+        `<div class="cards">${card(`${s.label} P50`, s.median, s.unit, true)}${card(`${s.label} P90`, s.p90, s.unit)}${card(`${s.label} P95`, s.p95, s.unit)}${card(data.target.description, data.target.value, data.target.unit)}</div>` +
+        failed,
+    ),
+    section('design', 'Design', designTable(data)),
+    section('outlet', 'Outlet composition', outletTable(data)),
+    section('uncertainty', 'Uncertainty', chartGrid([...charts.production, ...charts.distribution, ...charts.sensitivity]) + sensitivityTable(data)),
+    `<footer>Generated by ${escapeHtml(data.generatedBy)}. Size unit: ${escapeHtml(formatUnit(s.unit))}. Pressures in kPa; “–” marks a dimensionless quantity.</footer>`,
+  ].join('\n');
+  return htmlDocument(data.title, body);
+}

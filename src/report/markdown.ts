@@ -1,0 +1,143 @@
+/**
+ * Markdown summaries of the fit and sizing reports: the same numbers as the HTML documents in
+ * plain tables (every number followed by its unit), without charts.
+ */
+import { escapeMarkdown as md, formatInterval, formatNumber, formatUnit, NOT_COMPUTED, paToKPa, SIG_VALUE } from './format';
+import type { FitReportData, ReportWarning, SizingReportData } from './types';
+
+/** A number with its unit, or 'not computed'. */
+function q(x: number | null | undefined, unit: string | null | undefined, sig = SIG_VALUE): string {
+  if (x === null || x === undefined) return NOT_COMPUTED;
+  return `${formatNumber(x, sig)} ${md(formatUnit(unit))}`;
+}
+
+function mdTable(head: string[], rows: string[][]): string {
+  const align = head.map((_, i) => (i === 0 ? '---' : '---:'));
+  return [`| ${head.map(md).join(' | ')} |`, `| ${align.join(' | ')} |`, ...rows.map((r) => `| ${r.join(' | ')} |`)].join('\n');
+}
+
+function warningLines(warnings: ReportWarning[]): string {
+  if (warnings.length === 0) return 'No warnings.';
+  return warnings.map((w) => `- ${md(w.message)} \\[${md(w.code)}\\]`).join('\n');
+}
+
+function statusLine(success: boolean, status: string, message: string): string {
+  return `**${success ? 'Trustworthy' : 'NOT TRUSTWORTHY'}** (status \`${status.replace(/`/g, "'")}\`): ${md(message)}`;
+}
+
+/** The fit summary in Markdown. */
+export function renderFitMarkdown(data: FitReportData): string {
+  const s = data.statistics;
+  const level = data.parameters.find((p) => p.ciLevel !== undefined)?.ciLevel;
+  const lv = level === undefined ? '' : `${formatNumber(level * 100, 3)} % `;
+  const params = mdTable(
+    ['Parameter', 'Estimate', 'Std. error', `${lv}linear CI`, `${lv}profile CI`, 'Flags'],
+    data.parameters.map((p) => [
+      md(p.name),
+      q(p.value, p.unit),
+      p.fixed ? 'fixed' : q(p.stdError, p.unit, 3),
+      p.fixed ? 'fixed' : p.linearCI ? `${formatInterval(p.linearCI)} ${md(formatUnit(p.unit))}` : NOT_COMPUTED,
+      p.fixed ? 'fixed' : p.profileCI ? `${formatInterval(p.profileCI)} ${md(formatUnit(p.unit))}` : NOT_COMPUTED,
+      md([...(p.fixed && !(p.flags ?? []).includes('fixed') ? ['fixed'] : []), ...(p.flags ?? [])].join(', ')),
+    ]),
+  );
+  const statsRows: string[][] = [
+    ['Observations n', q(s.n, 'obs.', 12)],
+    ['Estimated parameters p', q(s.p, 'par.', 12)],
+    ['Degrees of freedom', q(s.dof, 'dof', 12)],
+    ['Sum of squared residuals', q(s.ssr, s.ssrUnit ?? '1')],
+    ['Residual standard deviation', q(s.residualStdDev, s.residualUnit ?? '1')],
+    ['AICc', q(s.aicc, '1', 5)],
+    ['BIC', q(s.bic, '1', 5)],
+    ['Covariance basis', md(s.covarianceBasis)],
+  ];
+  if (s.lackOfFit) {
+    const l = s.lackOfFit;
+    statsRows.push(
+      ['Lack of fit F', q(l.F, '1')],
+      ['Lack of fit / pure error dof', `${l.dofLackOfFit} / ${l.dofPureError} dof`],
+      ['Lack of fit p value', q(l.pValue, '1', 3)],
+    );
+    if (l.conclusion) statsRows.push(['Lack of fit reading', md(l.conclusion)]);
+  } else statsRows.push(['Lack of fit', 'not tested (no replicates)']);
+  const parts = [
+    `# ${md(data.title)}`,
+    `Study: ${md(data.studyName)} · ${md(data.generatedBy)}${data.generatedAt ? ` · ${md(data.generatedAt)}` : ''}`,
+    '## Summary',
+    statusLine(data.success, data.status, data.message),
+    warningLines(data.warnings),
+  ];
+  if (data.kinetics && data.kinetics.length) parts.push('Rate laws:', data.kinetics.map((k) => `    ${k.replace(/\r?\n/g, ' ')}`).join('\n'));
+  parts.push('## Parameters', params, '## Statistics', mdTable(['Quantity', 'Value'], statsRows));
+  const models = data.rivalModels ?? [];
+  if (models.length) {
+    const best = Math.min(...models.map((m) => m.aicc).filter(Number.isFinite));
+    parts.push(
+      '## Rival models',
+      mdTable(
+        ['Model', 'SSR', 'dof', 'AICc', 'ΔAICc', 'BIC', 'Akaike weight', 'Verdict'],
+        models.map((m) => [
+          md(m.name),
+          q(m.ssr, m.ssrUnit ?? '1'),
+          q(m.dof, 'dof', 12),
+          q(m.aicc, '1', 5),
+          q(Number.isFinite(best) ? m.aicc - best : null, '1', 3),
+          q(m.bic, '1', 5),
+          q(m.akaikeWeight, '1', 3),
+          md(m.verdict),
+        ]),
+      ),
+    );
+  }
+  if (data.correlation && data.correlation.names.length) {
+    const c = data.correlation;
+    parts.push(
+      '## Parameter correlation',
+      mdTable(['', ...c.names], c.names.map((n, i) => [md(n), ...c.names.map((_, j) => q(c.matrix[i]?.[j], '1', 3))])),
+    );
+  }
+  return parts.join('\n\n') + '\n';
+}
+
+/** The sizing summary in Markdown; cautions come right after the status. */
+export function renderSizingMarkdown(data: SizingReportData): string {
+  const s = data.size;
+  const cautions = data.cautions.length ? data.cautions.map((c) => `> - ${md(c)}`).join('\n') : '> No cautions were passed with this case.';
+  const sizeRows: string[][] = [
+    [`${md(s.label)} P50`, q(s.median, s.unit)],
+    [`${md(s.label)} P90`, q(s.p90, s.unit)],
+    [`${md(s.label)} P95`, q(s.p95, s.unit)],
+    ['Target', `${md(data.target.description)}: ${q(data.target.value, data.target.unit)}`],
+  ];
+  if (s.nominal !== undefined && s.nominal !== null) sizeRows.push([`Nominal ${md(s.label)}`, q(s.nominal, s.unit)]);
+  if (data.reactor) sizeRows.push(['Reactor', md(data.reactor)]);
+  const dp = data.pressureDrop;
+  sizeRows.push(['Pressure drop', dp ? q(paToKPa(dp.value), 'kPa') : 'not modelled']);
+  if (dp && dp.fractionOfInlet !== null && dp.fractionOfInlet !== undefined) sizeRows.push(['Pressure drop / inlet pressure', q(dp.fractionOfInlet * 100, '%', 3)]);
+  if (data.tubes) {
+    sizeRows.push(
+      ['Tubes', q(data.tubes.count, 'tubes', 12)],
+      ['Tube inner diameter', q(data.tubes.diameter * 1000, 'mm', 3)],
+      ['Tube length', q(data.tubes.length, 'm', 3)],
+    );
+  }
+  if (data.draws) sizeRows.push(['Monte Carlo draws (failed)', `${q(data.draws.total, 'draws', 12)} (${q(data.draws.failed, 'draws', 12)})`]);
+  const parts = [
+    `# ${md(data.title)}`,
+    `Case: ${md(data.caseName)} · ${md(data.generatedBy)}${data.generatedAt ? ` · ${md(data.generatedAt)}` : ''}`,
+    '## Summary',
+    statusLine(data.success, data.status, data.message),
+    '> **Read before using this size**\n>\n' + cautions,
+    warningLines(data.warnings),
+    '## Size',
+    mdTable(['Quantity', 'Value'], sizeRows),
+  ];
+  if (data.outlet.length) {
+    parts.push('## Outlet composition', mdTable(['Species', 'Median', 'Low', 'High'], data.outlet.map((o) => [md(o.species), q(o.value, o.unit), q(o.lo, o.unit), q(o.hi, o.unit)])));
+  }
+  if (data.sensitivity && data.sensitivity.length) {
+    const rows = [...data.sensitivity].sort((a, b) => Math.abs(b.effect) - Math.abs(a.effect));
+    parts.push('## Sensitivity', data.sensitivityMeasure ? md(data.sensitivityMeasure) : '', mdTable(['Parameter', 'Effect'], rows.map((r) => [md(r.parameter), q(r.effect, data.sensitivityUnit ?? '1', 3)])));
+  }
+  return parts.filter((p) => p !== '').join('\n\n') + '\n';
+}
