@@ -18,14 +18,18 @@
  * `jacobianFunction` (exact, or the relative-step finite differences of residuals.ts instead of the
  * package's absolute step 0.1), and derives a status afterwards: the MINPACK gradient test
  * (max cosine between r and the Jacobian columns <= gtol) at the returned point gives
- * 'converged-gtol'; otherwise the run is 'max-iterations' when the package used all its iterations,
- * or 'model-failure' when it stopped early on a non-finite error. Covariance and statistics are
+ * 'converged-gtol'. The package is run in rounds of `roundIterations`, restarting from its best
+ * point; 'converged-ftol' needs both the actual relative error change over the last whole round and
+ * the relative reduction predicted by a full Gauss-Newton step (||P_J r||^2/||r||^2, MINPACK's
+ * prered) to be <= ftol. Otherwise the run is 'max-iterations', or 'model-failure' when the package
+ * stopped early on a non-finite error. Covariance and statistics are
  * computed by fit.ts from a Jacobian recomputed at the solution, as for every solver.
  *
  * The package is not the default solver; see solve.ts for why.
  */
 import { levenbergMarquardt as cardLm } from 'ml-levenberg-marquardt';
 import { outcome } from '../core/outcome';
+import { svd, svdRank } from '../numerics/svd';
 import type { LmOptions, LmResult } from './lm';
 import type { LeastSquaresProblem } from './residuals';
 import { FIT_STATUS, type FitStatus } from './status';
@@ -33,6 +37,8 @@ import { FIT_STATUS, type FitStatus } from './status';
 export interface CardLmOptions extends LmOptions {
   /** Initial damping of the package; default 1e-2 (the package default). */
   damping?: number;
+  /** Package iterations per round between error-change checks; default 25. */
+  roundIterations?: number;
 }
 
 /** Minimise sum r_i^2 with the card package; same inputs and result shape as levenbergMarquardt. */
@@ -94,20 +100,38 @@ export function cardLevenbergMarquardt(problem: LeastSquaresProblem, x0: Float64
     };
   };
 
-  const out = cardLm({ x: xs, y: zeros }, parameterized, {
-    initialValues: Array.from(x0),
-    minValues: Array.from(lower),
-    maxValues: Array.from(upper),
-    maxIterations,
-    errorTolerance: 0,
-    damping: options.damping ?? 1e-2,
-    jacobianFunction,
-  });
-  const x = Float64Array.from(out.parameterValues);
-
-  // Status: the gradient test at the returned point decides convergence.
+  // The package has no convergence test of its own: run it in rounds and watch the error change.
+  const round = Math.max(1, Math.min(options.roundIterations ?? 25, maxIterations));
+  const ftol = options.ftol ?? 1e-12;
+  let xCur = Array.from(x0);
+  let errPrev = Infinity;
+  let used = 0;
+  let relChange = Infinity;
+  let stoppedEarly = false;
+  while (used < maxIterations) {
+    const out = cardLm({ x: xs, y: zeros }, parameterized, {
+      initialValues: xCur,
+      minValues: Array.from(lower),
+      maxValues: Array.from(upper),
+      maxIterations: Math.min(round, maxIterations - used),
+      errorTolerance: 0,
+      damping: options.damping ?? 1e-2,
+      jacobianFunction,
+    });
+    used += out.iterations;
+    xCur = out.parameterValues;
+    relChange = Number.isFinite(errPrev) && errPrev > 0 ? (errPrev - out.parameterError) / errPrev : Infinity;
+    errPrev = out.parameterError;
+    if (out.iterations < round && used < maxIterations) {
+      stoppedEarly = true;
+      break;
+    }
+    if (relChange <= ftol) break;
+  }
+  const x = Float64Array.from(xCur);
+  // Status: gradient test, then the error-change test (see the header).
   if (!problem.residuals(x, r) || !problem.jacobian(x, r, J)) {
-    return finish(x, 'model-failure', out.iterations, 'the model could not be evaluated at the returned point');
+    return finish(x, 'model-failure', used, 'the model could not be evaluated at the returned point');
   }
   let fnorm = 0;
   for (let i = 0; i < m; i++) fnorm += r[i] * r[i];
@@ -123,8 +147,19 @@ export function cardLevenbergMarquardt(problem: LeastSquaresProblem, x0: Float64
     const blocked = (x[j] <= lower[j] && g > 0) || (x[j] >= upper[j] && g < 0);
     if (cn > 0 && fnorm > 0 && !blocked) gnorm = Math.max(gnorm, Math.abs(g) / (Math.sqrt(cn) * fnorm));
   }
-  const detail = `package iterations ${out.iterations}, scaled gradient ${gnorm.toExponential(2)}`;
-  if (gnorm <= gtol) return finish(x, 'converged-gtol', out.iterations, detail);
-  if (out.iterations < maxIterations || failed) return finish(x, 'model-failure', out.iterations, `${detail}; stopped on a failed evaluation`);
-  return finish(x, 'max-iterations', out.iterations, detail);
+  // Predicted relative reduction of a full Gauss-Newton step: ||P_J r||^2 / ||r||^2 (MINPACK's prered).
+  const d = svd(J, m, n);
+  const rank = svdRank(d);
+  let proj = 0;
+  for (let k = 0; k < rank; k++) {
+    let u = 0;
+    for (let i = 0; i < m; i++) u += d.U[i * n + k] * r[i];
+    proj += u * u;
+  }
+  const prered = fnorm > 0 ? proj / (fnorm * fnorm) : 0;
+  const detail = `package iterations ${used}, last-round relative error change ${relChange.toExponential(2)}, predicted ${prered.toExponential(2)}, scaled gradient ${gnorm.toExponential(2)}`;
+  if (gnorm <= gtol) return finish(x, 'converged-gtol', used, detail);
+  if (Math.abs(relChange) <= ftol && prered <= ftol) return finish(x, 'converged-ftol', used, detail);
+  if (stoppedEarly || failed) return finish(x, 'model-failure', used, `${detail}; stopped on a failed evaluation`);
+  return finish(x, 'max-iterations', used, detail);
 }
