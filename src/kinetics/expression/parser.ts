@@ -32,13 +32,6 @@ export const USER_FUNCTIONS: ReadonlyMap<string, { min: number; max: number }> =
   ['pow', { min: 2, max: 2 }],
 ]);
 
-/** Names refused outright: they would mean something in JavaScript, and nothing in a rate law. */
-const RESERVED = new Set([
-  'constructor', '__proto__', 'prototype', 'process', 'globalThis', 'global', 'window', 'self', 'this',
-  'Function', 'eval', 'require', 'import', 'module', 'exports', 'Reflect', 'Proxy', 'Object', 'Symbol',
-  'new', 'return', 'function', 'var', 'let', 'const', 'class', 'arguments', 'async', 'await', 'yield',
-  'delete', 'typeof', 'instanceof', 'void', 'with', 'Math', 'setTimeout', 'setInterval', 'fetch',
-]);
 
 export interface ParseOptions {
   /** Identifier -> tree it stands for (e.g. 'C_A' -> max(C[0],0), 'k1' -> theta[2]). */
@@ -172,9 +165,6 @@ class Parser {
     }
     if (t.kind === 'ident') {
       this.i++;
-      if (RESERVED.has(t.text) || t.text.startsWith('__')) {
-        this.fail(`'${t.text}' is not allowed in a rate expression`, t.col, 'Use only species concentrations (C_<name>), partial pressures (p_<name>), T, R, T_ref, parameter names and the functions exp, ln, log10, sqrt, abs, min, max, pow.');
-      }
       if (this.isOp(this.peek(), '(')) return this.call(t.text, t.col);
       const sym = this.opts.symbols.get(t.text);
       if (sym) return sym;

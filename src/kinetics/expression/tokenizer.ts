@@ -27,6 +27,14 @@ export function expressionError(text: string, problem: string, column: number, p
   });
 }
 
+/** Names refused outright: they would mean something in JavaScript, and nothing in a rate law. */
+export const RESERVED = new Set([
+  'constructor', '__proto__', 'prototype', 'process', 'globalThis', 'global', 'window', 'self', 'this',
+  'Function', 'eval', 'require', 'import', 'module', 'exports', 'Reflect', 'Proxy', 'Object', 'Symbol',
+  'new', 'return', 'function', 'var', 'let', 'const', 'class', 'arguments', 'async', 'await', 'yield',
+  'delete', 'typeof', 'instanceof', 'void', 'with', 'Math', 'setTimeout', 'setInterval', 'fetch',
+]);
+
 const NUMBER_RE = /(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?/y;
 const IDENT_RE = /[A-Za-z_][A-Za-z0-9_]*/y;
 
@@ -72,6 +80,9 @@ export function tokenize(text: string, path: FieldPath = [], maxLength = MAX_EXP
     if (/[A-Za-z_]/.test(c)) {
       IDENT_RE.lastIndex = i;
       const m = IDENT_RE.exec(text) as RegExpExecArray;
+      if (RESERVED.has(m[0]) || m[0].startsWith('__')) {
+        expressionError(text, `'${m[0]}' is not allowed in a rate expression`, col, path, 'Use only species concentrations (C_<name>), partial pressures (p_<name>), T, R, T_ref, parameter names and the functions exp, ln, log10, sqrt, abs, min, max, pow.');
+      }
       toks.push({ kind: 'ident', text: m[0], col });
       i += m[0].length;
       continue;
