@@ -1,4 +1,5 @@
 /** Build small, invented fitted-kinetics hand-off documents for design tests. */
+import type { RateLawSpec } from '../../src/kinetics/spec';
 import type { FittedKinetics, HandoffParameter } from '../../src/design/handoff';
 
 export function param(name: string, value: number, transform: 'log' | 'none', unit = '1', sd: number | null = null): HandoffParameter {
@@ -7,7 +8,7 @@ export function param(name: string, value: number, transform: 'log' | 'none', un
 
 export function handoff(
   species: string[],
-  reactions: { id: string; equation: string }[],
+  reactions: { id: string; equation: string; rate?: RateLawSpec }[],
   parameters: HandoffParameter[],
   cov: { names: string[]; matrix: number[][] },
   coverage: FittedKinetics['coverage'],
@@ -20,7 +21,7 @@ export function handoff(
     study: 'invented test study',
     model: 'base',
     species: species.map((name) => ({ name })),
-    reactions: reactions.map((r) => ({ ...r, rate: { form: 'power-law', rateConstant: { k: parameters[0].name } } })),
+    reactions: reactions.map((r) => ({ id: r.id, equation: r.equation, rate: r.rate ?? { form: 'power-law', rateConstant: { k: parameters[0].name } } })),
     referenceTemperature: Tref,
     parameters,
     covariance: { space: 'internal', ...cov },
