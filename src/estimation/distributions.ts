@@ -152,8 +152,8 @@ export function chiSquareCdf(x: number, k: number): number {
 /** Standard normal CDF. */
 export function normalCdf(z: number): number {
   // P(Z <= z) = P(chi2_1 <= z^2)/2 + 1/2 for z >= 0.
-  const half = 0.5 * incompleteGamma(0.5, (z * z) / 2);
-  return z >= 0 ? 0.5 + half : 0.5 - half;
+  const tail = 0.5 * upperGamma(0.5, (z * z) / 2);
+  return z >= 0 ? 1 - tail : tail;
 }
 
 /** Invert a monotone CDF on [0, inf) (or symmetric on R) by bracketing and bisection. */
@@ -174,14 +174,32 @@ function invertPositive(cdf: (x: number) => number, p: number): number {
   return 0.5 * (lo + hi);
 }
 
+/** Solve tail(x) = q for x >= 0 where tail decreases from tail(0) >= q towards 0. */
+function invertTail(tail: (x: number) => number, q: number): number {
+  let lo = 0;
+  let hi = 1;
+  while (tail(hi) > q) {
+    lo = hi;
+    hi *= 2;
+    if (hi > 1e300) return hi;
+  }
+  for (let i = 0; i < 2000; i++) {
+    const mid = 0.5 * (lo + hi);
+    if (mid === lo || mid === hi) break;
+    if (tail(mid) > q) lo = mid;
+    else hi = mid;
+  }
+  return 0.5 * (lo + hi);
+}
+
 /** Quantile of Student's t: the t with P(T <= t) = p. */
 export function studentTQuantile(p: number, dof: number): number {
   checkProb(p);
   checkDof('dof', dof);
   if (p === 0.5) return 0;
-  // Upper tail q = min(p, 1-p) solved through the incomplete beta directly for accuracy.
+  // Solve the smaller tail q = min(p, 1 - p) directly, so tiny tails keep full precision.
   const q = p < 0.5 ? p : 1 - p;
-  const t = invertPositive((x) => 1 - 0.5 * incompleteBeta(dof / (dof + x * x), dof / 2, 0.5), 1 - q);
+  const t = invertTail((x) => 0.5 * incompleteBeta(dof / (dof + x * x), dof / 2, 0.5), q);
   return p < 0.5 ? -t : t;
 }
 
@@ -197,11 +215,35 @@ export function chiSquareQuantile(p: number, k: number): number {
   return invertPositive((x) => chiSquareCdf(x, k), p);
 }
 
+/** Regularised upper incomplete gamma Q(a, x) = 1 - P(a, x), accurate in the far tail. */
+function upperGamma(a: number, x: number): number {
+  if (x < a + 1) return 1 - incompleteGamma(a, x);
+  const tiny = 1e-300;
+  let b = x + 1 - a;
+  let c = 1 / tiny;
+  let d = 1 / b;
+  let h = d;
+  for (let i = 1; i < 10000; i++) {
+    const an = -i * (i - a);
+    b += 2;
+    d = an * d + b;
+    if (Math.abs(d) < tiny) d = tiny;
+    c = b + an / c;
+    if (Math.abs(c) < tiny) c = tiny;
+    d = 1 / d;
+    const del = d * c;
+    h *= del;
+    if (Math.abs(del - 1) < 1e-16) break;
+  }
+  return Math.exp(-x + a * Math.log(x) - logGamma(a)) * h;
+}
+
 /** Quantile of the standard normal distribution. */
 export function normalQuantile(p: number): number {
   checkProb(p);
   if (p === 0.5) return 0;
   const q = p < 0.5 ? p : 1 - p;
-  const z = Math.sqrt(invertPositive((x) => chiSquareCdf(x, 1), 1 - 2 * q));
+  // P(Z > z) = Q(1/2, z^2/2) / 2 for z >= 0.
+  const z = invertTail((x) => 0.5 * upperGamma(0.5, (x * x) / 2), q);
   return p < 0.5 ? -z : z;
 }
