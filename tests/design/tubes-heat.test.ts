@@ -1,0 +1,81 @@
+import { describe, expect, it } from 'vitest';
+import { loadCase } from '../../src/design/case';
+import { sizeReactor } from '../../src/design/size';
+import { kineticsFromHandoff } from '../../src/design/kinetics';
+import { buildSystem } from '../../src/design/system';
+import { Sizer } from '../../src/design/sizer';
+import { bundleAlpha } from '../../src/design/tubes';
+import { CAUTIONS } from '../../src/design/cautions';
+import { handoff, param } from './handoff-fixture';
+
+// Invented gas reaction A + B -> C with Arrhenius, per kg catalyst.
+const h = handoff(
+  ['A', 'B', 'C', 'N2'],
+  [{ id: 'r1', equation: 'A + B -> C', rate: { form: 'power-law', basis: 'mass', rateConstant: { k: 'k', activationEnergy: 'E' } } }],
+  [param('k', 1e-4, 'log', 'm6/(kg mol s)'), param('E', 80000, 'none', 'J/mol')],
+  { names: ['k', 'E'], matrix: [[0.0025, 0], [0, 4e6]] },
+  { temperature: { min: 460, max: 500, unit: 'K' }, feedMoleFraction: { A: { min: 0.2, max: 0.45, unit: '1' } } },
+  480,
+);
+h.species = [
+  { name: 'A', molarMass: 0.028 },
+  { name: 'B', molarMass: 0.032 },
+  { name: 'C', molarMass: 0.06 },
+  { name: 'N2', formula: 'N2' },
+];
+const dk = kineticsFromHandoff(h);
+const raw = {
+  name: 'tube bundle',
+  reactor: { kind: 'packed-bed', phase: 'gas' },
+  feed: { totalFlow: '50 mol/s', moleFractions: { A: 0.4, B: 0.4, N2: 0.2 } },
+  temperature: '480 K',
+  pressure: '5 bar',
+  target: { conversion: 0.7, species: 'A' },
+  tubes: {
+    innerDiameter: '25 mm',
+    particleDiameter: '3 mm',
+    voidFraction: 0.4,
+    bulkDensity: '800 kg/m3',
+    particleDensity: '1333 kg/m3',
+    viscosity: '2.5e-5 Pa s',
+    allowedPressureDrop: '0.5 bar',
+  },
+  heat: { reactionEnthalpy: { r1: '-90 kJ/mol' }, heatCapacity: '40 J/(mol K)' },
+};
+const kase = loadCase(raw, ['A', 'B', 'C', 'N2'], ['r1']);
+
+describe('tube bundle', () => {
+  const r = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase, molarMasses: dk.molarMasses, options: { draws: 300, profileDraws: 20 } });
+  it('finds the smallest tube count within the allowed pressure drop', () => {
+    expect(r.status).toBe('sized');
+    const t = r.tubes!;
+    expect(t.pressureDrop.pa).toBeLessThanOrEqual(0.5e5);
+    expect(t.pressureDrop.bar).toBeCloseTo(t.pressureDrop.pa / 1e5, 12);
+    // One tube fewer exceeds the limit (or cannot reach the target).
+    const sys = buildSystem(dk.kinetics, kase, [1e-4, 80000]);
+    const sz = new Sizer(sys);
+    sys.alpha = bundleAlpha(sys, dk.molarMasses!, t.count - 1).alpha;
+    const fewer = sz.size();
+    const dpFewer = fewer.status === 'sized' ? 5e5 * (1 - Math.sqrt(fewer.y[4])) : Infinity;
+    expect(dpFewer).toBeGreaterThan(0.5e5);
+    // Geometry: L = W_tube / (rho_b A_c). Source: definition of bulk density.
+    const Ac = (Math.PI * 0.025 ** 2) / 4;
+    expect(t.length).toBeCloseTo(r.size!.value / t.count / (800 * Ac), 9);
+    expect(r.pressure!.drop).toBeCloseTo(t.pressureDrop.pa, 6);
+  });
+  it('adiabatic rise: (-dH) X y_A0 / cp and heat duty in kW with a warning', () => {
+    // Source: analytic energy balance of one reaction with nu_A = -1.
+    expect(r.heat!.adiabaticRise).toBeCloseTo((90000 * 0.7 * 0.4) / 40, 6);
+    expect(r.heat!.heatDuty.value).toBeCloseTo((90000 * 0.7 * 20) / 1000, 6);
+    const w = r.warnings.find((x) => x.code === 'W_HEAT');
+    expect(w?.message).toContain('630 K exceeds 10 K');
+    expect(w?.message).toContain('1260 kW');
+    expect(r.cautions).toEqual([...CAUTIONS]);
+  });
+  it('carries the uncertainty with the tube count fixed', () => {
+    const u = r.uncertainty!;
+    expect(u.quantity).toBe('size');
+    expect(u.succeeded + u.failed.count).toBe(300);
+    expect(u.percentiles[0].value).toBeGreaterThan(u.median);
+  });
+});
