@@ -140,11 +140,14 @@ export interface ElementData {
   /** nE x nS row-major atom counts. */
   elementMatrix: Float64Array;
   hasFormula: readonly boolean[];
+  /** Declared inert species: an unmeasured inert leaves as it came in. */
+  inert: readonly boolean[];
 }
 
 /**
  * Element balance of one per-run row: needs every species with a formula and every species' outlet
- * flow measured at the outlet (or its liquid outlet concentration with the volumetric flow).
+ * flow measured at the outlet (or its liquid outlet concentration with the volumetric flow); an
+ * unmeasured inert species is taken to leave as it came in.
  * Rejects when |out_e - in_e| > tolerance * in_e for any element e with in_e > 0.
  */
 export function checkElementBalance(run: MappedRun, rowObs: readonly MappedObservation[], chem: ElementData, ctx: Pick<InletCheckContext, 'kind' | 'phase' | 'settings'>): Rejection | undefined {
@@ -159,6 +162,7 @@ export function checkElementBalance(run: MappedRun, rowObs: readonly MappedObser
       out[o.speciesIndex] = o.value * run.volumetricFlow;
     }
   }
+  for (let j = 0; j < nS; j++) if (Number.isNaN(out[j]) && chem.inert[j]) out[j] = run.feed[j];
   if (out.some((x) => Number.isNaN(x))) return undefined;
   const tol = ctx.settings.elementBalanceTolerance;
   for (let e = 0; e < nE; e++) {
