@@ -165,7 +165,7 @@ export class Dopri5 implements Stepper {
         h = remaining;
         last = true;
       }
-      if (Math.abs(h) < minStep(t, h)) return 'step-size-too-small';
+      if (Math.abs(h) < minStep(t, h)) return nonFinite > 0 ? 'non-finite' : 'step-size-too-small';
       c.steps++;
       c.rhs += 6;
 

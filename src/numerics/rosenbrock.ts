@@ -206,7 +206,8 @@ export class Rosenbrock implements Stepper {
     const c = s.counters;
     const dir = this.direction;
     const { stages, gamma, alpha, gammaSum, a, m, errorOrder } = RODAS4;
-    let nonFinite = 0;
+    let nonFinite = 0; // consecutive failed trials with non-finite values or a singular W
+    let lastSingular = false;
     for (;;) {
       if (c.steps >= s.maxSteps) return 'max-steps';
       if (c.rhs + this.attemptCost() > s.maxEvaluations) return 'max-evaluations';
@@ -218,7 +219,7 @@ export class Rosenbrock implements Stepper {
         h = tEnd - t;
         last = true;
       }
-      if (Math.abs(h) < minStep(t, h)) return 'step-size-too-small';
+      if (Math.abs(h) < minStep(t, h)) return nonFinite > 0 && !lastSingular ? 'non-finite' : 'step-size-too-small';
       c.steps++;
       if (!this.jacCurrent && !this.evaluateJacobian()) return 'non-finite';
 
@@ -269,7 +270,8 @@ export class Rosenbrock implements Stepper {
       }
       if (!ok || !Number.isFinite(err)) {
         c.rejected++;
-        if (++nonFinite > MAX_NONFINITE_RETRIES) return info !== 0 ? 'step-size-too-small' : 'non-finite';
+        lastSingular = info !== 0;
+        if (++nonFinite > MAX_NONFINITE_RETRIES) return lastSingular ? 'step-size-too-small' : 'non-finite';
         this.h = h * 0.25;
         this.rejectLast = true;
         continue;
