@@ -33,7 +33,11 @@ export interface VantHoffRef {
 /** An order: a number, or the name of a fitted parameter. */
 export type Order = number | string;
 
-/** r = k * prod_j C_j^a_j. Orders default to the reactants' stoichiometric coefficients. */
+/**
+ * r = k * prod_j C_j^a_j. Orders default to the reactants' stoichiometric coefficients. When
+ * `orders` (or `reverseOrders`) is given it lists every species of that term: unlisted species
+ * have order 0 (the same rule applies to the other forms).
+ */
 export interface PowerLawSpec {
   form: 'power-law';
   basis?: RateBasis;

@@ -19,7 +19,7 @@ const T = 640;
 function compile(rate: RateLawSpec): CompiledKineticsInfo {
   return compileKinetics({ chemistry: chem, rates: [rate], parameterNames: params, referenceTemperature: Tref });
 }
-function rate(k: CompiledKineticsInfo, c = C, t = T, th = theta): number {
+function rate(k: CompiledKineticsInfo, c: Float64Array = C, t = T, th: Float64Array = theta): number {
   const out = new Float64Array(1);
   k.rates(c, t, th, out);
   return out[0];
@@ -27,7 +27,7 @@ function rate(k: CompiledKineticsInfo, c = C, t = T, th = theta): number {
 const arr = (k: number, E: number) => k * Math.exp((-E / R) * (1 / T - 1 / Tref));
 
 /** Check ratesJacC and ratesJacP against central differences (1e-6 relative). */
-function checkJacobians(k: CompiledKineticsInfo, c = C, t = T) {
+function checkJacobians(k: CompiledKineticsInfo, c: Float64Array = C, t = T) {
   const nS = 5;
   const nP = params.length;
   const jc = new Float64Array(nS);
