@@ -7,7 +7,8 @@
  * S(0) = 0, integrated together with the state (the "simultaneous corrector" arrangement of
  * Caracotsios & Stewart, Comput. Chem. Eng. 9 (1985) 359-365). The Jacobian of the augmented
  * system handed to the stiff method is exact on its block diagonal (df/dy); the coupling blocks
- * d((df/dy) S + df/dtheta)/dy are formed by forward differences of the exact df/dy and df/dtheta.
+ * d((df/dy) S + df/dtheta)/dy are formed by central differences of the exact df/dy and df/dtheta
+ * (forward differences there cost the Rosenbrock method about three times the steps on stiff cases).
  */
 import { integrate } from '../numerics/integrate';
 import type { OdeEvent, OdeJac, OdeOptions, OdeResult, OdeRhs } from '../numerics/ode-types';
@@ -222,20 +223,24 @@ function augmented(core: OdeCore): { rhs: OdeRhs; jac: OdeJac } {
         for (let k = 0; k < nP; k++) out[(n + i * nP + k) * N + (n + j * nP + k)] = v;
       }
     }
-    sensPart(y, J, Ft, base, 0);
-    // coupling columns d(J S + Ft)/dy_j by forward differences of the exact J and Ft
+    // coupling columns d(J S + Ft)/dy_j by central differences of the exact J and Ft
     for (let j = 0; j < n; j++) {
       for (let i = 0; i < n; i++) ySh[i] = yTmp[i];
-      const h = 1.4901161193847656e-8 * Math.max(Math.abs(yTmp[j]), core.atol[j] * 1e3, 1e-300);
+      const h = 6.0554544523933395e-6 * Math.max(Math.abs(yTmp[j]), core.atol[j] * 1e3, 1e-300);
       ySh[j] = yTmp[j] + h;
-      const hh = ySh[j] - yTmp[j];
+      const hp = ySh[j] - yTmp[j];
+      core.jac(x, ySh, J2);
+      core.dtheta(x, ySh, Ft2);
+      sensPart(y, J2, Ft2, base, 0);
+      ySh[j] = yTmp[j] - h;
+      const hm = yTmp[j] - ySh[j];
       core.jac(x, ySh, J2);
       core.dtheta(x, ySh, Ft2);
       for (let i = 0; i < n; i++) {
         for (let k = 0; k < nP; k++) {
           let s = Ft2[i * nP + k];
           for (let m = 0; m < n; m++) s += J2[i * n + m] * y[n + m * nP + k];
-          out[(n + i * nP + k) * N + j] = (s - base[i * nP + k]) / hh;
+          out[(n + i * nP + k) * N + j] = (base[i * nP + k] - s) / (hp + hm);
         }
       }
     }
