@@ -4,6 +4,7 @@
  */
 import { Command } from 'commander';
 import { EXIT_BAD_INPUT } from './run';
+import { registerSize } from './size';
 import { registerCheck } from './check';
 
 const program = new Command();
@@ -21,6 +22,7 @@ program
 const registrations: Array<(p: Command) => void> = [];
 // @register-commands (keep this marker; add one import + push per command)
 registrations.push(registerCheck);
+registrations.push(registerSize);
 
 for (const r of registrations) r(program);
 

@@ -15,9 +15,10 @@ function check(what: string, value: number, r: Range, path: (string | number)[],
   if (v >= lo - 1e-12 * Math.abs(lo) && v <= hi + 1e-12 * Math.abs(hi)) return undefined;
   const by = v < lo ? lo - v : v - hi;
   const side = v < lo ? 'below' : 'above';
+  const u = unit === '1' || unit === '' ? '' : ` ${unit}`;
   return {
     code: 'W_EXTRAPOLATION',
-    message: `${what} ${fmt(v, 5)} ${unit} lies ${side} the fitted data range [${fmt(lo, 5)}, ${fmt(hi, 5)}] ${unit} by ${fmt(by, 4)} ${unit}; the size is an extrapolation of the kinetics`,
+    message: `${what} ${fmt(v, 5)}${u} lies ${side} the fitted data range [${fmt(lo, 5)}, ${fmt(hi, 5)}]${u} by ${fmt(by, 4)}${u}; the size is an extrapolation of the kinetics`,
     path,
   };
 }

@@ -1,0 +1,158 @@
+/**
+ * `rateloom size KINETICS CASE`: size the production reactor from fitted kinetics, with the
+ * kinetic uncertainty carried through. Prints the size with units, percentiles, tubes, outlet,
+ * warnings and always the cautions. Exit 0 sized, 1 unreachable or untrustworthy, 2 bad input.
+ */
+import type { Command } from 'commander';
+import { RateloomError } from '../src/core/errors';
+import { parseHandoff } from '../src/design/handoff-load';
+import { kineticsFromHandoff } from '../src/design/kinetics';
+import { loadCase } from '../src/design/case';
+import { sizeReactor, type SizingResult } from '../src/design/size';
+import { readJson, writeAtomic } from './io';
+import { progressReporter, runCommand, toJson } from './run';
+
+const EXAMPLE = `
+Example:
+  rateloom size fitted.json plant.case.json --draws 10000 --seed 7 --out sizing.json
+
+plant.case.json:
+  {
+    "name": "Plant A, line 2",
+    "reactor": { "kind": "packed-bed", "phase": "gas" },
+    "feed": { "totalFlow": "120 mol/s", "moleFractions": { "A": 0.3, "B": 0.6, "N2": 0.1 } },
+    "temperature": "520 K",
+    "pressure": "12 bar",
+    "target": { "conversion": 0.8, "species": "A" },
+    "tubes": { "innerDiameter": "32 mm", "particleDiameter": "4 mm", "voidFraction": 0.42,
+               "bulkDensity": "900 kg/m3", "particleDensity": "1550 kg/m3",
+               "viscosity": "2.4e-5 Pa s", "allowedPressureDrop": "1.5 bar" },
+    "heat": { "reactionEnthalpy": { "r1": "-95 kJ/mol" }, "heatCapacity": "38 J/(mol K)" },
+    "uncertainty": { "draws": 10000, "seed": 12345, "levels": [0.9, 0.95] }
+  }
+Targets: { "conversion": X, "species": S } | { "production": "2 mol/s", "species": P } | { "size": "150 kg" }.
+Reactor kinds: packed-bed (size in kg catalyst), plug-flow (m3), stirred-tank (m3), batch (s).
+Exit codes: 0 sized, 1 target unreachable or result not trustworthy, 2 bad input.`;
+
+interface SizeFlags {
+  draws?: string;
+  seed?: string;
+  json?: boolean;
+  out?: string;
+  force?: boolean;
+}
+
+function intFlag(v: string | undefined, name: string, min: number): number | undefined {
+  if (v === undefined) return undefined;
+  const n = Number(v);
+  if (!Number.isInteger(n) || n < min) {
+    throw new RateloomError('E_USAGE', `--${name} must be a whole number >= ${min}, got '${v}'`, { fix: `Give --${name} 10000, for example.` });
+  }
+  return n;
+}
+
+const g = (x: number, d = 4) => (Number.isFinite(x) ? Number(x.toPrecision(d)).toString() : 'n/a');
+const pct = (level: number) => `P${g(level * 100, 3)}`;
+
+/** Human-readable report of a sizing result. */
+export function formatSizing(r: SizingResult): string {
+  const L: string[] = [];
+  L.push(`Case: ${r.case} (${r.reactor.kind}, ${r.reactor.phase})`);
+  L.push(`Status: ${r.status} - ${r.message}`);
+  if (r.equilibrium) {
+    const e = r.equilibrium;
+    L.push(e.method === 'limiting-reactant' ? `No equilibrium limit on ${e.species} (largest conversion ${g(e.conversion, 6)}, set by the limiting reactant)` : `Equilibrium conversion of ${e.species}: ${g(e.conversion, 6)} (${e.method})`);
+  }
+  if (r.size) {
+    L.push(`${r.size.quantity[0].toUpperCase()}${r.size.quantity.slice(1)} (nominal fit): ${g(r.size.value, 5)} ${r.size.unit}`);
+    if (r.spaceTime) L.push(`Space time ${r.spaceTime.definition}: ${g(r.spaceTime.value, 5)} ${r.spaceTime.unit}`);
+  }
+  const u = r.uncertainty;
+  if (u) {
+    const unit = u.unit === '1' ? '' : ` ${u.unit}`;
+    L.push(`Uncertainty of the ${u.quantity} (${u.succeeded} of ${u.draws} Monte Carlo draws, seed ${u.seed}):`);
+    L.push(`  median ${g(u.median, 5)}${unit}, mean ${g(u.mean, 5)}${unit}`);
+    for (const p of u.percentiles) L.push(`  ${pct(p.level)} ${g(p.value, 5)}${unit}`);
+    L.push(`  delta method: sd ${g(u.deltaMethod.sd, 3)}${unit}; ${u.deltaMethod.percentiles.map((p) => `${pct(p.level)} ${g(p.value, 5)}${unit}`).join(', ')}`);
+    if (u.failed.count) L.push(`  failed draws: ${u.failed.count} (${Object.entries(u.failed.reasons).map(([k, n]) => `${n} ${k}`).join(', ')})`);
+    L.push(`  sensitivities d ln(${u.quantity})/d theta: ${u.sensitivities.map((s) => `${s.transform === 'log' ? `ln ${s.name}` : s.name} ${g(s.dLnQuantity, 3)}`).join(', ')}`);
+  }
+  if (r.tubes) {
+    const t = r.tubes;
+    L.push(`Tubes: ${t.count} x ${g(t.innerDiameter * 1000, 4)} mm ID, bed length ${g(t.length, 4)} m, ${g(t.catalystPerTube, 4)} kg catalyst and ${g(t.flowPerTube, 4)} mol/s per tube`);
+    L.push(`  pressure drop ${g(t.pressureDrop.pa, 4)} Pa (${g(t.pressureDrop.bar, 4)} bar) of ${g(t.allowedPressureDrop / 1e5, 4)} bar allowed; G = ${g(t.superficialMassFlux, 4)} kg/(m2 s)`);
+  }
+  if (r.pressure) L.push(`Pressure: inlet ${g(r.pressure.inlet / 1e5, 5)} bar, outlet ${g(r.pressure.outlet / 1e5, 5)} bar`);
+  if (r.outlet) {
+    if (r.outlet.conversion) L.push(`Conversion of ${r.outlet.conversion.species}: ${g(r.outlet.conversion.value, 5)}`);
+    L.push(`Outlet (${r.outlet.amountUnit}; mole fraction):`);
+    for (const [s, v] of Object.entries(r.outlet.amounts)) L.push(`  ${s.padEnd(10)} ${g(v, 5).padStart(12)}  ${g(r.outlet.moleFractions[s], 4)}`);
+  }
+  if (r.heat) L.push(`Adiabatic temperature rise: ${g(r.heat.adiabaticRise, 4)} K; heat to remove ${g(r.heat.heatDuty.value, 4)} ${r.heat.heatDuty.unit} (${r.heat.formula})`);
+  if (r.warnings.length) {
+    L.push('Warnings:');
+    for (const w of r.warnings) L.push(`  - [${w.code}] ${w.message}`);
+  }
+  L.push('CAUTIONS:');
+  for (const c of r.cautions) L.push(`  * ${c}`);
+  return L.join('\n');
+}
+
+export function registerSize(program: Command): void {
+  program
+    .command('size')
+    .description('Size the production reactor from fitted kinetics, with the uncertainty carried through')
+    .argument('<kinetics>', 'fitted-kinetics hand-off file written by `rateloom fit` (JSON)')
+    .argument('<case>', 'production case file (JSON; see the example below)')
+    .option('--draws <n>', 'Monte Carlo draws (default: the case file, else 10000)')
+    .option('--seed <s>', 'random seed (default: the case file, else 20261201)')
+    .option('--json', 'print one JSON document')
+    .option('--out <file>', 'also write the JSON result to this file')
+    .option('--force', 'overwrite --out if it exists')
+    .addHelpText('after', EXAMPLE)
+    .action(async (kineticsPath: string, casePath: string, flags: SizeFlags) => {
+      const json = !!flags.json;
+      await runCommand(json, () => {
+        const draws = intFlag(flags.draws, 'draws', 0);
+        const seed = intFlag(flags.seed, 'seed', 0);
+        const h = parseHandoffAt(kineticsPath);
+        const dk = kineticsFromHandoff(h);
+        const kase = loadCaseAt(casePath, dk.kinetics.speciesNames, dk.kinetics.reactionIds);
+        const onProgress = progressReporter(json, 'Monte Carlo');
+        const result = sizeReactor({
+          handoff: h,
+          kinetics: dk.kinetics,
+          kase,
+          ...(dk.molarMasses ? { molarMasses: dk.molarMasses } : {}),
+          options: {
+            ...(draws !== undefined ? { draws } : {}),
+            ...(seed !== undefined ? { seed } : {}),
+            ...(onProgress ? { onProgress } : {}),
+          },
+        });
+        if (flags.out) writeAtomic(flags.out, toJson(result) + '\n', { force: !!flags.force });
+        return { json: result, text: formatSizing(result), trustworthy: result.success };
+      });
+    });
+}
+
+function withFile<T>(file: string, f: () => T): T {
+  try {
+    return f();
+  } catch (e) {
+    if (e instanceof RateloomError && !e.location) {
+      throw new RateloomError(e.code, e.problem, { path: e.path, fix: e.fix, location: { file }, ...(e.details ? { details: e.details } : {}) });
+    }
+    throw e;
+  }
+}
+
+function parseHandoffAt(path: string) {
+  const raw = readJson(path, 'fitted-kinetics file');
+  return withFile(path, () => parseHandoff(raw));
+}
+
+function loadCaseAt(path: string, species: readonly string[], reactions: readonly string[]) {
+  const raw = readJson(path, 'case file');
+  return withFile(path, () => loadCase(raw, species, reactions));
+}
