@@ -94,6 +94,16 @@ describe('pressure exhaustion', () => {
   });
 });
 
+describe('integration trouble is a status, never a throw', () => {
+  it('a step budget too small -> integration-failed with the integrator message, finite output', () => {
+    const s = solveReactor(pbr, { ...base, size: 1e4 }, kinMass, Float64Array.from([5]), { maxSteps: 3, method: 'nonstiff', profile: true });
+    expect(s.status).toBe('integration-failed');
+    expect(s.success).toBe(false);
+    expect(s.message).toMatch(/integration failed/);
+    noNaN(s);
+  });
+});
+
 describe('Ergun alpha', () => {
   const inputs = { particleDiameter: 0.004, voidFraction: 0.4, superficialMassFlux: 2, viscosity: 2.5e-5, inletDensity: 5, crossSection: 0.01, catalystDensity: 2000 };
   it('matches the formula written out', () => {

@@ -96,6 +96,11 @@ describe('sensitivities equal central differences within 1e-6 relative', () => {
     }, kin, theta);
   });
 
+  it('gas batch with a mole change (pressure-ratio sensitivity)', () => {
+    const kin = compile(['A', 'B', 'C'], [{ equation: 'A <=> 2 B', rate: rpl('k', 'K') }, { equation: 'B -> C', rate: pl('k2') }], ['k', 'K', 'k2']);
+    checkAgainstCentral({ kind: 'batch', phase: 'gas' }, { id: 'gb', temperature: 500, pressure: 2e5, initialConcentrations: Float64Array.from([40, 0, 0]), size: 50 }, kin, Float64Array.from([0.03, 10, 0.01]));
+  });
+
   it('membrane reactor (gas)', () => {
     const kin = compile(['A', 'B', 'H'], [{ equation: 'A <=> B + H', rate: rpl('k', 'K') }], ['k', 'K']);
     checkAgainstCentral({ kind: 'membrane', phase: 'gas', membrane: { permeation: { H: 0.8 } } },
