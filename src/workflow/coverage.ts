@@ -1,0 +1,48 @@
+/**
+ * The range of conditions a study's data covered, carried in the fitted-kinetics hand-off so that
+ * sizing can warn when a production case extrapolates.
+ */
+import type { FittedKinetics, Range } from '../design/handoff';
+import type { Study } from '../study/types';
+
+function range(values: number[], unit: string): Range | undefined {
+  const v = values.filter(Number.isFinite);
+  if (!v.length) return undefined;
+  return { min: Math.min(...v), max: Math.max(...v), unit };
+}
+
+export function studyCoverage(study: Study): FittedKinetics['coverage'] {
+  const names = study.chemistry.speciesNames;
+  const temperature = range(study.runs.map((r) => r.temperature), 'K') ?? { min: NaN, max: NaN, unit: 'K' };
+  const pressure = range(study.runs.map((r) => r.pressure ?? NaN), 'Pa');
+  const feedMoleFraction: Record<string, Range> = {};
+  const fractions = study.runs.map((r) => {
+    const a = r.feed ?? r.initialConcentrations;
+    if (!a) return undefined;
+    let t = 0;
+    for (const x of a) t += x;
+    return t > 0 ? Array.from(a, (x) => x / t) : undefined;
+  });
+  names.forEach((name, j) => {
+    const rg = range(fractions.map((f) => (f ? f[j] : NaN)), '1');
+    if (rg && rg.max > 0) feedMoleFraction[name] = rg;
+  });
+  const key = study.keyReactantIndex;
+  const conv: number[] = [];
+  for (const o of study.observations) {
+    if (o.speciesIndex !== key || o.position !== undefined) continue;
+    const run = study.runs[o.runIndex];
+    if (o.response === 'conversion') conv.push(o.value);
+    else if (o.response === 'outlet-flow' && run.feed && run.feed[key] > 0) conv.push(1 - o.value / run.feed[key]);
+    else if (o.response === 'outlet-concentration' && run.initialConcentrations && run.initialConcentrations[key] > 0 && study.reactor.kind === 'batch') {
+      conv.push(1 - o.value / run.initialConcentrations[key]);
+    }
+  }
+  const conversion = range(conv, '1');
+  return {
+    temperature,
+    ...(pressure ? { pressure } : {}),
+    ...(Object.keys(feedMoleFraction).length ? { feedMoleFraction } : {}),
+    ...(conversion ? { conversion: { ...conversion, species: study.keyReactant } } : {}),
+  };
+}

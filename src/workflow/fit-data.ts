@@ -1,0 +1,47 @@
+/**
+ * Measured values, standard deviations and replicate labels of a study's observations, in the
+ * order of study.observations: the FitData the estimator needs.
+ *
+ * sigma of an observation: its own sigma column when given, else its response's error model
+ * (relative sigma is taken on the measured value, common practice: weights then stay fixed during
+ * the fit). 'unweighted' responses get sigma = 1 and the scale is estimated from the residuals.
+ */
+import type { FitData } from '../estimation/fit-types';
+import { sigmaFromModel, type Study } from '../study/types';
+
+export interface StudyFitData extends FitData {
+  /** Per observation: how sigma was obtained. */
+  sigmaSource: Array<'column' | 'error-model' | 'unweighted'>;
+}
+
+export function studyFitData(study: Study): StudyFitData {
+  const n = study.observations.length;
+  const measured = new Float64Array(n);
+  const sigma = new Float64Array(n);
+  const sigmaSource: StudyFitData['sigmaSource'] = [];
+  const repOf = new Map<string, string>();
+  for (const g of study.replicateGroups) for (const r of g.runIds) repOf.set(r, g.id);
+  const groups: string[] = [];
+  let unweighted = 0;
+  for (const o of study.observations) {
+    measured[o.index] = o.value;
+    let s: number | undefined;
+    if (o.sigma !== undefined && o.sigma > 0) {
+      s = o.sigma;
+      sigmaSource[o.index] = 'column';
+    } else {
+      const m = study.errorModels[o.errorModel];
+      s = m ? sigmaFromModel(m, o.value) : undefined;
+      sigmaSource[o.index] = s !== undefined && s > 0 ? 'error-model' : 'unweighted';
+    }
+    if (s === undefined || !(s > 0)) {
+      s = 1;
+      unweighted++;
+    }
+    sigma[o.index] = s;
+    // Same replicate group, same response, same species and same position: same conditions.
+    const rep = repOf.get(o.runId) ?? `run:${o.runId}`;
+    groups[o.index] = `${rep}|${o.response}|${o.species ?? ''}|${o.position ?? ''}`;
+  }
+  return { measured, sigma, sigmaKnown: unweighted === 0, groups, sigmaSource };
+}

@@ -1,0 +1,103 @@
+/**
+ * Fit a study (or one of its candidate rate-law sets): build the study model, the fit data, run
+ * the estimator, and assemble the fitted-kinetics hand-off for design.
+ */
+import { fitModel } from '../estimation/fit';
+import type { FitOptions, FitResult } from '../estimation/fit-types';
+import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics } from '../design/handoff';
+import { RateloomError, closestName } from '../core/errors';
+import type { Study } from '../study/types';
+import { studyCoverage } from './coverage';
+import { studyFitData, type StudyFitData } from './fit-data';
+import { StudyModel, baseVariant, candidateVariant, type ModelVariant, type StudyModelOptions } from './study-model';
+import { VERSION } from '../version';
+
+export interface StudyFitOptions extends FitOptions {
+  /** Candidate rate-law set to fit ('base' = the study's own rate laws); default 'base'. */
+  variant?: string;
+  /** Reactor solve tolerances and Jacobian choice. */
+  model?: StudyModelOptions;
+}
+
+export interface StudyFit {
+  variant: string;
+  fit: FitResult;
+  model: StudyModel;
+  data: StudyFitData;
+}
+
+/** The rate-law sets of a study: 'base' first, then its candidates. */
+export function studyVariants(study: Study): ModelVariant[] {
+  return [baseVariant(study), ...study.candidates.map(candidateVariant)];
+}
+
+export function findVariant(study: Study, name: string): ModelVariant {
+  const all = studyVariants(study);
+  const v = all.find((x) => x.name === name);
+  if (!v) {
+    const near = closestName(name, all.map((x) => x.name));
+    throw new RateloomError('E_VALUE', `no rate-law set named '${name}'`, {
+      path: ['candidates'],
+      fix: `Use one of: ${all.map((x) => x.name).join(', ')}${near ? ` (did you mean '${near}'?)` : ''}.`,
+    });
+  }
+  return v;
+}
+
+/** Fit one rate-law set of a study. Bad input throws; convergence trouble is the fit's status. */
+export function fitStudy(study: Study, options: StudyFitOptions = {}): StudyFit {
+  const variant = findVariant(study, options.variant ?? 'base');
+  const model = new StudyModel(study, variant, options.model);
+  const data = studyFitData(study);
+  const fit = fitModel(model, variant.parameters, data, options);
+  return { variant: variant.name, fit, model, data };
+}
+
+/** The fitted-kinetics hand-off file of a study fit (plain JSON, SI). */
+export function buildHandoff(study: Study, sf: StudyFit): FittedKinetics {
+  const variant = findVariant(study, sf.variant);
+  const { fit } = sf;
+  return {
+    format: HANDOFF_FORMAT,
+    formatVersion: HANDOFF_VERSION,
+    tool: { name: 'rateloom', version: VERSION },
+    study: study.title ?? study.studyPath,
+    model: sf.variant,
+    species: study.species,
+    reactions: variant.reactions,
+    referenceTemperature: study.referenceTemperature,
+    parameters: fit.parameters.map((p) => ({
+      name: p.name,
+      unit: p.unit,
+      value: p.value,
+      stdError: p.stdError,
+      fixed: p.fixed,
+      transform: p.transform,
+      internalValue: p.internalValue,
+      ...(p.ci.linear || p.ci.profile
+        ? {
+            ci: {
+              level: p.ci.level,
+              ...(p.ci.linear ? { linear: p.ci.linear } : {}),
+              ...(p.ci.profile && p.ci.profile[0] !== null && p.ci.profile[1] !== null ? { profile: p.ci.profile as [number, number] } : {}),
+            },
+          }
+        : {}),
+    })),
+    covariance: {
+      space: 'internal',
+      names: fit.covariance.names,
+      matrix: fit.covariance.internal ?? fit.covariance.names.map(() => fit.covariance.names.map(() => 0)),
+    },
+    statistics: {
+      n: fit.statistics.n,
+      p: fit.statistics.p,
+      dof: fit.statistics.dof,
+      residualStdDev: fit.statistics.residualStdDev ?? NaN,
+      covarianceBasis: fit.statistics.covarianceBasis,
+    },
+    fitStatus: fit.status,
+    labReactor: study.reactor,
+    coverage: studyCoverage(study),
+  };
+}

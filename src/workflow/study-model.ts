@@ -1,0 +1,331 @@
+/**
+ * A study as a regression model: the bridge between the validated study (runs, observations) and
+ * estimation, which knows models only through RegressionModel. Given the full parameter vector in
+ * the estimation space, it solves every run's reactor once (plus one solve per profile position),
+ * and fills the prediction of every observation. Its Jacobian comes from the reactors' exact
+ * forward sensitivities (stirred tank: implicit differentiation), chained through the per-run
+ * parameter mapping and the log transform; rate data are predicted from the rate law directly,
+ * without integration.
+ */
+import { RateloomError } from '../core/errors';
+import type { Parameter } from '../core/parameter';
+import { compileKinetics, type CompiledKineticsInfo } from '../kinetics/compile';
+import type { RateLawSpec } from '../kinetics/spec';
+import { solveReactor } from '../reactors';
+import { R_GAS } from '../reactors/gas';
+import type { ReactorOptions, ReactorSolution, RunConditions } from '../reactors/types';
+import type { PredictionFailure, RegressionModel } from '../estimation/model';
+import type { CandidateSet, Observation, Study, StudyRun } from '../study/types';
+
+/** Options of the study model. */
+export interface StudyModelOptions {
+  /** ODE relative tolerance of each reactor solve; default 1e-8. */
+  rtol?: number;
+  /** ODE absolute tolerance; default 1e-12 (SI state units). */
+  atol?: number;
+  /** Provide the exact Jacobian from sensitivities; default true (false: estimation differences). */
+  exactJacobian?: boolean;
+}
+
+/** One solve of one run: the size (full, or a profile position) and the observations it feeds. */
+interface SolveTask {
+  runIndex: number;
+  /** Size of this solve (kg, m3 or s); the run's own size for outlet observations. */
+  size: number;
+  observations: Observation[];
+}
+
+/** The rate-law set a model is built from: the study's own, or a candidate's. */
+export interface ModelVariant {
+  name: string;
+  reactions: Study['reactions'];
+  parameters: Parameter[];
+}
+
+export function baseVariant(study: Study): ModelVariant {
+  return { name: 'base', reactions: study.reactions, parameters: study.parameters };
+}
+
+export function candidateVariant(c: CandidateSet): ModelVariant {
+  return { name: c.name, reactions: c.reactions, parameters: c.parameters };
+}
+
+/** Base name of a parameter: 'a@charge2' -> 'a'. */
+const baseName = (name: string): string => name.split('@')[0];
+
+export class StudyModel implements RegressionModel {
+  readonly nObservations: number;
+  readonly parameterNames: readonly string[];
+  readonly parameters: readonly Parameter[];
+  readonly kinetics: CompiledKineticsInfo;
+  readonly study: Study;
+  readonly variant: string;
+  /** Per run: index into the full theta of each kinetics parameter. */
+  private readonly runMap: Int32Array[];
+  private readonly tasks: SolveTask[];
+  private readonly rateObservations: Observation[];
+  private readonly thetaK: Float64Array;
+  private readonly ext: Float64Array;
+  private readonly dExt: Float64Array;
+  private readonly reactorOptions: ReactorOptions;
+  private readonly exact: boolean;
+  private readonly scratchC: Float64Array;
+  private readonly scratchR: Float64Array;
+  private readonly scratchJP: Float64Array;
+  jacobian?: RegressionModel['jacobian'];
+
+  constructor(study: Study, variant: ModelVariant = baseVariant(study), options: StudyModelOptions = {}) {
+    this.study = study;
+    this.variant = variant.name;
+    this.parameters = variant.parameters;
+    this.parameterNames = variant.parameters.map((p) => p.name);
+    const kinNames = [...new Set(this.parameterNames.map(baseName))];
+    this.kinetics = compileKinetics({
+      chemistry: study.chemistry,
+      rates: variant.reactions.map((r) => r.rate as RateLawSpec),
+      parameterNames: kinNames,
+      referenceTemperature: study.referenceTemperature,
+    });
+    const index = new Map(this.parameterNames.map((n, i) => [n, i]));
+    this.runMap = study.runs.map((run) =>
+      Int32Array.from(kinNames, (k) => {
+        const member = run.group !== undefined ? index.get(`${k}@${run.group}`) : undefined;
+        return member ?? index.get(k) ?? -1;
+      }),
+    );
+    for (const [r, map] of this.runMap.entries()) {
+      const missing = kinNames.filter((_, k) => map[k] < 0);
+      if (missing.length) {
+        throw new RateloomError('E_UNKNOWN_PARAMETER', `run '${study.runs[r].id}' has no value for parameter(s) ${missing.join(', ')} (group '${study.runs[r].group ?? ''}')`, { path: ['parameters'], fix: 'Declare the parameter, or give it scope per-run-group with a value for every group.' });
+      }
+    }
+    this.nObservations = study.observations.length;
+    this.rateObservations = study.observations.filter((o) => o.response === 'rate');
+    this.tasks = buildTasks(study);
+    const nS = study.chemistry.speciesNames.length;
+    const nR = study.chemistry.reactionIds.length;
+    this.thetaK = new Float64Array(kinNames.length);
+    this.ext = new Float64Array(this.parameterNames.length);
+    this.dExt = new Float64Array(this.parameterNames.length);
+    this.scratchC = new Float64Array(nS);
+    this.scratchR = new Float64Array(nR);
+    this.scratchJP = new Float64Array(nR * kinNames.length);
+    this.reactorOptions = { rtol: options.rtol ?? 1e-8, atol: options.atol ?? 1e-12 };
+    this.exact = options.exactJacobian ?? true;
+    if (this.exact) this.jacobian = (theta, pred, J, failures) => this.evaluate(theta, pred, J, failures);
+  }
+
+  predict(theta: Float64Array, out: Float64Array, failures?: PredictionFailure[]): boolean {
+    return this.evaluate(theta, out, undefined, failures);
+  }
+
+  /** Solve one run at the given external (SI) parameter values, for reports and simulation. */
+  solveRun(runIndex: number, external: Float64Array, options: ReactorOptions = {}): ReactorSolution {
+    this.fillKinetics(runIndex, external);
+    const run = this.study.runs[runIndex];
+    return solveReactor(this.study.reactor, run, this.kinetics, this.thetaK.slice(), { ...this.reactorOptions, ...options });
+  }
+
+  /** External (SI) values from estimation-space values. */
+  toExternal(theta: Float64Array, out: Float64Array = new Float64Array(theta.length)): Float64Array {
+    this.parameters.forEach((p, i) => {
+      out[i] = p.transform === 'log' ? Math.exp(theta[i]) : theta[i];
+    });
+    return out;
+  }
+
+  private fillKinetics(runIndex: number, external: Float64Array): void {
+    const map = this.runMap[runIndex];
+    for (let k = 0; k < map.length; k++) this.thetaK[k] = external[map[k]];
+  }
+
+  private evaluate(theta: Float64Array, out: Float64Array, J: Float64Array | undefined, failures?: PredictionFailure[]): boolean {
+    const nP = this.parameterNames.length;
+    this.toExternal(theta, this.ext);
+    for (let i = 0; i < nP; i++) this.dExt[i] = this.parameters[i].transform === 'log' ? this.ext[i] : 1;
+    if (J) J.fill(0);
+    let ok = true;
+    for (const task of this.tasks) {
+      const run = this.study.runs[task.runIndex];
+      this.fillKinetics(task.runIndex, this.ext);
+      const runForSolve: RunConditions = task.size === run.size ? run : { ...run, size: task.size };
+      let sol: ReactorSolution;
+      try {
+        sol = solveReactor(this.study.reactor, runForSolve, this.kinetics, this.thetaK, { ...this.reactorOptions, sensitivities: !!J });
+      } catch (e) {
+        failures?.push({ run: run.id, message: (e as Error).message });
+        ok = false;
+        continue;
+      }
+      if (!sol.success) {
+        failures?.push({ run: run.id, message: sol.message });
+        ok = false;
+        continue;
+      }
+      for (const o of task.observations) {
+        const v = outletValue(o, run, sol, this.study);
+        if (!Number.isFinite(v)) {
+          failures?.push({ run: run.id, message: `prediction of ${o.response} ${o.species ?? ''} is not finite` });
+          ok = false;
+        }
+        out[o.index] = v;
+        if (J && sol.sensitivity) this.chainOutlet(o, run, sol, task, J);
+      }
+    }
+    for (const o of this.rateObservations) {
+      const run = this.study.runs[o.runIndex];
+      this.fillKinetics(o.runIndex, this.ext);
+      inletConcentrations(run, this.study, this.scratchC);
+      this.kinetics.rates(this.scratchC, run.temperature, this.thetaK, this.scratchR);
+      const j = o.speciesIndex ?? this.study.keyReactantIndex;
+      const nS = this.study.chemistry.speciesNames.length;
+      const nR = this.study.chemistry.reactionIds.length;
+      let v = 0;
+      for (let i = 0; i < nR; i++) v -= this.kinetics.stoich[i * nS + j] * this.scratchR[i];
+      out[o.index] = v;
+      if (!Number.isFinite(v)) {
+        failures?.push({ run: run.id, message: `rate of ${o.species ?? ''} is not finite` });
+        ok = false;
+      }
+      if (J) {
+        this.kinetics.ratesJacP(this.scratchC, run.temperature, this.thetaK, this.scratchJP);
+        const map = this.runMap[o.runIndex];
+        const nK = map.length;
+        for (let k = 0; k < nK; k++) {
+          let d = 0;
+          for (let i = 0; i < nR; i++) d -= this.kinetics.stoich[i * nS + j] * this.scratchJP[i * nK + k];
+          J[o.index * nP + map[k]] += d * this.dExt[map[k]];
+        }
+      }
+    }
+    return ok;
+  }
+
+  private chainOutlet(o: Observation, run: StudyRun, sol: ReactorSolution, task: SolveTask, J: Float64Array): void {
+    const nP = this.parameterNames.length;
+    const map = this.runMap[task.runIndex];
+    const nK = map.length;
+    const sens = sol.sensitivity!;
+    const j = o.speciesIndex ?? -1;
+    for (let k = 0; k < nK; k++) {
+      let d: number;
+      switch (o.response) {
+        case 'outlet-flow':
+          d = sens.amounts[j * nK + k];
+          break;
+        case 'outlet-concentration':
+          d = concentrationSensitivity(j, k, nK, run, sol, this.study, task.size);
+          break;
+        case 'conversion': {
+          const a0 = initialAmount(j, run, this.study);
+          d = -sens.amounts[j * nK + k] / a0;
+          break;
+        }
+        case 'outlet-pressure':
+          d = sens.pressureRatio[k] * (run.pressure ?? 0);
+          break;
+        default:
+          d = 0;
+      }
+      J[o.index * nP + map[k]] += d * this.dExt[map[k]];
+    }
+  }
+}
+
+/** Group observations into solves: one per run for outlet values, one per distinct profile position. */
+function buildTasks(study: Study): SolveTask[] {
+  const tasks = new Map<string, SolveTask>();
+  for (const o of study.observations) {
+    if (o.response === 'rate') continue;
+    const run = study.runs[o.runIndex];
+    const size = o.position ?? run.size;
+    const key = `${o.runIndex}|${size}`;
+    let t = tasks.get(key);
+    if (!t) {
+      t = { runIndex: o.runIndex, size, observations: [] };
+      tasks.set(key, t);
+    }
+    t.observations.push(o);
+  }
+  return [...tasks.values()];
+}
+
+/** Amount of species j entering (flow: mol/s) or present at the start (batch: mol). */
+export function initialAmount(j: number, run: RunConditions, study: Study): number {
+  const kind = study.reactor.kind;
+  if (kind === 'batch') return (run.initialConcentrations?.[j] ?? 0) * batchVolume(run);
+  if (kind === 'semibatch') return (run.initialConcentrations?.[j] ?? 0) * (run.initialVolume ?? 0);
+  return run.feed?.[j] ?? 0;
+}
+
+function batchVolume(run: RunConditions): number {
+  return run.initialVolume ?? 1;
+}
+
+/** Volume of the mixture at the end of a run (batch: constant; semibatch: V0 + v0 t), m3. */
+function mixtureVolume(run: RunConditions, study: Study, size: number): number {
+  if (study.reactor.kind === 'semibatch') return (run.initialVolume ?? 0) + (run.volumetricFlow ?? 0) * size;
+  return batchVolume(run);
+}
+
+/** Prediction of an outlet (or end, or profile-position) observation from a reactor solution. */
+export function outletValue(o: Observation, run: RunConditions, sol: ReactorSolution, study: Study): number {
+  const j = o.speciesIndex ?? -1;
+  switch (o.response) {
+    case 'outlet-flow':
+      return sol.outletAmounts[j];
+    case 'outlet-concentration':
+      return sol.outletConcentrations[j];
+    case 'conversion': {
+      const a0 = initialAmount(j, run, study);
+      return (a0 - sol.outletAmounts[j]) / a0;
+    }
+    case 'outlet-pressure':
+      return sol.pressureRatio * (run.pressure ?? NaN);
+    default:
+      return NaN;
+  }
+}
+
+/** d C_j / d theta_k at the outlet from the flow (or mole) sensitivities and the state. */
+function concentrationSensitivity(j: number, k: number, nK: number, run: RunConditions, sol: ReactorSolution, study: Study, size: number): number {
+  const sens = sol.sensitivity!;
+  const dAmount = sens.amounts[j * nK + k];
+  const kind = study.reactor.kind;
+  // Batch and semibatch: C_j = N_j / V, with V independent of the parameters.
+  if (kind === 'batch' || kind === 'semibatch') return dAmount / mixtureVolume(run, study, size);
+  // Liquid flow: C_j = F_j / v0.
+  if (study.reactor.phase === 'liquid') return dAmount / (run.volumetricFlow ?? NaN);
+  // Gas flow (isothermal): C_j = C_T0 (F_j / F_T) p, so
+  // dC_j = C_T0 [ (dF_j F_T - F_j dF_T) / F_T^2 p + (F_j / F_T) dp ].
+  const F = sol.outletAmounts;
+  const CT0 = (run.pressure ?? 0) / (R_GAS * run.temperature);
+  let FT = 0;
+  let dFT = 0;
+  for (let s = 0; s < F.length; s++) {
+    FT += F[s];
+    dFT += sens.amounts[s * nK + k];
+  }
+  const p = sol.pressureRatio;
+  return CT0 * (((dAmount * FT - F[j] * dFT) / (FT * FT)) * p + (F[j] / FT) * sens.pressureRatio[k]);
+}
+
+/** Inlet concentrations of a run (mol/m3): gas from P, T and feed fractions; liquid from F/v0. */
+export function inletConcentrations(run: RunConditions, study: Study, out: Float64Array): Float64Array {
+  if (run.initialConcentrations) {
+    out.set(run.initialConcentrations);
+    return out;
+  }
+  const F = run.feed;
+  if (!F) return out.fill(0);
+  if (study.reactor.phase === 'gas') {
+    let FT = 0;
+    for (let j = 0; j < F.length; j++) FT += F[j];
+    const CT = (run.pressure ?? 0) / (R_GAS * run.temperature);
+    for (let j = 0; j < F.length; j++) out[j] = (CT * F[j]) / FT;
+  } else {
+    const v0 = run.volumetricFlow ?? 1;
+    for (let j = 0; j < F.length; j++) out[j] = F[j] / v0;
+  }
+  return out;
+}
