@@ -113,7 +113,7 @@ export function keyValueTable(rows: [string, string][], captionText?: string): s
 export function chartFigure(c: RenderedChart): string {
   const body = c.svg ?? `<p class="chart-error">Chart could not be drawn: ${escapeHtml(c.error ?? 'unknown reason')}</p>`;
   const cap = c.caption ? `<figcaption>${escapeHtml(c.caption)}</figcaption>` : '';
-  return `<figure class="chart" id="${escapeHtml(c.id)}"><h3>${escapeHtml(c.title)}</h3><div class="plot">${body}</div>${cap}</figure>`;
+  return `<figure class="chart" id="chart-${escapeHtml(c.id)}"><h3>${escapeHtml(c.title)}</h3><div class="plot">${body}</div>${cap}</figure>`;
 }
 
 /** A grid of chart figures, or nothing when there are none. */

@@ -55,13 +55,20 @@ function collectingLogger(messages: string[]): vega.LoggerInterface {
   return logger;
 }
 
-/** Render a vega-lite spec to an SVG string, headless. `messages` collects vega's warnings. */
+/**
+ * Render a vega-lite spec to an SVG string, headless. `messages` collects vega's warnings; an error
+ * logged by vega while drawing (for example a refused data load) makes the call throw.
+ */
 export async function renderSvg(spec: TopLevelSpec, messages: string[] = []): Promise<string> {
   const vegaSpec = compile(spec, { logger: collectingLogger(messages) as never }).spec;
   const runtime = vega.parse(vegaSpec);
   const view = new vega.View(runtime, { renderer: 'none', loader: offlineLoader(), logger: collectingLogger(messages) });
   try {
+    const before = messages.length;
     const svg = await view.toSVG();
+    // vega logs data-load and dataflow failures and draws an empty chart: treat them as failures
+    const errors = messages.slice(before).filter((m) => m.startsWith('error: ') || m.startsWith('Loading failed'));
+    if (errors.length) throw new Error(errors.map((m) => m.replace(/^error: /, '')).join('; '));
     return tidySvg(svg);
   } finally {
     view.finalize();
@@ -69,7 +76,21 @@ export async function renderSvg(spec: TopLevelSpec, messages: string[] = []): Pr
 }
 
 /**
- * Render charts one by one. A chart that cannot be drawn is returned with `error` set (and no svg)
+ * Give every id inside an SVG a prefix (and rewrite its local references), so several charts
+ * inlined into one HTML document do not share clip-path or gradient ids such as 'clip1'.
+ */
+export function scopeSvgIds(svg: string, prefix: string): string {
+  const ids = new Set([...svg.matchAll(/\sid="([^"]+)"/g)].map((m) => m[1]));
+  if (ids.size === 0) return svg;
+  const p = prefix.replace(/[^A-Za-z0-9_-]/g, '-');
+  return svg
+    .replace(/\sid="([^"]+)"/g, (_m, id: string) => ` id="${p}-${id}"`)
+    .replace(/url\(#([^)]+)\)/g, (m, id: string) => (ids.has(id) ? `url(#${p}-${id})` : m))
+    .replace(/href="#([^"]+)"/g, (m, id: string) => (ids.has(id) ? `href="#${p}-${id}"` : m));
+}
+
+/**
+ * Render charts one by one. Ids inside each SVG are prefixed with the chart id. A chart that cannot be drawn is returned with `error` set (and no svg)
  * so the document can say so instead of failing as a whole or hiding the gap.
  */
 export async function renderCharts(charts: ChartSpec[]): Promise<RenderedChart[]> {
@@ -78,7 +99,7 @@ export async function renderCharts(charts: ChartSpec[]): Promise<RenderedChart[]
     const base = { id: c.id, title: c.title, ...(c.caption ? { caption: c.caption } : {}) };
     const messages: string[] = [];
     try {
-      const svg = await renderSvg(c.spec, messages);
+      const svg = scopeSvgIds(await renderSvg(c.spec, messages), c.id);
       out.push({ ...base, svg, ...(messages.length ? { messages } : {}) });
     } catch (e) {
       out.push({ ...base, error: (e as Error).message, ...(messages.length ? { messages } : {}) });

@@ -16,7 +16,14 @@ export function productionCharts(profile: SizingReportData['productionProfile'],
     profile.series.flatMap((s) => s.points.map((p) => ({ series: s.name, x: p.x, median: p.median, lo: p.lo, hi: p.hi }))),
     ['x', 'median', 'lo', 'hi'],
   );
-  const colour = { field: 'series', type: 'nominal', title: 'Series', scale: { domain: names, range: OKABE_ITO.slice(0, n) } };
+  // one legend for both layers, drawn as line strokes (the band shares the series colour)
+  const colour = {
+    field: 'series',
+    type: 'nominal',
+    title: 'Series',
+    scale: { domain: names, range: OKABE_ITO.slice(0, n) },
+    legend: { symbolType: 'stroke', symbolStrokeWidth: 3, symbolOpacity: 1 },
+  };
   const x = { field: 'x', type: 'quantitative', title: axisTitle(profile.coordinate.label, profile.coordinate.unit) };
   const level = formatNumber(profile.bandLevel * 100, 3);
   return [
@@ -34,12 +41,12 @@ export function productionCharts(profile: SizingReportData['productionProfile'],
                 x,
                 y: { field: 'lo', type: 'quantitative', title: axisTitle(profile.quantity.label, profile.quantity.unit) },
                 y2: { field: 'hi' },
-                color: { ...colour, legend: null },
+                color: colour,
               },
             },
             {
               mark: { type: 'line' },
-              encoding: { x, y: { field: 'median', type: 'quantitative' }, color: { ...colour, legend: { symbolType: 'stroke', symbolStrokeWidth: 3 } } },
+              encoding: { x, y: { field: 'median', type: 'quantitative' }, color: colour },
             },
           ],
         },
