@@ -184,9 +184,43 @@ export function checkElementBalance(run: MappedRun, rowObs: readonly MappedObser
   return undefined;
 }
 
+/** Scalar keys used to narrow the replicate search before the full comparison. */
+const KEYS: ((r: MappedRun) => number)[] = [
+  (r) => r.temperature,
+  (r) => r.size ?? 0,
+  (r) => r.pressure ?? 0,
+  (r) => (r.feed ? r.feed.reduce((a, b) => a + b, 0) : 0),
+  (r) => (r.initialConcentrations ? r.initialConcentrations.reduce((a, b) => a + b, 0) : 0),
+];
+
+/**
+ * Split `idx` into chains of runs whose key k differs by at most tol (relative) between sorted
+ * neighbours, then recurse on the next key. Any two runs within tol in every key end up in the
+ * same leaf, so comparing pairs only inside leaves finds every replicate pair.
+ */
+function leaves(runs: readonly MappedRun[], idx: number[], k: number, tol: number, out: number[][]): void {
+  if (idx.length < 2) return;
+  if (k === KEYS.length) {
+    out.push(idx);
+    return;
+  }
+  const key = KEYS[k];
+  const sorted = [...idx].sort((a, b) => key(runs[a]) - key(runs[b]));
+  let chain = [sorted[0]];
+  for (let i = 1; i < sorted.length; i++) {
+    const a = key(runs[sorted[i - 1]]);
+    const b = key(runs[sorted[i]]);
+    if (Math.abs(b - a) <= tol * Math.max(Math.abs(a), Math.abs(b))) chain.push(sorted[i]);
+    else {
+      leaves(runs, chain, k + 1, tol, out);
+      chain = [sorted[i]];
+    }
+  }
+  leaves(runs, chain, k + 1, tol, out);
+}
+
 /** Replicate groups: runs with equal conditions within the relative tolerance (two or more runs each). */
 export function findReplicates(runs: readonly MappedRun[], tol: number): ReplicateGroup[] {
-  const order = runs.map((_, i) => i).sort((a, b) => runs[a].temperature - runs[b].temperature);
   const parent = runs.map((_, i) => i);
   const find = (i: number): number => {
     while (parent[i] !== i) {
@@ -195,23 +229,24 @@ export function findReplicates(runs: readonly MappedRun[], tol: number): Replica
     }
     return i;
   };
-  for (let a = 0; a < order.length; a++) {
-    const ra = runs[order[a]];
-    for (let b = a + 1; b < order.length; b++) {
-      const rb = runs[order[b]];
-      if (rb.temperature - ra.temperature > tol * Math.max(ra.temperature, rb.temperature)) break;
-      if (sameConditions(ra, rb, tol)) parent[find(order[b])] = find(order[a]);
+  const groups: number[][] = [];
+  leaves(runs, runs.map((_, i) => i), 0, tol, groups);
+  for (const leaf of groups) {
+    for (let a = 0; a < leaf.length; a++) {
+      for (let b = a + 1; b < leaf.length; b++) {
+        if (sameConditions(runs[leaf[a]], runs[leaf[b]], tol)) parent[find(leaf[b])] = find(leaf[a]);
+      }
     }
   }
-  const groups = new Map<number, string[]>();
+  const byRoot = new Map<number, string[]>();
   runs.forEach((r, i) => {
     const root = find(i);
-    const g = groups.get(root) ?? [];
+    const g = byRoot.get(root) ?? [];
     g.push(r.id);
-    groups.set(root, g);
+    byRoot.set(root, g);
   });
   const out: ReplicateGroup[] = [];
-  for (const ids of groups.values()) if (ids.length > 1) out.push({ id: `rep${out.length + 1}`, runIds: ids });
+  for (const ids of byRoot.values()) if (ids.length > 1) out.push({ id: `rep${out.length + 1}`, runIds: ids });
   return out;
 }
 
