@@ -73,6 +73,8 @@ export class StudyModel implements RegressionModel {
   private readonly scratchR: Float64Array;
   private readonly scratchJP: Float64Array;
   jacobian?: RegressionModel['jacobian'];
+  /** Work counters since construction: reactor solves, right-hand-side and Jacobian evaluations. */
+  readonly counters = { predictions: 0, jacobians: 0, solves: 0, rhsEvaluations: 0, jacobianEvaluations: 0, rateEvaluations: 0 };
 
   constructor(study: Study, variant: ModelVariant = baseVariant(study), options: StudyModelOptions = {}) {
     this.study = study;
@@ -143,7 +145,10 @@ export class StudyModel implements RegressionModel {
     const nP = this.parameterNames.length;
     this.toExternal(theta, this.ext);
     for (let i = 0; i < nP; i++) this.dExt[i] = this.parameters[i].transform === 'log' ? this.ext[i] : 1;
-    if (J) J.fill(0);
+    if (J) {
+      J.fill(0);
+      this.counters.jacobians++;
+    } else this.counters.predictions++;
     let ok = true;
     for (const task of this.tasks) {
       const run = this.study.runs[task.runIndex];
@@ -157,6 +162,9 @@ export class StudyModel implements RegressionModel {
         ok = false;
         continue;
       }
+      this.counters.solves++;
+      this.counters.rhsEvaluations += sol.stats.rhsEvaluations;
+      this.counters.jacobianEvaluations += sol.stats.jacobianEvaluations;
       if (!sol.success) {
         failures?.push({ run: run.id, message: sol.message });
         ok = false;
@@ -177,6 +185,7 @@ export class StudyModel implements RegressionModel {
       this.fillKinetics(o.runIndex, this.ext);
       inletConcentrations(run, this.study, this.scratchC);
       this.kinetics.rates(this.scratchC, run.temperature, this.thetaK, this.scratchR);
+      this.counters.rateEvaluations++;
       const j = o.speciesIndex ?? this.study.keyReactantIndex;
       const nS = this.study.chemistry.speciesNames.length;
       const nR = this.study.chemistry.reactionIds.length;
