@@ -180,6 +180,7 @@ export function sizeReactor(input: SizingInput): SizingResult {
 
   // Uncertainty.
   const draws = opts.draws ?? kase.uncertainty.draws;
+  let overDrop = 0;
   const quantityFn =
     t.kind === 'size'
       ? (s: Sizer) => {
@@ -188,6 +189,7 @@ export function sizeReactor(input: SizingInput): SizingResult {
         }
       : (s: Sizer) => {
           const r = s.size();
+          if (tubes && r.status === 'sized' && kase.pressure! * (1 - Math.sqrt(Math.max(r.y[sys.nS], 0))) > tubes.allowedPressureDrop) overDrop++;
           return { value: r.status === 'sized' ? r.size : NaN, status: r.status };
         };
   const unc = propagate(
@@ -207,6 +209,13 @@ export function sizeReactor(input: SizingInput): SizingResult {
     },
   );
   result.uncertainty = unc;
+  if (overDrop > 0 && tubes) {
+    warnings.push({
+      code: 'W_DRAWS_PRESSURE',
+      message: `with ${tubes.count} tubes, ${overDrop} parameter sets (Monte Carlo and delta-method evaluations) need a pressure drop above the allowed ${fmt(tubes.allowedPressureDrop / 1e5, 4)} bar; size the tubes for a percentile, not the nominal fit, if that margin matters`,
+      path: ['tubes'],
+    });
+  }
   if (unc.failed.count > 0) {
     const reasons = Object.entries(unc.failed.reasons).map(([r, n]) => `${n} ${r}`).join(', ');
     warnings.push({
