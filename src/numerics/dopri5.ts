@@ -61,12 +61,29 @@ export interface Dopri5Options {
 
 /** Dormand-Prince 5(4) stepper (see file header). */
 export class Dopri5 implements Stepper {
-  t = 0;
-  tOld = 0;
-  h = 0;
-  stiff = false;
+  /** Scalars updated every step live in a typed array so that storing them never boxes a double. */
+  private readonly sc = new Float64Array(6); // t, tOld, h, hLambda, hStep, facold
+  get t(): number {
+    return this.sc[0];
+  }
+  get tOld(): number {
+    return this.sc[1];
+  }
+  /** Proposed size of the next step (signed). */
+  get h(): number {
+    return this.sc[2];
+  }
   /** Last estimate of h*|lambda| from the stiffness test (0 until tested). */
-  hLambda = 0;
+  get hLambda(): number {
+    return this.sc[3];
+  }
+  private get hStep(): number {
+    return this.sc[4];
+  }
+  private get facold(): number {
+    return this.sc[5];
+  }
+  stiff = false;
   readonly y: Float64Array;
 
   private readonly f: OdeRhs;
@@ -86,9 +103,7 @@ export class Dopri5 implements Stepper {
   private readonly rc3: Float64Array;
   private readonly rc4: Float64Array;
   private readonly rc5: Float64Array;
-  private hStep = 0; // size of the last accepted step, for dense output
   private direction = 1;
-  private facold = 1e-4;
   private reject = false;
   private accepted = 0;
   private iasti = 0;
@@ -126,25 +141,25 @@ export class Dopri5 implements Stepper {
   start(t0: number, y0: ArrayLike<number>, tEnd: number): StepCode {
     const { n, s } = this;
     this.direction = tEnd >= t0 ? 1 : -1;
-    this.t = this.tOld = t0;
+    this.sc[0] = this.sc[1] = t0;
     for (let i = 0; i < n; i++) this.y[i] = y0[i];
     if (s.counters.rhs + 2 > s.maxEvaluations) return 'max-evaluations';
     this.f(t0, this.y, this.k1);
     s.counters.rhs++;
     if (!allFinite(this.k1, n)) return 'non-finite';
-    this.h =
+    this.sc[2] =
       this.h0 !== undefined && this.h0 > 0
         ? this.direction * Math.min(this.h0, s.hmax)
         : initialStep(this.f, t0, this.y, this.k1, this.direction, 5, s, this.y1, this.k2);
     // a rejected HINIT probe is harmless; start from a tiny step if it overflowed
-    if (!Number.isFinite(this.h) || this.h === 0) this.h = this.direction * 1e-6;
-    this.hStep = 0;
+    if (!Number.isFinite(this.h) || this.h === 0) this.sc[2] = this.direction * 1e-6;
+    this.sc[4] = 0;
     for (let i = 0; i < n; i++) {
       this.rc1[i] = this.y[i];
       this.rc2[i] = this.rc3[i] = this.rc4[i] = this.rc5[i] = 0;
     }
     this.reject = false;
-    this.facold = 1e-4;
+    this.sc[5] = 1e-4;
     return 'ok';
   }
 
@@ -197,7 +212,7 @@ export class Dopri5 implements Stepper {
         // non-finite trial: reject and shrink hard
         c.rejected++;
         if (++nonFinite > MAX_NONFINITE_RETRIES) return 'non-finite';
-        this.h = h * 0.1;
+        this.sc[2] = h * 0.1;
         this.reject = true;
         continue;
       }
@@ -207,7 +222,7 @@ export class Dopri5 implements Stepper {
       fac = Math.max(FACC2, Math.min(FACC1, fac / SAFE));
       let hnew = h / fac;
       if (err <= 1) {
-        this.facold = Math.max(err, 1e-4);
+        this.sc[5] = Math.max(err, 1e-4);
         this.accepted++;
         this.stiffnessTest(h);
         // dense output coefficients on [t, t+h]
@@ -223,20 +238,20 @@ export class Dopri5 implements Stepper {
           y[i] = y1[i];
           k1[i] = k7[i];
         }
-        this.tOld = t;
-        this.t = tph;
-        this.hStep = h;
+        this.sc[1] = t;
+        this.sc[0] = tph;
+        this.sc[4] = h;
         if (Math.abs(hnew) > s.hmax) hnew = dir * s.hmax;
         if (this.reject) hnew = dir * Math.min(Math.abs(hnew), Math.abs(h));
         this.reject = false;
         // keep the unclipped step proposal when the last step was shortened to hit tEnd
-        this.h = last && Math.abs(hnew) < Math.abs(this.h) ? this.h : hnew;
+        this.sc[2] = last && Math.abs(hnew) < Math.abs(this.h) ? this.h : hnew;
         return 'ok';
       }
       hnew = h / Math.min(FACC1, fac11 / SAFE);
       this.reject = true;
       c.rejected++;
-      this.h = hnew;
+      this.sc[2] = hnew;
     }
   }
 
@@ -250,7 +265,7 @@ export class Dopri5 implements Stepper {
       stnum += (k7[i] - k6[i]) ** 2;
       stden += (y1[i] - ysti[i]) ** 2;
     }
-    if (stden > 0) this.hLambda = Math.abs(h) * Math.sqrt(stnum / stden);
+    if (stden > 0) this.sc[3] = Math.abs(h) * Math.sqrt(stnum / stden);
     if (this.hLambda > this.stiffnessThreshold) {
       this.nonsti = 0;
       this.iasti++;

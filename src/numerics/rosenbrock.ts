@@ -80,9 +80,21 @@ export interface RosenbrockOptions {
 
 /** RODAS4 stepper (see file header). */
 export class Rosenbrock implements Stepper {
-  t = 0;
-  tOld = 0;
-  h = 0;
+  /** Scalars updated every step live in a typed array so that storing them never boxes a double. */
+  private readonly sc = new Float64Array(4); // t, tOld, h, hStep
+  get t(): number {
+    return this.sc[0];
+  }
+  get tOld(): number {
+    return this.sc[1];
+  }
+  /** Proposed size of the next step (signed). */
+  get h(): number {
+    return this.sc[2];
+  }
+  private get hStep(): number {
+    return this.sc[3];
+  }
   readonly stiff = true;
   readonly y: Float64Array;
 
@@ -108,7 +120,6 @@ export class Rosenbrock implements Stepper {
   private jacCurrent = false; // J and df/dt belong to the current (t, y)
   private rejectLast = false;
   private rejectMore = false;
-  private hStep = 0;
 
   constructor(settings: StepperSettings, options: RosenbrockOptions = {}) {
     this.s = settings;
@@ -138,20 +149,20 @@ export class Rosenbrock implements Stepper {
   start(t0: number, y0: ArrayLike<number>, tEnd: number): StepCode {
     const { n, s } = this;
     this.direction = tEnd >= t0 ? 1 : -1;
-    this.t = this.tOld = t0;
+    this.sc[0] = this.sc[1] = t0;
     for (let i = 0; i < n; i++) this.y[i] = y0[i];
     if (s.counters.rhs + 2 > s.maxEvaluations) return 'max-evaluations';
     this.f(t0, this.y, this.f0);
     s.counters.rhs++;
     if (!allFinite(this.f0, n)) return 'non-finite';
-    this.h =
+    this.sc[2] =
       this.h0 !== undefined && this.h0 > 0
         ? this.direction * Math.min(this.h0, s.hmax)
         : initialStep(this.f, t0, this.y, this.f0, this.direction, 4, s, this.ynew, this.ftmp);
-    if (!Number.isFinite(this.h) || this.h === 0) this.h = this.direction * 1e-6;
+    if (!Number.isFinite(this.h) || this.h === 0) this.sc[2] = this.direction * 1e-6;
     this.jacCurrent = false;
     this.rejectLast = this.rejectMore = false;
-    this.hStep = 0;
+    this.sc[3] = 0;
     this.f1.set(this.f0);
     this.fOld.set(this.f0);
     this.yOld.set(this.y);
@@ -272,7 +283,7 @@ export class Rosenbrock implements Stepper {
         c.rejected++;
         lastSingular = info !== 0;
         if (++nonFinite > MAX_NONFINITE_RETRIES) return lastSingular ? 'step-size-too-small' : 'non-finite';
-        this.h = h * 0.25;
+        this.sc[2] = h * 0.25;
         this.rejectLast = true;
         continue;
       }
@@ -287,7 +298,7 @@ export class Rosenbrock implements Stepper {
         if (!allFinite(this.ftmp, n)) {
           c.rejected++;
           if (++nonFinite > MAX_NONFINITE_RETRIES) return 'non-finite';
-          this.h = h * 0.25;
+          this.sc[2] = h * 0.25;
           this.rejectLast = true;
           continue;
         }
@@ -296,21 +307,21 @@ export class Rosenbrock implements Stepper {
         y.set(ynew);
         f0.set(this.ftmp);
         this.f1.set(this.ftmp);
-        this.tOld = t;
-        this.t = tNew;
-        this.hStep = h;
+        this.sc[1] = t;
+        this.sc[0] = tNew;
+        this.sc[3] = h;
         this.jacCurrent = false;
         if (Math.abs(hnew) > s.hmax) hnew = dir * s.hmax;
         if (this.rejectLast) hnew = dir * Math.min(Math.abs(hnew), Math.abs(h));
         this.rejectLast = this.rejectMore = false;
-        this.h = last && Math.abs(hnew) < Math.abs(this.h) ? this.h : hnew;
+        this.sc[2] = last && Math.abs(hnew) < Math.abs(this.h) ? this.h : hnew;
         return 'ok';
       }
       if (this.rejectMore) hnew = h * FAC_REJ;
       this.rejectMore = this.rejectLast;
       this.rejectLast = true;
       c.rejected++;
-      this.h = hnew;
+      this.sc[2] = hnew;
     }
   }
 
