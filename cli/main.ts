@@ -6,6 +6,7 @@ import { Command } from 'commander';
 import { EXIT_BAD_INPUT } from './run';
 import { registerSize } from './size';
 import { registerCheck } from './check';
+import { registerSimulate } from './simulate';
 
 const program = new Command();
 program
@@ -22,6 +23,7 @@ program
 const registrations: Array<(p: Command) => void> = [];
 // @register-commands (keep this marker; add one import + push per command)
 registrations.push(registerCheck);
+registrations.push(registerSimulate);
 registrations.push(registerSize);
 
 for (const r of registrations) r(program);
