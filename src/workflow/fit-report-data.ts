@@ -1,0 +1,167 @@
+/**
+ * From a study fit (and optionally the rival-model comparison) to the report's view model
+ * (report/types.ts). Only reshapes numbers it is handed, plus one profile solve per profiled run
+ * at the fitted parameters for the predicted curves.
+ */
+import type { Comparison } from '../estimation/compare';
+import type { FitReportData, ParameterRowData, RunObservationData, RunProfileData, RivalModelData } from '../report/types';
+import type { Study } from '../study/types';
+import type { StudyFit } from './fit-study';
+import { feedRatio, responseLabel, spaceTime } from './labels';
+import { VERSION } from '../version';
+
+const COVARIANCE_TEXT: Record<string, string> = {
+  's2-scaled': 's² (JᵀJ)⁻¹ at the optimum (sigma scale estimated from the residuals)',
+  'known-sigma': '(JᵀJ)⁻¹ at the optimum (measurement sigma taken as known)',
+};
+
+function parameterRows(sf: StudyFit): ParameterRowData[] {
+  const flagsFor = new Map<string, string[]>();
+  for (const w of sf.fit.warnings) {
+    const name = w.path?.find((s) => typeof s === 'string' && sf.fit.parameters.some((p) => p.name === s));
+    if (typeof name === 'string') flagsFor.set(name, [...(flagsFor.get(name) ?? []), w.code]);
+  }
+  return sf.fit.parameters.map((p) => ({
+    name: p.name,
+    unit: p.unit,
+    value: p.value,
+    stdError: p.stdError,
+    ciLevel: p.ci.level,
+    linearCI: p.ci.linear,
+    profileCI: p.ci.profile ?? null,
+    fixed: p.fixed,
+    flags: [...(p.atBound ? ['at bound'] : []), ...(flagsFor.get(p.name) ?? [])],
+  }));
+}
+
+function runRows(study: Study, sf: StudyFit): RunObservationData[] {
+  const byRun = new Map<number, RunObservationData>();
+  for (const o of study.observations) {
+    if (o.position !== undefined) continue;
+    const run = study.runs[o.runIndex];
+    let row = byRun.get(o.runIndex);
+    if (!row) {
+      row = {
+        runId: run.id,
+        conditions: {
+          temperature: run.temperature,
+          pressure: run.pressure ?? NaN,
+          spaceTime: spaceTime(run, study),
+          feedRatio: feedRatio(run, study),
+        },
+        responses: [],
+      };
+      byRun.set(o.runIndex, row);
+    }
+    const d = sf.fit.observations[o.index];
+    const { label, unit } = responseLabel(o, study);
+    row.responses.push({ response: label, unit, measured: d.measured, predicted: d.predicted, residual: d.residual, studentized: d.studentizedResidual });
+  }
+  return [...byRun.values()];
+}
+
+function profiles(study: Study, sf: StudyFit): RunProfileData[] {
+  const external = Float64Array.from(sf.fit.parameters, (p) => p.value);
+  const runs = new Map<number, typeof study.observations>();
+  for (const o of study.observations) {
+    if (o.position === undefined) continue;
+    runs.set(o.runIndex, [...(runs.get(o.runIndex) ?? []), o]);
+  }
+  const out: RunProfileData[] = [];
+  for (const [runIndex, obs] of runs) {
+    const run = study.runs[runIndex];
+    const xmax = Math.max(run.size, ...obs.map((o) => o.position ?? 0));
+    const points = Array.from({ length: 61 }, (_, i) => (xmax * i) / 60);
+    const sol = sf.model.solveRun(runIndex, external, { profile: true, profilePoints: points });
+    if (!sol.profile) continue;
+    const prof = sol.profile;
+    const kind = obs[0].response;
+    const useConc = kind === 'outlet-concentration';
+    const species = [...new Set(obs.map((o) => o.speciesIndex ?? -1).filter((j) => j >= 0))];
+    const first = responseLabel(obs[0], study);
+    out.push({
+      runId: run.id,
+      coordinate: { label: prof.coordinate, unit: prof.unit },
+      quantity: { label: useConc ? 'C_j' : study.reactor.kind === 'batch' ? 'N_j' : 'F_j', unit: first.unit },
+      species: species.map((j) => ({
+        species: study.chemistry.speciesNames[j],
+        measured: obs.filter((o) => o.speciesIndex === j).map((o) => ({ x: o.position!, y: o.value })),
+        predicted: prof.x.map((x, i) => ({ x, y: (useConc ? prof.concentrations[i] : prof.amounts[i])[j] })),
+      })),
+    });
+  }
+  return out;
+}
+
+function rivals(comparison: Comparison): RivalModelData[] {
+  return comparison.ranking.map((r) => ({
+    name: r.name,
+    ssr: r.ssr,
+    dof: r.dof,
+    aicc: r.aicc ?? NaN,
+    bic: r.bic,
+    akaikeWeight: r.akaikeWeight ?? 0,
+    verdict: !r.converged
+      ? 'did not converge'
+      : r.rank === 1
+        ? 'best supported'
+        : comparison.indistinguishable.includes(r.name)
+          ? 'cannot be told apart from the best'
+          : 'less supported',
+  }));
+}
+
+/** The fit report view model of a study fit. */
+export function fitReportData(study: Study, sf: StudyFit, comparison?: Comparison): FitReportData {
+  const { fit } = sf;
+  const s = fit.statistics;
+  const lof = s.lackOfFit;
+  return {
+    title: `Kinetic fit: ${study.title ?? study.studyPath}`,
+    studyName: study.title ?? study.studyPath,
+    generatedBy: `rateloom ${VERSION}`,
+    status: fit.status,
+    success: fit.success,
+    message: fit.message,
+    warnings: fit.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.path ? { path: w.path } : {}) })),
+    parameters: parameterRows(sf),
+    correlation: fit.correlation.matrix ? { names: fit.correlation.names, matrix: fit.correlation.matrix } : null,
+    statistics: {
+      n: s.n,
+      p: s.p,
+      dof: s.dof,
+      ssr: s.ssr,
+      ssrUnit: '1',
+      residualStdDev: s.residualStdDev ?? NaN,
+      residualUnit: '1',
+      aicc: s.aicc ?? NaN,
+      bic: s.bic,
+      covarianceBasis: COVARIANCE_TEXT[s.covarianceBasis] ?? s.covarianceBasis,
+      lackOfFit: lof
+        ? {
+            F: lof.F,
+            dofLackOfFit: lof.dofLack,
+            dofPureError: lof.dofPure,
+            pValue: lof.pValue,
+            conclusion: lof.pValue < 0.05 ? 'lack of fit is significant at the 5 % level' : 'no evidence of lack of fit at the 5 % level',
+          }
+        : null,
+    },
+    runs: runRows(study, sf),
+    profiles: profiles(study, sf),
+    likelihoodProfiles: fit.profiles.map((pr) => {
+      const p = fit.parameters.find((q) => q.name === pr.name)!;
+      return {
+        parameter: pr.name,
+        unit: p.unit,
+        estimate: p.value,
+        objectiveLabel: 'SSR',
+        objectiveUnit: '1',
+        points: pr.points.map((pt) => ({ value: pt.value, objective: pt.ssr })),
+        threshold: pr.threshold,
+      };
+    }),
+    ...(comparison ? { rivalModels: rivals(comparison) } : {}),
+    kinetics: sf.model.kinetics.describe().map((d) => `${d.id}: ${d.equation};  r = ${d.text}  [${d.rateUnit}]`),
+  };
+}

@@ -1,0 +1,73 @@
+/**
+ * Labels and SI units of responses and run conditions, shared by reports and command output.
+ */
+import type { Observation, Study, StudyRun } from '../study/types';
+import { R_GAS } from '../reactors/gas';
+
+/** Label and SI unit of an observation's response, e.g. { label: 'F_A out', unit: 'mol/s' }. */
+export function responseLabel(o: Pick<Observation, 'response' | 'species'>, study: Pick<Study, 'reactor'>): { label: string; unit: string } {
+  const s = o.species ?? '';
+  const batch = study.reactor.kind === 'batch' || study.reactor.kind === 'semibatch';
+  switch (o.response) {
+    case 'outlet-flow':
+      return batch ? { label: `N_${s}`, unit: 'mol' } : { label: `F_${s} out`, unit: 'mol/s' };
+    case 'outlet-concentration':
+      return { label: batch ? `C_${s}` : `C_${s} out`, unit: 'mol/m3' };
+    case 'conversion':
+      return { label: `X_${s}`, unit: '1' };
+    case 'outlet-pressure':
+      return { label: 'P out', unit: 'Pa' };
+    case 'rate':
+      return { label: `-r_${s}`, unit: rateUnit(study) };
+    default:
+      return { label: String(o.response), unit: '1' };
+  }
+}
+
+function rateUnit(study: Pick<Study, 'reactor'>): string {
+  return study.reactor.kind === 'packed-bed' ? 'mol/(kg s)' : 'mol/(m3 s)';
+}
+
+/** Space time of a run: W/F_A0 (kg s/mol), tau = V/v0 (s), or batch time t (s). */
+export function spaceTime(run: StudyRun, study: Study): { label: string; unit: string; value: number } | null {
+  const key = study.keyReactantIndex;
+  switch (study.reactor.kind) {
+    case 'packed-bed': {
+      const fa0 = run.feed?.[key] ?? 0;
+      return fa0 > 0 ? { label: `W/F_${study.keyReactant}0`, unit: 'kg s/mol', value: run.size / fa0 } : null;
+    }
+    case 'plug-flow':
+    case 'stirred-tank':
+    case 'membrane': {
+      let v0 = run.volumetricFlow;
+      if (v0 === undefined && study.reactor.phase === 'gas' && run.feed && run.pressure) {
+        let ft = 0;
+        for (const f of run.feed) ft += f;
+        v0 = (ft * R_GAS * run.temperature) / run.pressure;
+      }
+      return v0 && v0 > 0 ? { label: 'tau', unit: 's', value: run.size / v0 } : null;
+    }
+    case 'batch':
+    case 'semibatch':
+      return { label: 't', unit: 's', value: run.size };
+    default:
+      return null;
+  }
+}
+
+/**
+ * Feed ratio: the second reactant of the first reaction over the key reactant (mol/mol), when
+ * the first reaction has a second reactant.
+ */
+export function feedRatio(run: StudyRun, study: Study): { label: string; unit: string; value: number } | null {
+  const nS = study.chemistry.speciesNames.length;
+  const key = study.keyReactantIndex;
+  const a = run.feed ?? run.initialConcentrations;
+  if (!a || !(a[key] > 0)) return null;
+  for (let j = 0; j < nS; j++) {
+    if (j !== key && study.chemistry.reactantCoefficients[j] > 0) {
+      return { label: `${study.chemistry.speciesNames[j]}/${study.keyReactant}`, unit: 'mol/mol', value: a[j] / a[key] };
+    }
+  }
+  return null;
+}
