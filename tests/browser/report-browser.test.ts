@@ -10,7 +10,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { chromium, type BrowserContext } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { renderFitReport, renderSizingReport } from '../../src/report';
 import { sampleFitReportData, sampleSizingReportData } from '../report/fixtures/sample-data';
 
@@ -29,42 +29,49 @@ function chromiumPath(): string {
   );
 }
 
-let context: BrowserContext | undefined;
+let context: Promise<BrowserContext> | undefined;
 let userDataDir = '';
 
-beforeAll(async () => {
-  const executablePath = chromiumPath();
-  userDataDir = mkdtempSync(join(tmpdir(), 'rateloom-chromium-'));
-  // playwright refuses --user-data-dir in args; launchPersistentContext passes the fresh folder as that flag.
-  context = await chromium.launchPersistentContext(userDataDir, {
-    executablePath,
-    headless: true,
-    args: [
-      '--headless',
-      '--no-sandbox',
-      '--disable-gpu',
-      '--disable-quic',
-      '--no-first-run',
-      '--disable-background-networking',
-      '--disable-component-update',
-      '--disable-sync',
-    ],
-    viewport: { width: 1280, height: 900 },
-  });
-});
+/**
+ * Start chromium once, on first use inside a test, so that a missing chromium makes each test
+ * fail (a failing beforeAll would only mark the tests as skipped).
+ */
+function browser(): Promise<BrowserContext> {
+  if (!context) {
+    const executablePath = chromiumPath();
+    userDataDir = mkdtempSync(join(tmpdir(), 'rateloom-chromium-'));
+    // playwright refuses --user-data-dir in args; launchPersistentContext passes the fresh folder as that flag.
+    context = chromium.launchPersistentContext(userDataDir, {
+      executablePath,
+      headless: true,
+      args: [
+        '--headless',
+        '--no-sandbox',
+        '--disable-gpu',
+        '--disable-quic',
+        '--no-first-run',
+        '--disable-background-networking',
+        '--disable-component-update',
+        '--disable-sync',
+      ],
+      viewport: { width: 1280, height: 900 },
+    });
+  }
+  return context;
+}
 
 afterAll(async () => {
-  await context?.close();
+  if (context) await (await context.catch(() => undefined))?.close();
   if (userDataDir) rmSync(userDataDir, { recursive: true, force: true });
 });
 
 async function checkInBrowser(html: string, file: string, screenshot: string, expectedCharts: number): Promise<void> {
-  if (!context) throw new Error('browser did not start');
+  const ctx = await browser();
   mkdirSync(REPORTS, { recursive: true });
   const path = join(REPORTS, file);
   writeFileSync(path, html);
   const url = pathToFileURL(path).href;
-  const page = await context.newPage();
+  const page = await ctx.newPage();
   const errors: string[] = [];
   const requests: string[] = [];
   page.on('console', (m) => {

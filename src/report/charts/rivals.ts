@@ -35,7 +35,7 @@ export function rivalCharts(models: RivalModelData[] | undefined, size: ChartSiz
           height,
           data: { values: rows },
           encoding: {
-            y: { field: 'name', type: 'nominal', sort: rows.map((r) => r.name), axis: { title: null, labelLimit: 240 } },
+            y: { field: 'name', type: 'nominal', sort: rows.map((r) => r.name), axis: { title: null, labelLimit: 200 } },
           },
           layer: [
             {
@@ -57,7 +57,7 @@ export function rivalCharts(models: RivalModelData[] | undefined, size: ChartSiz
             },
           ],
         },
-        { ...size, height },
+        { width: size.width ?? 300, height },
       ),
     },
   ];
