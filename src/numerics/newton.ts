@@ -100,7 +100,8 @@ export function newton(F: NewtonResidual, x0: ArrayLike<number>, options: Newton
   let evaluations = 0;
   let jacEvals = 0;
   let iterations = 0;
-  const result = (status: NewtonStatus, detail?: string, warnings: { code: string; message: string }[] = []): NewtonResult => {
+  const warnings: { code: string; message: string }[] = [];
+  const result = (status: NewtonStatus, detail?: string): NewtonResult => {
     let nrm = 0;
     for (let i = 0; i < n; i++) nrm = Math.max(nrm, Math.abs(Fx[i]));
     return {
@@ -125,7 +126,10 @@ export function newton(F: NewtonResidual, x0: ArrayLike<number>, options: Newton
   const lower = lowerE;
   for (let i = 0; i < n; i++) {
     if (Number.isNaN(lower[i])) return bad(`lower[${i}] is NaN`);
-    if (x[i] < lower[i]) x[i] = lower[i]; // start inside the feasible set
+    if (x[i] < lower[i]) {
+      warnings.push({ code: 'x0-clamped', message: `x0[${i}] = ${x[i]} was below its lower bound and was raised to ${lower[i]}` });
+      x[i] = lower[i]; // start inside the feasible set
+    }
   }
 
   const J = new Float64Array(n * n);

@@ -76,6 +76,14 @@ describe('damped Newton', () => {
     expect(Math.min(...seen)).toBeGreaterThanOrEqual(0);
   });
 
+  it('raises a start point below its bound, with a warning', () => {
+    const r = newton((x, out) => {
+      out[0] = x[0] - 2;
+    }, [-1], { lower: 0 });
+    expect(r.status).toBe('converged');
+    expect(r.warnings.map((w) => w.code)).toEqual(['x0-clamped']);
+  });
+
   it('fails honestly without a root', () => {
     const r = newton((x, out) => {
       out[0] = x[0] * x[0] + 1;
