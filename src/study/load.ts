@@ -135,16 +135,18 @@ function errorModels(raw: RawStudy['errorModels']): Record<string, ErrorModel> {
     }
     if (!m.absolute && m.relative === undefined) throw new RateloomError('E_MISSING_FIELD', "an error model needs 'absolute', 'relative' (or both) or 'replicates': true", { path });
     let absolute = 0;
+    let unit: string | undefined;
     if (m.absolute) {
       // The unit fixes the response dimension: try every response quantity.
       const qs = ['molar-flow', 'concentration', 'dimensionless', 'rate', 'pressure'] as const;
       const found = qs.map((q) => { try { return unitFor(q, m.absolute!.unit); } catch { return undefined; } }).find(Boolean);
       if (!found) throw new RateloomError('E_UNIT', `unit '${m.absolute.unit}' is not a unit of any response (flow, concentration, fraction, rate, pressure)`, { path: [...path, 'absolute', 'unit'] });
       absolute = m.absolute.value * found.factor;
+      unit = found.si;
       if (!(absolute > 0)) throw new RateloomError('E_VALUE', 'absolute sigma must be above zero', { path: [...path, 'absolute', 'value'] });
     }
     const relative = m.relative ?? 0;
-    out[name] = { name, kind: m.absolute && m.relative !== undefined ? 'combined' : m.absolute ? 'absolute' : 'relative', absolute, relative };
+    out[name] = { name, kind: m.absolute && m.relative !== undefined ? 'combined' : m.absolute ? 'absolute' : 'relative', absolute, relative, ...(unit ? { unit } : {}) };
   }
   return out;
 }
@@ -220,6 +222,19 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   if (!perRun.length) throw new RateloomError('E_MISSING_FIELD', 'the data need at least one per-run source (run conditions)', { path: ['data'] });
 
   let runs = mergeDuplicateRuns(perRun.flatMap((m) => m.runs), ledger, settings.replicateTolerance);
+  // An absolute sigma must be in a unit of the responses that use it.
+  const checkModelUnits = (list: readonly MappedObservation[]) => {
+    for (const o of list) {
+      const em = models[o.errorModel ?? DEFAULT_ERROR_MODEL];
+      if (em.unit !== undefined && em.unit !== o.unit) {
+        throw new RateloomError('E_UNIT', `error model '${em.name}' has an absolute sigma in ${em.unit}, but it is used for ${o.response} values in ${o.unit}`, {
+          path: ['errorModels', em.name, 'absolute', 'unit'],
+          fix: `Give the absolute sigma in a ${o.response} unit, or use a separate error model for each response.`,
+        });
+      }
+    }
+  };
+  for (const m of perRun) checkModelUnits(m.observations);
   const sigmaOf = (o: MappedObservation): number | undefined => {
     if (o.sigma !== undefined) return o.sigma;
     const m = models[o.errorModel ?? DEFAULT_ERROR_MODEL];
@@ -286,6 +301,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   const runIndex = new Map(runs.map((r, i) => [r.id, i]));
   observations = observations.filter((o) => runIndex.has(o.runId) && !ledger.isRejected(o.location));
 
+  checkModelUnits(observations);
   const replicateGroups = findReplicates(runs, settings.replicateTolerance);
   const pure = pureErrors(observations, replicateGroups);
   const report = buildReport(ledger, replicateGroups, pure, settings);

@@ -60,6 +60,8 @@ export interface ErrorModel {
   absolute: number;
   /** Fraction; 0 when not used. */
   relative: number;
+  /** SI unit of `absolute` (that of the responses using the model); undefined when not used. */
+  unit?: string;
   /** Degrees of freedom behind a replicates sigma. */
   dof?: number;
 }

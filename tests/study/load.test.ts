@@ -149,3 +149,11 @@ describe('the shipped schema file', () => {
     expect(baseStudy().$schema).toBe('../../../schema/study.schema.json');
   });
 });
+
+describe('error model units', () => {
+  it('an absolute sigma in another dimension than its responses is refused', () => {
+    const s = baseStudy();
+    s.errorModels.flows.absolute.unit = 'mol/L';
+    expect(() => load(s)).toThrow(/absolute sigma in mol\/m3, but it is used for outlet-flow values in mol\/s/);
+  });
+});
