@@ -158,10 +158,12 @@ export interface ParameterProfile {
 }
 
 export interface FitResult extends Outcome<FitStatus> {
+  /** Every parameter the model uses, in the model's theta order (fixed ones included). */
   parameters: FittedParameter[];
   correlation: { names: string[]; matrix: number[][] | null };
   covariance: { names: string[]; internal: number[][] | null; external: number[][] | null };
   statistics: FitStatistics;
+  /** Per-observation diagnostics; empty when the model could not be evaluated at the estimate. */
   observations: ObservationDiagnostics[];
   influential: InfluentialObservation[];
   profiles: ParameterProfile[];

@@ -181,7 +181,7 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
   const obsStats = observationStats(r, analysis.leverage, s, p);
   const observations: ObservationDiagnostics[] = [];
   const influential: InfluentialObservation[] = [];
-  for (let i = 0; i < m; i++) {
+  for (let i = 0; i < (evaluated ? m : 0); i++) {
     const stud = obsStats.studentized[i];
     const cook = obsStats.cooks[i];
     observations.push({
@@ -197,7 +197,7 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
     const reasons: string[] = [];
     if (cook !== null && cook > 4 / m) reasons.push(`Cook's distance ${cook.toFixed(3)} > 4/n = ${(4 / m).toFixed(3)}`);
     if (stud !== null && Math.abs(stud) > 3) reasons.push(`|studentized residual| ${Math.abs(stud).toFixed(2)} > 3`);
-    if (reasons.length && evaluated) influential.push({ index: i, cooksDistance: cook, studentizedResidual: stud, reason: reasons.join('; ') });
+    if (reasons.length) influential.push({ index: i, cooksDistance: cook, studentizedResidual: stud, reason: reasons.join('; ') });
   }
   if (influential.length) {
     warnings.push({

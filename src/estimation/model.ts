@@ -5,7 +5,11 @@
 export interface RegressionModel {
   /** Number of observations (residuals). */
   readonly nObservations: number;
-  /** Names of the free parameters, in the order of theta. */
+  /**
+   * Names of the parameters in theta, in order (theta is in the estimation space: ln value for
+   * log-transformed parameters). fitModel matches them by name to its Parameter list and holds the
+   * ones marked fixed at their values, so theta may also carry fixed parameters.
+   */
   readonly parameterNames: readonly string[];
   /**
    * Predictions for all observations into `out` (length nObservations). Returns false when the

@@ -88,6 +88,15 @@ export function prepareFit(
     }
     return p;
   });
+  const used = new Set(model.parameterNames);
+  for (const p of parameters) {
+    if (!p.fixed && !used.has(p.name)) {
+      throw new RateloomError('E_UNKNOWN_PARAMETER', `parameter '${p.name}' is free but the model does not use it`, {
+        path: ['parameters', p.name],
+        fix: 'Remove the parameter, mark it fixed, or correct its name.',
+      });
+    }
+  }
   const nt = ordered.length;
   const thetaFull = new Float64Array(nt);
   const lowerFull = new Float64Array(nt);

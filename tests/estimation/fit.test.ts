@@ -249,5 +249,10 @@ describe('fitModel', () => {
     expect(() => fitModel(model, params, { measured: ones(2), sigma: ones(3), sigmaKnown: false })).toThrow(/measured/);
     expect(() => fitModel(model, params, { measured: ones(3), sigma: Float64Array.from([1, 0, 1]), sigmaKnown: false })).toThrow(/sigma 1/);
     expect(() => fitModel(model, [params[0]], { measured: ones(3), sigma: ones(3), sigmaKnown: false })).toThrow(/'b'/);
+    const extra = [...params, makeParameter({ name: 'c', value: 1 })];
+    expect(() => fitModel(model, extra, { measured: ones(3), sigma: ones(3), sigmaKnown: false })).toThrow(/'c' is free but the model does not use it/);
+    // A fixed parameter the model does not use is allowed (the model may hold it itself).
+    const fixedExtra = [...params, makeParameter({ name: 'c', value: 1, fixed: true })];
+    expect(fitModel(model, fixedExtra, { measured: ones(3), sigma: ones(3), sigmaKnown: false }, { profile: false }).parameters).toHaveLength(2);
   });
 });
