@@ -4,7 +4,8 @@
  * sign changes inside one step are not seen; limit maxStep if that matters). The crossing is
  * located by the Illinois variant of regula falsi (Dowell & Jarratt 1971, BIT 11) on the dense
  * output, to about 1e-12 relative in t; the reported time is the end of the final bracket on the
- * far side of the crossing, so g has changed sign at the reported state.
+ * far side of the crossing, so g has changed sign at the reported state. A non-finite g value
+ * never fires an event.
  *
  * Per step this allocates nothing unless a tEval row or an event is recorded.
  */
@@ -65,9 +66,10 @@ export class OdeRecorder {
     for (let k = 0; k < this.defs.length; k++) this.gPrev[k] = this.evalG(k, t0, y0);
   }
 
+  /** g_k(t, y), or NaN when g is not finite there (NaN never signals a crossing). */
   private evalG(k: number, t: number, y: Float64Array): number {
     const v = this.defs[k].g(t, y);
-    return Number.isFinite(v) ? v : 0;
+    return Number.isFinite(v) ? v : NaN;
   }
 
   /** True when g went from gp to gn across zero in the event's allowed direction. */
@@ -96,6 +98,11 @@ export class OdeRecorder {
       src.dense(c, work);
       const fc = this.evalG(k, c, work);
       if (fc === 0) return c;
+      if (Number.isNaN(fc)) {
+        // no information at c: keep the far side of the bracket and move it closer
+        b = c;
+        continue;
+      }
       if (fc * fb > 0) {
         b = c;
         fb = fc;
@@ -169,7 +176,8 @@ export class OdeRecorder {
       else src.dense(tStop, this.stopY);
       return true;
     }
-    this.gPrev.set(this.gNew);
+    // keep the last finite value of g so that a crossing behind a non-finite stretch is still seen
+    for (let k = 0; k < m; k++) if (!Number.isNaN(this.gNew[k])) this.gPrev[k] = this.gNew[k];
     return false;
   }
 }

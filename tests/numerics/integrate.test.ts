@@ -155,6 +155,21 @@ describe('integrate: method details', () => {
     expect(r.stats.method).toBe('nonstiff');
   });
 
+  it('a non-finite event function never fires, and a later crossing is still found', () => {
+    const r = integrate(decay, 0, [1], 5, {
+      rtol: 1e-10,
+      atol: 1e-12,
+      events: [
+        { name: 'nan', g: () => NaN },
+        { name: 'half', g: (_t, y) => (y[0] > 0.8 ? Math.log(-1) : y[0] - 0.5) },
+      ],
+    });
+    expect(r.status).toBe('event');
+    expect(r.events.map((e) => e.name)).toEqual(['half']);
+    // Source: analytic solution exp(-t) = 0.5 at t = ln 2
+    expect(Math.abs(r.t - Math.LN2)).toBeLessThan(1e-10);
+  });
+
   it("'auto' stays non-stiff on a non-stiff problem", () => {
     const r = integrate(oscillator, 0, [0, 1], 50, { rtol: 1e-6 });
     expect(r.stats.method).toBe('nonstiff');
