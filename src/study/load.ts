@@ -17,6 +17,7 @@ import type { LongSourceSpec, MeasureSpec, PerRunSourceSpec, SourceSpec } from '
 import { Ledger, assertNoRejections, buildReport, checkAboveInlet, checkElementBalance, findReplicates, mergeDuplicateRuns, pureErrors } from '../data/validation';
 import schemaJson from '../../schema/study.schema.json';
 import { checkSchema, type JsonSchema } from './schema-check';
+import { locatePath } from './locate';
 import { buildParameters, type ParameterSpec } from './parameters';
 import { DEFAULT_ERROR_MODEL, sigmaFromModel, type CandidateSet, type ErrorModel, type LoadedStudy, type Observation, type Study, type StudyRun } from './types';
 
@@ -64,13 +65,14 @@ function parseJson(text: string, file: string): unknown {
   }
 }
 
-/** Rethrow a schema problem with the study file as its location. */
-function withFile<T>(file: string, f: () => T): T {
+/** Rethrow a problem in the study file with the file, line and column of its field path. */
+function withFile<T>(file: string, text: string, f: () => T): T {
   try {
     return f();
   } catch (e) {
     if (isRateloomError(e) && !e.location) {
-      throw new RateloomError(e.code, e.problem, { path: e.path, fix: e.fix, location: { file }, ...(e.details ? { details: e.details } : {}) });
+      const at = locatePath(text.replace(/^\uFEFF/, ''), e.path);
+      throw new RateloomError(e.code, e.problem, { path: e.path, fix: e.fix, location: { file, ...(at ? { line: at.line, column: at.column } : {}) }, ...(e.details ? { details: e.details } : {}) });
     }
     throw e;
   }
@@ -158,8 +160,8 @@ function errorModels(raw: RawStudy['errorModels']): Record<string, ErrorModel> {
  */
 export function loadStudy(text: string, studyPath: string, readFile: (absPath: string) => string, options: LoadOptions = {}): LoadedStudy {
   const raw = parseJson(text, studyPath);
-  withFile(studyPath, () => checkSchema(raw, STUDY_SCHEMA));
-  return withFile(studyPath, () => resolveStudy(raw as RawStudy, studyPath, readFile, options));
+  withFile(studyPath, text, () => checkSchema(raw, STUDY_SCHEMA));
+  return withFile(studyPath, text, () => resolveStudy(raw as RawStudy, studyPath, readFile, options));
 }
 
 function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: string) => string, options: LoadOptions): LoadedStudy {
