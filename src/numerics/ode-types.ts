@@ -50,6 +50,10 @@ export interface OdeOptions {
   autonomous?: boolean;
 }
 
+/**
+ * Outcome of integrate() (table ODE_STATUS in ode-common.ts; success = 'success' | 'event').
+ * 'bad-input' is returned, never thrown, for invalid arguments (see ode-input.ts).
+ */
 export type OdeStatus =
   | 'success'
   | 'event'
