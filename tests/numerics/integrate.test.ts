@@ -92,6 +92,21 @@ describe.each(methods)('integrate with method %s', (method) => {
     expect(Math.abs(r.events[1].t - (5 * Math.PI) / 6)).toBeLessThan(1e-8);
   });
 
+  it('locates an event when integrating backwards in time', () => {
+    const r = integrate(decay, 0, [1], -2, {
+      method,
+      rtol: 1e-10,
+      atol: 1e-12,
+      tEval: [0, -0.5, -1],
+      events: [{ name: 'double', g: (_t, y) => y[0] - 2, direction: 1 }],
+    });
+    expect(r.status).toBe('event');
+    // Source: analytic solution y = exp(-t) = 2 at t = -ln 2
+    expect(Math.abs(r.t + Math.LN2)).toBeLessThan(1e-9);
+    expect(r.tOut).toEqual([0, -0.5]);
+    expect(Math.abs(r.yOut[1][0] - Math.exp(0.5))).toBeLessThan(1e-8);
+  });
+
   it('respects maxEvaluations and reports where it stopped', () => {
     const r = integrate(oscillator, 0, [0, 1], 1000, { method, rtol: 1e-10, atol: 1e-12, maxEvaluations: 500 });
     expect(r.status).toBe('max-evaluations');
