@@ -4,6 +4,8 @@
  */
 import { Command } from 'commander';
 import { EXIT_BAD_INPUT } from './run';
+import { registerFit } from './fit';
+import { registerCompare } from './compare';
 import { registerSize } from './size';
 import { registerCheck } from './check';
 import { registerSimulate } from './simulate';
@@ -25,6 +27,8 @@ const registrations: Array<(p: Command) => void> = [];
 registrations.push(registerCheck);
 registrations.push(registerSimulate);
 registrations.push(registerSize);
+registrations.push(registerFit);
+registrations.push(registerCompare);
 
 for (const r of registrations) r(program);
 

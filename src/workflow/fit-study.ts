@@ -3,6 +3,7 @@
  * the estimator, and assemble the fitted-kinetics hand-off for design.
  */
 import { fitModel } from '../estimation/fit';
+import { multistartFit, type Minimum } from '../estimation/multistart';
 import type { FitOptions, FitResult } from '../estimation/fit-types';
 import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics } from '../design/handoff';
 import { RateloomError, closestName } from '../core/errors';
@@ -17,6 +18,12 @@ export interface StudyFitOptions extends FitOptions {
   variant?: string;
   /** Reactor solve tolerances and Jacobian choice. */
   model?: StudyModelOptions;
+  /** Latin-hypercube starts in addition to the given start (0 = a single fit); default 0. */
+  starts?: number;
+  /** Seed of the multistart design; default 1. */
+  seed?: number;
+  /** Progress of a multistart, (done, total). */
+  progress?: (done: number, total: number) => void;
 }
 
 export interface StudyFit {
@@ -24,6 +31,8 @@ export interface StudyFit {
   fit: FitResult;
   model: StudyModel;
   data: StudyFitData;
+  /** Distinct minima found by the multistart, lowest SSR first (absent for a single fit). */
+  minima?: Minimum[];
 }
 
 /** The rate-law sets of a study: 'base' first, then its candidates. */
@@ -49,6 +58,10 @@ export function fitStudy(study: Study, options: StudyFitOptions = {}): StudyFit 
   const variant = findVariant(study, options.variant ?? 'base');
   const model = new StudyModel(study, variant, options.model);
   const data = studyFitData(study);
+  if (options.starts && options.starts > 0) {
+    const ms = multistartFit(model, variant.parameters, data, { ...options, starts: options.starts, seed: options.seed ?? 1 });
+    return { variant: variant.name, fit: ms.best, model, data, minima: ms.minima };
+  }
   const fit = fitModel(model, variant.parameters, data, options);
   return { variant: variant.name, fit, model, data };
 }

@@ -1,0 +1,147 @@
+/**
+ * `rateloom fit STUDY`: fit the study's rate laws (or one candidate set) to its data; print the
+ * parameter table with both interval kinds and units, the statistics and the warnings; write the
+ * fitted-kinetics hand-off file and the HTML + Markdown report.
+ * Exit 0 converged, 1 not converged (or no covariance), 2 bad input.
+ */
+import type { Command } from 'commander';
+import { join } from 'node:path';
+import { RateloomError } from '../src/core/errors';
+import { buildHandoff, fitStudy, type StudyFit } from '../src/workflow/fit-study';
+import { fitReportData } from '../src/workflow/fit-report-data';
+import type { Study } from '../src/study/types';
+import { writeFitReport } from './report-render';
+import { writeAtomic } from './io';
+import { g, table, withUnit } from './format';
+import { progressReporter, runCommand, toJson } from './run';
+import { readStudy, studyStem } from './study-input';
+
+const EXAMPLE = `
+Example:
+  rateloom fit datasets-demo/pbr/pbr.study.json --out reports/pbr
+  rateloom fit lab/study.json --model adsorption --starts 20 --seed 3 --json > fit.json
+
+Writes <out>/<name>-kinetics.json (the hand-off file for 'rateloom size') and
+<out>/<name>-fit.html + .md (the report). Existing files are kept unless --force.
+Exit codes: 0 converged, 1 not converged or no usable covariance, 2 bad input.`;
+
+export interface FitFlags {
+  model?: string;
+  out?: string;
+  name?: string;
+  profile?: boolean;
+  report?: boolean;
+  starts?: string;
+  seed?: string;
+  level?: string;
+  strict?: boolean;
+  force?: boolean;
+  json?: boolean;
+}
+
+export function numberFlag(v: string | undefined, name: string, ok: (n: number) => boolean, hint: string): number | undefined {
+  if (v === undefined) return undefined;
+  const n = Number(v);
+  if (!Number.isFinite(n) || !ok(n)) throw new RateloomError('E_USAGE', `--${name} got '${v}'`, { fix: hint });
+  return n;
+}
+
+/** Human-readable fit summary. */
+export function formatFit(study: Study, sf: StudyFit): string {
+  const { fit } = sf;
+  const s = fit.statistics;
+  const L: string[] = [];
+  L.push(`Study: ${study.title ?? study.studyPath}`);
+  L.push(`Rate-law set: ${sf.variant}; reference temperature ${g(study.referenceTemperature, 5)} K (${study.referenceTemperatureSource === 'data' ? 'picked from the data' : 'from the study'})`);
+  L.push(`Status: ${fit.status} - ${fit.message}`);
+  L.push(`Observations ${s.n}, free parameters ${s.p}, degrees of freedom ${s.dof}; ${s.iterations} iterations, ${s.evaluations} evaluations`);
+  L.push(`Weighted SSR ${g(s.ssr)}; residual std dev ${g(s.residualStdDev)} (in units of sigma); AICc ${g(s.aicc, 6)}; BIC ${g(s.bic, 6)}`);
+  L.push(`Covariance: ${s.covarianceBasis === 'known-sigma' ? "(J'J)^-1, measurement sigma taken as known" : "s^2 (J'J)^-1, sigma scale estimated from the residuals"}`);
+  if (s.lackOfFit) {
+    const l = s.lackOfFit;
+    L.push(`Lack of fit: F = ${g(l.F)} on (${l.dofLack}, ${l.dofPure}) dof, p = ${g(l.pValue, 3)}${l.pValue < 0.05 ? ' - the rate law misses something the replicates can see' : ' - no evidence of lack of fit'}`);
+  }
+  const level = fit.parameters[0]?.ci.level ?? 0.95;
+  const pc = `${g(level * 100, 3)}%`;
+  const rows = [['parameter', 'value', 'std error', `${pc} linear interval`, `${pc} profile interval`, 'unit', 'note']];
+  for (const p of fit.parameters) {
+    const lin = p.ci.linear ? `[${g(p.ci.linear[0])}, ${g(p.ci.linear[1])}]` : 'n/a';
+    const pro = p.ci.profile ? `[${p.ci.profile[0] === null ? 'open' : g(p.ci.profile[0])}, ${p.ci.profile[1] === null ? 'open' : g(p.ci.profile[1])}]` : p.fixed ? '' : 'not computed';
+    rows.push([p.name, g(p.value, 5), p.fixed ? 'fixed' : g(p.stdError, 3), p.fixed ? '' : lin, pro, p.unit, p.atBound ? 'at a bound' : '']);
+  }
+  L.push('', table(rows));
+  const c = fit.correlation;
+  if (c.matrix && c.names.length > 1) {
+    L.push('', 'Correlation of the estimates:');
+    L.push(table([['', ...c.names], ...c.matrix.map((r, i) => [c.names[i], ...r.map((v) => v.toFixed(3))])]));
+  }
+  if (sf.minima && sf.minima.length > 1) {
+    L.push('', `Multistart found ${sf.minima.length} distinct minima (weighted SSR): ${sf.minima.map((m) => `${g(m.ssr, 6)} (${m.count} starts)`).join(', ')}`);
+  }
+  if (fit.influential.length) {
+    L.push('', 'Influential observations:');
+    for (const o of fit.influential) {
+      const ob = study.observations[o.index];
+      L.push(`  run ${ob.runId} ${ob.response}${ob.species ? ` ${ob.species}` : ''} (${ob.location.file}:${ob.location.line}): ${o.reason}`);
+    }
+  }
+  if (fit.warnings.length) {
+    L.push('', 'Warnings:');
+    for (const w of fit.warnings) L.push(`  [${w.code}] ${w.message}`);
+  }
+  return L.join('\n');
+}
+
+export function registerFit(program: Command): void {
+  program
+    .command('fit')
+    .description('fit the rate laws of a study to its data, with confidence intervals; write the hand-off file and the report')
+    .argument('<study>', 'study file (JSON)')
+    .option('--model <name>', "rate-law set to fit: 'base' or a candidate name", 'base')
+    .option('--out <dir>', 'folder for the hand-off file and the report', 'reports')
+    .option('--name <stem>', 'file-name stem of the outputs (default: from the study file name)')
+    .option('--no-profile', 'skip the profile-likelihood intervals')
+    .option('--no-report', 'skip the HTML and Markdown report')
+    .option('--starts <n>', 'multistart: Latin-hypercube starts in addition to the given start', '0')
+    .option('--seed <n>', 'seed of the multistart design', '1')
+    .option('--level <p>', 'confidence level of the intervals', '0.95')
+    .option('--strict', 'fail on any rejected data row')
+    .option('--force', 'overwrite existing output files')
+    .option('--json', 'print one JSON document (the fit result) on stdout')
+    .addHelpText('after', EXAMPLE)
+    .action(async (studyPath: string, flags: FitFlags) => {
+      await runCommand(!!flags.json, async () => {
+        const starts = numberFlag(flags.starts, 'starts', (n) => Number.isInteger(n) && n >= 0, 'Give a whole number of starts, e.g. --starts 20.') ?? 0;
+        const seed = numberFlag(flags.seed, 'seed', Number.isInteger, 'Give a whole-number seed, e.g. --seed 7.') ?? 1;
+        const level = numberFlag(flags.level, 'level', (n) => n > 0 && n < 1, 'Give a level between 0 and 1, e.g. --level 0.95.') ?? 0.95;
+        const { study, report } = readStudy(studyPath, !!flags.strict);
+        const progress = progressReporter(!!flags.json, 'multistart');
+        const sf = fitStudy(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, starts, seed, level, ...(progress ? { progress } : {}) });
+        const stem = flags.name ?? studyStem(studyPath);
+        const outDir = flags.out ?? 'reports';
+        const handoff = buildHandoff(study, sf);
+        const handoffPath = writeAtomic(join(outDir, `${stem}-kinetics.json`), toJson(handoff) + '\n', { force: !!flags.force });
+        let reportPaths: { html: string; markdown: string } | undefined;
+        if (flags.report !== false) {
+          const r = await writeFitReport(fitReportData(study, sf), { outDir, baseName: `${stem}-fit`, force: !!flags.force });
+          reportPaths = { html: r.html, markdown: r.markdown };
+        }
+        const trustworthy = sf.fit.success && sf.fit.covariance.internal !== null;
+        return {
+          trustworthy,
+          json: {
+            status: sf.fit.status,
+            success: sf.fit.success,
+            message: sf.fit.message,
+            model: sf.variant,
+            referenceTemperature: { value: study.referenceTemperature, unit: 'K' },
+            fit: sf.fit,
+            ...(sf.minima ? { minima: sf.minima } : {}),
+            data: { rowsIn: report.rowsIn, rowsUsed: report.rowsUsed, rowsRejected: report.rowsRejected },
+            outputs: { handoff: handoffPath, ...(reportPaths ?? {}) },
+          },
+          text: formatFit(study, sf),
+        };
+      });
+    });
+}
