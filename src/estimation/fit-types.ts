@@ -147,12 +147,17 @@ export interface ProfilePoint {
   tau: number;
 }
 
+/** How a profile interval end was found: the threshold was crossed, or why it stays open. */
+export type ProfileEnd = 'crossed' | 'bound' | 'search-range' | 'refit-failed';
+
 export interface ParameterProfile {
   name: string;
   /** SSR level that bounds the interval. */
   threshold: number;
   points: ProfilePoint[];
   interval: [number | null, number | null];
+  /** Lower and upper end: 'crossed', or why the end is open (null). */
+  ends: [ProfileEnd, ProfileEnd];
   /** The profile interval differs from the linear one by more than 10% of the linear width. */
   disagreesWithLinear: boolean;
 }

@@ -232,10 +232,16 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
       fitted[j] = { ...fp, ci: { ...fp.ci, profile: prof.interval } };
       if (prof.disagreesWithLinear) {
         const open = prof.interval[0] === null || prof.interval[1] === null;
+        const why = prof.ends.filter((e) => e !== 'crossed');
+        const reason = why.includes('refit-failed')
+          ? 'a refit with the parameter held failed'
+          : why.includes('bound')
+            ? 'the profile reaches a bound first'
+            : 'the search range (8 linear half-widths) ends first';
         warnings.push({
           code: open ? 'profile-open' : 'profile-disagrees',
           message: open
-            ? `the profile interval of ${fp.name} does not close within the search range: the ${Math.round(level * 100)}% interval is unbounded on one side`
+            ? `the profile interval of ${fp.name} is open on one side (${reason}): the linear interval understates the uncertainty or cannot be checked`
             : `the profile interval of ${fp.name} differs from the linear one by more than 10% of its width: the linear interval is unreliable`,
           path: [fp.name],
         });

@@ -14,6 +14,7 @@ export type {
   ObservationDiagnostics,
   ParameterInterval,
   ParameterProfile,
+  ProfileEnd,
   ProfilePoint,
   SolverName,
 } from './fit-types';

@@ -10,11 +10,12 @@
  * The crossing is refined by regula falsi (Illinois variant) on the signed root
  * tau = sign(theta - theta_hat) sqrt(SSR - SSR_min) / s, which is exactly linear in theta for a
  * linear model, so profile and linear intervals then coincide. An end that does not cross within the
- * search range or before a bound is reported as null (open), never as a number.
+ * search range, before a bound, or because a refit failed is reported as null (open), never as a
+ * number, and `ends` says which of these happened.
  */
 import { toExternal } from '../core/parameter';
 import { chiSquareQuantile, fQuantile } from './distributions';
-import type { ParameterProfile, ProfilePoint } from './fit-types';
+import type { ParameterProfile, ProfileEnd, ProfilePoint } from './fit-types';
 import { makeProblem, solveFree, type PreparedFit } from './solve';
 
 export interface ProfileRequest {
@@ -75,7 +76,7 @@ export function profileParameter(req: ProfileRequest): ParameterProfile {
   };
   const tauOf = (t: number, ssr: number): number => Math.sign(t - theta0) * Math.sqrt(Math.max(0, ssr - ssrMin) / s2);
 
-  const side = (dir: 1 | -1): number | null => {
+  const side = (dir: 1 | -1): [number | null, ProfileEnd] => {
     warm = Float64Array.from(thetaHat);
     let prevT = theta0;
     let prevTau = 0;
@@ -91,15 +92,18 @@ export function profileParameter(req: ProfileRequest): ParameterProfile {
         clamped = true;
       }
       const ssr = profileSsr(t);
-      if (ssr === null) return null;
+      if (ssr === null) return [null, 'refit-failed'];
       const tau = tauOf(t, ssr);
       points.push({ value: toExternal(param, t), ssr, tau });
-      if (ssr >= threshold) return refine(prevT, prevTau, t, tau, dir);
-      if (clamped) return null;
+      if (ssr >= threshold) {
+        const end = refine(prevT, prevTau, t, tau, dir);
+        return [end, end === null ? 'refit-failed' : 'crossed'];
+      }
+      if (clamped) return [null, 'bound'];
       prevT = t;
       prevTau = tau;
     }
-    return null;
+    return [null, 'search-range'];
   };
 
   /** Illinois regula falsi for |tau(t)| = tauThreshold between a (inside) and b (outside). */
@@ -136,8 +140,8 @@ export function profileParameter(req: ProfileRequest): ParameterProfile {
     return t;
   };
 
-  const down = halfWidth > 0 ? side(-1) : null;
-  const up = halfWidth > 0 ? side(1) : null;
+  const [down, downEnd] = halfWidth > 0 ? side(-1) : [null, 'refit-failed' as const];
+  const [up, upEnd] = halfWidth > 0 ? side(1) : [null, 'refit-failed' as const];
   points.sort((x, y) => x.value - y.value);
   const ext = (t: number | null): number | null => (t === null ? null : toExternal(param, t));
   const interval: [number | null, number | null] = [ext(down), ext(up)];
@@ -146,5 +150,5 @@ export function profileParameter(req: ProfileRequest): ParameterProfile {
     const width = req.linear[1] - req.linear[0];
     disagrees = Math.abs(interval[0] - req.linear[0]) > 0.1 * width || Math.abs(interval[1] - req.linear[1]) > 0.1 * width;
   }
-  return { name: param.name, threshold, points, interval, disagreesWithLinear: disagrees };
+  return { name: param.name, threshold, points, interval, ends: [downEnd, upEnd], disagreesWithLinear: disagrees };
 }

@@ -136,6 +136,7 @@ describe('fitModel', () => {
     }
     expect(fit.profiles).toHaveLength(2);
     expect(fit.profiles.every((pr) => !pr.disagreesWithLinear && pr.points.length > 5)).toBe(true);
+    expect(fit.profiles.every((pr) => pr.ends[0] === 'crossed' && pr.ends[1] === 'crossed')).toBe(true);
     expect(fit.warnings.map((w) => w.code)).not.toContain('profile-disagrees');
   });
 

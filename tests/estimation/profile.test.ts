@@ -70,3 +70,20 @@ describe('profile-likelihood intervals', () => {
     if (pr.interval[0] !== null) expect(ssrWithFixed('a', pr.interval[0], est, true, sigma) / threshold).toBeCloseTo(1, 6);
   });
 });
+
+describe('open profile ends', () => {
+  it('an end blocked by a bound is null with the reason, and the fit warns', () => {
+    // Few, flat data: the lower profile end of b runs into its bound 0.9 (the unbounded profile end is about 0.84).
+    const fit = fitModel(
+      model,
+      [makeParameter({ name: 'a', value: 180 }), makeParameter({ name: 'b', value: 1, lower: 0.9 })],
+      { measured: Float64Array.from([120, 160, 178, 172, 190, 181]), sigma: new Float64Array(6).fill(1), sigmaKnown: false },
+    );
+    const pb = fit.profiles.find((p) => p.name === 'b')!;
+    expect(pb.interval[0]).toBeNull();
+    expect(pb.ends[0]).toBe('bound');
+    expect(pb.ends[1]).toBe('crossed');
+    expect(fit.warnings.find((w) => w.code === 'profile-open')?.message).toMatch(/bound/);
+    expect(JSON.stringify(fit)).not.toMatch(/NaN/);
+  });
+});
