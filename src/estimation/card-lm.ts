@@ -72,6 +72,7 @@ export function cardLevenbergMarquardt(problem: LeastSquaresProblem, x0: Float64
       iterations,
       evaluations: problem.evaluations - ev0,
       atBound,
+      failedTrials: failed ? 1 : 0,
     };
   };
 

@@ -76,6 +76,12 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
     pred.fill(0);
     r.fill(0);
   }
+  if (lm.failedTrials > 0) {
+    warnings.push({
+      code: 'model-failed-at-trial-points',
+      message: `the model could not be evaluated at ${lm.failedTrials} trial point(s) during the fit; those steps were rejected`,
+    });
+  }
   let ssr = 0;
   for (let i = 0; i < m; i++) ssr += r[i] * r[i];
   const analysis = analyseJacobian(J, m, p);

@@ -55,6 +55,8 @@ export interface LmResult extends Outcome<FitStatus> {
   evaluations: number;
   /** Indices of parameters that ended on a bound. */
   atBound: number[];
+  /** Trial points at which the model could not be evaluated (each counted as a rejected step). */
+  failedTrials: number;
 }
 
 const EPS = 2.220446049250313e-16;
@@ -106,8 +108,10 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, x0: Float64Arra
       iterations,
       evaluations: problem.evaluations - ev0,
       atBound,
+      failedTrials,
     };
   };
+  let failedTrials = 0;
 
   if (!problem.residuals(x, r)) {
     r.fill(0);
@@ -196,6 +200,7 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, x0: Float64Arra
       let prered = 0;
       let fnorm1 = Infinity;
       if (!ok) {
+        failedTrials++;
         lastWasFailure = true;
         ratio = -1;
         actred = -1;

@@ -227,6 +227,7 @@ describe('fitModel', () => {
     expect(fit.success, fit.message).toBe(true);
     expect(fit.parameters[1].value).toBeCloseTo(0.6, 8);
     expect(failures).toBeGreaterThan(0);
+    expect(fit.warnings.map((w) => w.code)).toContain('model-failed-at-trial-points');
   });
 
   it('a model that fails at the start gives model-failure with the run named', () => {
