@@ -5,6 +5,7 @@
 import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync, unlinkSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { RateloomError } from '../src/core/errors';
+import { parseJsonText } from '../src/core/json-text';
 
 /** Read a text file, turning a missing or unreadable file into a typed error. */
 export function readText(path: string, what = 'file'): string {
@@ -21,23 +22,7 @@ export function readText(path: string, what = 'file'): string {
 
 /** Read and parse a JSON file, naming line and column of a syntax error. */
 export function readJson(path: string, what = 'JSON file'): unknown {
-  const text = readText(path, what);
-  try {
-    return JSON.parse(text.replace(/^\uFEFF/, ''));
-  } catch (e) {
-    const m = /position (\d+)/.exec((e as Error).message);
-    let line: number | undefined;
-    let column: number | undefined;
-    if (m) {
-      const pos = Number(m[1]);
-      const before = text.slice(0, pos);
-      line = before.split('\n').length;
-      column = pos - before.lastIndexOf('\n');
-    }
-    throw new RateloomError('E_JSON', `${what} is not valid JSON (${(e as Error).message})`, {
-      location: { file: path, ...(line !== undefined ? { line, column } : {}) },
-    });
-  }
+  return parseJsonText(readText(path, what), path, what);
 }
 
 export interface WriteOptions {

@@ -7,6 +7,7 @@ import { dirname, isAbsolute, resolve } from 'node:path';
 import { buildChemistry } from '../chemistry/mechanism';
 import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec';
 import { RateloomError, isRateloomError } from '../core/errors';
+import { parseJsonText } from '../core/json-text';
 import type { RateLawSpec } from '../kinetics/spec';
 import type { ReactorSpec } from '../reactors/types';
 import { unitFor } from '../units';
@@ -50,19 +51,7 @@ export interface LoadOptions {
 }
 
 function parseJson(text: string, file: string): unknown {
-  const clean = text.replace(/^\uFEFF/, '');
-  try {
-    return JSON.parse(clean);
-  } catch (e) {
-    const msg = (e as Error).message;
-    const m = /position (\d+)/.exec(msg);
-    let where = {};
-    if (m) {
-      const before = clean.slice(0, Number(m[1]));
-      where = { line: before.split('\n').length, column: Number(m[1]) - before.lastIndexOf('\n') };
-    }
-    throw new RateloomError('E_JSON', `study file is not valid JSON (${msg})`, { location: { file, ...where } });
-  }
+  return parseJsonText(text, file, 'study file');
 }
 
 /** Rethrow a problem in the study file with the file, line and column of its field path. */
