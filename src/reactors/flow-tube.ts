@@ -9,7 +9,10 @@
  * Method: mole balances of an ideal plug-flow reactor with the Ergun pressure-drop relation in its
  * differential form (Ergun 1952, common design form); integrated by numerics/integrate with the
  * exact Jacobian by the chain rule df/dy = (dR/dC - diag(k)) dC/dy from CompiledKinetics.ratesJacC.
- * The right-hand side and Jacobian use buffers allocated once per solve and do not allocate.
+ * The right-hand side, the Jacobian and the sensitivity right-hand side use buffers allocated once
+ * per compiled kinetics (TubeWork, cached) and do not allocate. A run is checked and its constants
+ * (alpha, basis weights, permeation) resolved once by prepareFlowTube; solvePreparedTube then solves
+ * it for any theta without re-validating (the study model prepares its runs at construction).
  */
 import type { CompiledKinetics } from '../kinetics/compiled';
 import {
@@ -26,6 +29,24 @@ import { RateloomError } from '../core/errors';
 
 export type TubeKind = 'packed-bed' | 'plug-flow' | 'membrane';
 
+/** A checked run with its constants resolved; solve it with solvePreparedTube. */
+export interface PreparedTube {
+  readonly kind: TubeKind;
+  readonly run: RunConditions;
+  readonly kinetics: CompiledKinetics;
+  readonly gas: boolean;
+  readonly size: number;
+  readonly T: number;
+  readonly cT0: number;
+  readonly FT0: number;
+  readonly invV0: number;
+  readonly alpha: number;
+  readonly weights: Float64Array;
+  readonly perm: Float64Array;
+  readonly sweep: Float64Array;
+  readonly F0: Float64Array;
+}
+
 /** Solve one tubular reactor (see the file header). Throws RateloomError only for bad input. */
 export function solveFlowTube(
   kind: TubeKind,
@@ -37,17 +58,22 @@ export function solveFlowTube(
 ): ReactorSolution {
   checkKinetics(kinetics);
   checkTheta(kinetics, theta);
+  const prep = prepareFlowTube(kind, spec, run, kinetics);
+  checkOptions(options, prep.size);
+  return solvePreparedTube(prep, theta, options);
+}
+
+/** Check a run and resolve its constants (throws RateloomError for bad input). */
+export function prepareFlowTube(kind: TubeKind, spec: ReactorSpec, run: RunConditions, kinetics: CompiledKinetics): PreparedTube {
+  checkKinetics(kinetics);
   checkTemperature(run);
   const gas = spec.phase === 'gas';
   const P0 = checkPressure(run, gas);
   const F0 = checkSpeciesVector(run, 'feed', kinetics, true);
   const size = checkPositive(run, 'size', kind === 'packed-bed' ? 'kg' : 'm3', true);
   const v0 = gas ? 0 : checkPositive(run, 'volumetricFlow', 'm3/s');
-  checkOptions(options, size);
   const nS = kinetics.speciesNames.length;
-  const nP = kinetics.parameterNames.length;
   const T = run.temperature;
-
   let alpha = 0;
   if (spec.pressureDrop) {
     if (!gas) {
@@ -101,71 +127,161 @@ export function solveFlowTube(
     }
   }
 
-  const cT0 = gas ? totalConcentration(P0 as number, T) : 0;
-  const FT0 = sumFirst(F0, nS);
-  const n = gas ? nS + 1 : nS;
-  const rt = new RateTerms(kinetics);
-  const C = new Float64Array(nS);
-  const R = new Float64Array(nS);
-  const dCdF = new Float64Array(nS * nS);
-  const dCdp = new Float64Array(nS);
-  const dRdC = new Float64Array(nS * nS);
-  const dRdP = new Float64Array(nS * nP);
-  const invV0 = gas ? 0 : 1 / v0;
-
-  const conc = (y: Float64Array, out: Float64Array): void => {
-    if (gas) gasConcentrations(y, nS, y[nS], cT0, out);
-    else for (let j = 0; j < nS; j++) out[j] = y[j] * invV0;
+  return {
+    kind, run, kinetics, gas, size, T, alpha, weights, perm, sweep,
+    F0: Float64Array.from(F0),
+    cT0: gas ? totalConcentration(P0 as number, T) : 0,
+    FT0: sumFirst(F0, nS),
+    invV0: gas ? 0 : 1 / v0,
   };
+}
 
-  const core: OdeCore = {
-    n,
-    nP,
-    atol: new Float64Array(n),
-    rhs: (_x, y, out) => {
-      conc(y, C);
-      rt.net(C, T, theta, weights, R);
-      for (let j = 0; j < nS; j++) out[j] = R[j] - perm[j] * (C[j] - sweep[j]);
-      if (gas) {
-        const p = y[nS] > 1e-12 ? y[nS] : 1e-12;
-        out[nS] = alpha === 0 ? 0 : (-alpha / (2 * p)) * (sumFirst(y, nS) / FT0);
+/**
+ * Buffers and closures of the tube balances for one compiled kinetics: allocated once and reused
+ * by every solve (solves are synchronous, so one workspace per kinetics suffices). The closures
+ * read the current run from `p` and the parameters from `theta`.
+ */
+class TubeWork {
+  p!: PreparedTube;
+  theta!: Float64Array;
+  readonly core: OdeCore;
+  constructor(kinetics: CompiledKinetics, gas: boolean) {
+    const nS = kinetics.speciesNames.length;
+    const nP = kinetics.parameterNames.length;
+    const n = gas ? nS + 1 : nS;
+    const rt = new RateTerms(kinetics);
+    const C = new Float64Array(nS);
+    const R = new Float64Array(nS);
+    const dCdF = new Float64Array(nS * nS);
+    const dCdp = new Float64Array(nS);
+    const dRdC = new Float64Array(nS * nS);
+    const dRdP = new Float64Array(nS * nP);
+    const dC = new Float64Array(nS * nP);
+    const gasConc = gasConcentrations;
+    const gasJac = gasConcentrationJacobian;
+    const sum = sumFirst;
+    const conc = (y: Float64Array, out: Float64Array): void => {
+      if (gas) gasConc(y, nS, y[nS], this.p.cT0, out);
+      else {
+        const invV0 = this.p.invV0;
+        for (let j = 0; j < nS; j++) out[j] = y[j] * invV0;
       }
-    },
-    jac: (_x, y, out) => {
-      conc(y, C);
-      rt.jacC(C, T, theta, weights, dRdC);
-      for (let j = 0; j < nS; j++) dRdC[j * nS + j] -= perm[j];
-      out.fill(0, 0, n * n);
-      if (gas) {
-        const p = y[nS];
-        gasConcentrationJacobian(y, nS, p, cT0, dCdF, dCdp);
-        for (let j = 0; j < nS; j++) {
-          let sp = 0;
-          for (let m = 0; m < nS; m++) {
-            const a = dRdC[j * nS + m];
-            if (a === 0) continue;
-            sp += a * dCdp[m];
-            for (let k = 0; k < nS; k++) out[j * n + k] += a * dCdF[m * nS + k];
+    };
+    this.core = {
+      n,
+      nP,
+      atol: new Float64Array(n),
+      rhs: (_x, y, out) => {
+        const { T, weights, perm, sweep, alpha, FT0 } = this.p;
+        conc(y, C);
+        rt.net(C, T, this.theta, weights, R);
+        for (let j = 0; j < nS; j++) out[j] = R[j] - perm[j] * (C[j] - sweep[j]);
+        if (gas) {
+          const p = y[nS] > 1e-12 ? y[nS] : 1e-12;
+          out[nS] = alpha === 0 ? 0 : (-alpha / (2 * p)) * (sum(y, nS) / FT0);
+        }
+      },
+      jac: (_x, y, out) => {
+        const { T, weights, perm, alpha, FT0, cT0, invV0 } = this.p;
+        conc(y, C);
+        rt.jacC(C, T, this.theta, weights, dRdC);
+        for (let j = 0; j < nS; j++) dRdC[j * nS + j] -= perm[j];
+        out.fill(0, 0, n * n);
+        if (gas) {
+          const p = y[nS];
+          gasJac(y, nS, p, cT0, dCdF, dCdp);
+          for (let j = 0; j < nS; j++) {
+            let sp = 0;
+            for (let m = 0; m < nS; m++) {
+              const a = dRdC[j * nS + m];
+              if (a === 0) continue;
+              sp += a * dCdp[m];
+              for (let k = 0; k < nS; k++) out[j * n + k] += a * dCdF[m * nS + k];
+            }
+            out[j * n + nS] = sp;
           }
-          out[j * n + nS] = sp;
+          if (alpha !== 0) {
+            const pp = p > 1e-12 ? p : 1e-12;
+            const d = -alpha / (2 * pp * FT0);
+            for (let k = 0; k < nS; k++) out[nS * n + k] = d;
+            out[nS * n + nS] = (alpha / (2 * pp * pp)) * (sum(y, nS) / FT0);
+          }
+        } else {
+          for (let j = 0; j < nS; j++) for (let k = 0; k < nS; k++) out[j * n + k] = dRdC[j * nS + k] * invV0;
         }
-        if (alpha !== 0) {
-          const pp = p > 1e-12 ? p : 1e-12;
-          const d = -alpha / (2 * pp * FT0);
-          for (let k = 0; k < nS; k++) out[nS * n + k] = d;
-          out[nS * n + nS] = (alpha / (2 * pp * pp)) * (sumFirst(y, nS) / FT0);
+      },
+      dtheta: (_x, y, out) => {
+        conc(y, C);
+        rt.jacP(C, this.p.T, this.theta, this.p.weights, dRdP);
+        out.set(dRdP);
+        if (gas) out.fill(0, nS * nP, n * nP);
+      },
+      // dS/dx = (df/dy) S + df/dtheta without forming df/dy: dC/dtheta first, then dR/dC dC/dtheta.
+      sensRhs: (_x, y, out) => {
+        const { T, weights, perm, alpha, FT0, cT0, invV0 } = this.p;
+        const theta = this.theta;
+        conc(y, C);
+        rt.jacC(C, T, theta, weights, dRdC);
+        rt.jacP(C, T, theta, weights, dRdP);
+        const FT = gas ? sum(y, nS) : 0;
+        const p = gas ? y[nS] : 1;
+        for (let k = 0; k < nP; k++) {
+          if (gas) {
+            if (FT > 0) {
+              let dFT = 0;
+              for (let m = 0; m < nS; m++) dFT += y[n + m * nP + k];
+              const a = (cT0 * p) / FT;
+              const Sp = y[n + nS * nP + k];
+              for (let j = 0; j < nS; j++) {
+                dC[j * nP + k] = a * (y[n + j * nP + k] - (y[j] / FT) * dFT) + ((cT0 * y[j]) / FT) * Sp;
+              }
+              if (alpha !== 0) {
+                const pp = p > 1e-12 ? p : 1e-12;
+                out[n + nS * nP + k] = (-alpha / (2 * pp * FT0)) * dFT + (alpha / (2 * pp * pp)) * (FT / FT0) * Sp;
+              } else out[n + nS * nP + k] = 0;
+            } else {
+              for (let j = 0; j < nS; j++) dC[j * nP + k] = 0;
+              out[n + nS * nP + k] = 0;
+            }
+          } else {
+            for (let j = 0; j < nS; j++) dC[j * nP + k] = y[n + j * nP + k] * invV0;
+          }
         }
-      } else {
-        for (let j = 0; j < nS; j++) for (let k = 0; k < nS; k++) out[j * n + k] = dRdC[j * nS + k] * invV0;
-      }
-    },
-    dtheta: (_x, y, out) => {
-      conc(y, C);
-      rt.jacP(C, T, theta, weights, dRdP);
-      out.set(dRdP);
-      if (gas) out.fill(0, nS * nP, n * nP);
-    },
-  };
+        for (let j = 0; j < nS; j++) {
+          const pj = perm[j];
+          for (let k = 0; k < nP; k++) {
+            let v = dRdP[j * nP + k] - pj * dC[j * nP + k];
+            for (let m = 0; m < nS; m++) v += dRdC[j * nS + m] * dC[m * nP + k];
+            out[n + j * nP + k] = v;
+          }
+        }
+      },
+    };
+  }
+}
+
+const workspaces = new WeakMap<CompiledKinetics, { gas?: TubeWork; liquid?: TubeWork }>();
+
+function workspace(kinetics: CompiledKinetics, gas: boolean): TubeWork {
+  let w = workspaces.get(kinetics);
+  if (!w) workspaces.set(kinetics, (w = {}));
+  const key = gas ? 'gas' : 'liquid';
+  return (w[key] ??= new TubeWork(kinetics, gas));
+}
+
+/**
+ * Solve a prepared run at theta (physical values, kinetics.parameterNames order). The caller
+ * guarantees a finite theta of the right length and valid options (solveFlowTube checks them).
+ */
+export function solvePreparedTube(prep: PreparedTube, theta: Float64Array, options: ReactorOptions = {}): ReactorSolution {
+  const { kinetics, gas, size, alpha, FT0, cT0, invV0 } = prep;
+  const nS = kinetics.speciesNames.length;
+  const nP = kinetics.parameterNames.length;
+  const work = workspace(kinetics, gas);
+  work.p = prep;
+  work.theta = theta;
+  const core = work.core;
+  const n = core.n;
   const atol = options.atol ?? 1e-10;
   for (let j = 0; j < nS; j++) core.atol[j] = atol * FT0;
   if (gas) {
@@ -173,13 +289,13 @@ export function solveFlowTube(
     core.pressureIndex = nS;
   }
   const y0 = new Float64Array(n);
-  y0.set(F0);
+  y0.set(prep.F0);
   if (gas) y0[nS] = 1;
   const profileX = options.profile ? profilePositions(options, size) : undefined;
   const res = runOde(core, y0, size, theta, options, profileX, (y) => alpha * (sumFirst(y, nS) / FT0));
   const reader: StateReader = {
     nS,
-    coordinate: kind === 'packed-bed' ? 'W' : 'V',
+    coordinate: prep.kind === 'packed-bed' ? 'W' : 'V',
     concentrations: (y, out) => {
       if (gas) gasConcentrations(y, nS, Math.max(y[nS], 0), cT0, out);
       else for (let j = 0; j < nS; j++) out[j] = y[j] * invV0;
@@ -187,5 +303,5 @@ export function solveFlowTube(
     pressureRatio: (y) => (gas ? Math.max(y[nS], 0) : 1),
     ...(gas ? { pressureIndex: nS } : {}),
   };
-  return buildSolution(run, res, reader, nP);
+  return buildSolution(prep.run, res, reader, nP);
 }

@@ -30,6 +30,12 @@ export interface OdeCore {
   jac: OdeJac;
   /** df/dtheta, n x nP row-major. */
   dtheta: (x: number, y: Float64Array, out: Float64Array) => void;
+  /**
+   * Optional: the sensitivity part of the augmented right-hand side, out[n + i*nP + k] =
+   * ((df/dy) S + df/dtheta)_ik for the state y[0..n) and S = y[n..) (row-major n x nP), computed
+   * without forming df/dy; when absent it is formed from jac and dtheta.
+   */
+  sensRhs?: (x: number, y: Float64Array, out: Float64Array) => void;
   /** Absolute tolerance per state component (already scaled). */
   atol: Float64Array;
   /** Index of the pressure ratio p in the state, if it is a state. */
@@ -96,7 +102,7 @@ export function runOde(
     rtol *= c;
     for (let i = 0; i < n; i++) atol[i] = core.atol[i] * c;
     atol.fill(SENS_ATOL, n, N);
-    const aug = augmented(core);
+    const aug = augmentedFor(core);
     f = aug.rhs;
     jac = aug.jac;
   }
@@ -190,6 +196,18 @@ export function runOde(
   return out;
 }
 
+const augmentedCache = new WeakMap<OdeCore, { rhs: OdeRhs; jac: OdeJac; n: number; nP: number }>();
+
+/** The augmented system of a core, built once per core object (cores may be reused across solves). */
+function augmentedFor(core: OdeCore): { rhs: OdeRhs; jac: OdeJac } {
+  let a = augmentedCache.get(core);
+  if (!a || a.n !== core.n || a.nP !== core.nP) {
+    a = { ...augmented(core), n: core.n, nP: core.nP };
+    augmentedCache.set(core, a);
+  }
+  return a;
+}
+
 /** The state+sensitivity system and its Jacobian; buffers allocated once here. */
 function augmented(core: OdeCore): { rhs: OdeRhs; jac: OdeJac } {
   const { n, nP } = core;
@@ -213,12 +231,18 @@ function augmented(core: OdeCore): { rhs: OdeRhs; jac: OdeJac } {
     }
   };
 
-  const rhs: OdeRhs = (x, y, out) => {
-    core.rhs(x, y, out);
-    core.jac(x, y, J);
-    core.dtheta(x, y, Ft);
-    sensPart(y, J, Ft, out, n);
-  };
+  const sensRhs = core.sensRhs;
+  const rhs: OdeRhs = sensRhs
+    ? (x, y, out) => {
+        core.rhs(x, y, out);
+        sensRhs(x, y, out);
+      }
+    : (x, y, out) => {
+        core.rhs(x, y, out);
+        core.jac(x, y, J);
+        core.dtheta(x, y, Ft);
+        sensPart(y, J, Ft, out, n);
+      };
 
   const jac: OdeJac = (x, y, out) => {
     out.fill(0, 0, N * N);

@@ -12,6 +12,7 @@ import type { Parameter } from '../core/parameter';
 import { compileKinetics, type CompiledKineticsInfo } from '../kinetics/compile';
 import type { RateLawSpec } from '../kinetics/spec';
 import { solveReactor } from '../reactors';
+import { prepareFlowTube, solvePreparedTube, type PreparedTube } from '../reactors/flow-tube';
 import { R_GAS } from '../reactors/gas';
 import type { ReactorOptions, ReactorSolution, RunConditions } from '../reactors/types';
 import type { PredictionFailure, RegressionModel } from '../estimation/model';
@@ -33,6 +34,10 @@ interface SolveTask {
   /** Size of this solve (kg, m3 or s); the run's own size for outlet observations. */
   size: number;
   observations: Observation[];
+  /** The run as solved (the run itself, or a copy at the profile position), built once. */
+  run: RunConditions;
+  /** The run checked once with its constants resolved (tubular reactors), else undefined. */
+  prepared?: PreparedTube;
 }
 
 /** The rate-law set a model is built from: the study's own, or a candidate's. */
@@ -68,6 +73,9 @@ export class StudyModel implements RegressionModel {
   private readonly ext: Float64Array;
   private readonly dExt: Float64Array;
   private readonly reactorOptions: ReactorOptions;
+  /** The two option objects of every solve, built once: without and with sensitivities. */
+  private readonly plainOptions: ReactorOptions;
+  private readonly sensOptions: ReactorOptions;
   private readonly exact: boolean;
   private readonly scratchC: Float64Array;
   private readonly scratchR: Float64Array;
@@ -113,6 +121,21 @@ export class StudyModel implements RegressionModel {
     this.scratchR = new Float64Array(nR);
     this.scratchJP = new Float64Array(nR * kinNames.length);
     this.reactorOptions = { rtol: options.rtol ?? 1e-8, atol: options.atol ?? 1e-12 };
+    this.plainOptions = { ...this.reactorOptions };
+    this.sensOptions = { ...this.reactorOptions, sensitivities: true };
+    // Check each tubular run once here; its solves then skip the input checks. A run that fails the
+    // checks (or tolerances that do) keeps the checked path, whose error becomes a prediction failure.
+    const tolOk = [this.reactorOptions.rtol, this.reactorOptions.atol].every((v) => Number.isFinite(v) && (v as number) > 0);
+    const kind = study.reactor.kind;
+    if (tolOk && (kind === 'packed-bed' || kind === 'plug-flow' || kind === 'membrane') && (study.reactor.phase === 'gas' || study.reactor.phase === 'liquid')) {
+      for (const task of this.tasks) {
+        try {
+          task.prepared = prepareFlowTube(kind, study.reactor, task.run, this.kinetics);
+        } catch {
+          task.prepared = undefined;
+        }
+      }
+    }
     this.exact = options.exactJacobian ?? true;
     if (this.exact) this.jacobian = (theta, pred, J, failures) => this.evaluate(theta, pred, J, failures);
   }
@@ -153,10 +176,13 @@ export class StudyModel implements RegressionModel {
     for (const task of this.tasks) {
       const run = this.study.runs[task.runIndex];
       this.fillKinetics(task.runIndex, this.ext);
-      const runForSolve: RunConditions = task.size === run.size ? run : { ...run, size: task.size };
+      const opts = J ? this.sensOptions : this.plainOptions;
       let sol: ReactorSolution;
       try {
-        sol = solveReactor(this.study.reactor, runForSolve, this.kinetics, this.thetaK, { ...this.reactorOptions, sensitivities: !!J });
+        sol =
+          task.prepared && allFinite(this.thetaK)
+            ? solvePreparedTube(task.prepared, this.thetaK, opts)
+            : solveReactor(this.study.reactor, task.run, this.kinetics, this.thetaK, opts);
       } catch (e) {
         failures?.push({ run: run.id, message: (e as Error).message });
         ok = false;
@@ -241,6 +267,11 @@ export class StudyModel implements RegressionModel {
   }
 }
 
+function allFinite(v: Float64Array): boolean {
+  for (let i = 0; i < v.length; i++) if (!Number.isFinite(v[i])) return false;
+  return true;
+}
+
 /** Group observations into solves: one per run for outlet values, one per distinct profile position. */
 function buildTasks(study: Study): SolveTask[] {
   const tasks = new Map<string, SolveTask>();
@@ -251,7 +282,7 @@ function buildTasks(study: Study): SolveTask[] {
     const key = `${o.runIndex}|${size}`;
     let t = tasks.get(key);
     if (!t) {
-      t = { runIndex: o.runIndex, size, observations: [] };
+      t = { runIndex: o.runIndex, size, observations: [], run: size === run.size ? run : { ...run, size } };
       tasks.set(key, t);
     }
     t.observations.push(o);
