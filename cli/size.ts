@@ -10,6 +10,9 @@ import { kineticsFromHandoff } from '../src/design/kinetics';
 import { loadCase } from '../src/design/case';
 import { sizeReactor, type SizingResult } from '../src/design/size';
 import { readJson, writeAtomic } from './io';
+import { basename } from 'node:path';
+import { sizingReportData } from '../src/workflow/sizing-report-data';
+import { writeSizingReport } from './report-render';
 import { progressReporter, runCommand, toJson } from './run';
 
 const EXAMPLE = `
@@ -39,6 +42,7 @@ interface SizeFlags {
   seed?: string;
   json?: boolean;
   out?: string;
+  report?: string;
   force?: boolean;
 }
 
@@ -108,11 +112,12 @@ export function registerSize(program: Command): void {
     .option('--seed <s>', 'random seed (default: the case file, else 20261201)')
     .option('--json', 'print one JSON document')
     .option('--out <file>', 'also write the JSON result to this file')
-    .option('--force', 'overwrite --out if it exists')
+    .option('--report <dir>', 'also write the sizing report (HTML + Markdown) into this folder')
+    .option('--force', 'overwrite --out and report files if they exist')
     .addHelpText('after', EXAMPLE)
     .action(async (kineticsPath: string, casePath: string, flags: SizeFlags) => {
       const json = !!flags.json;
-      await runCommand(json, () => {
+      await runCommand(json, async () => {
         const draws = intFlag(flags.draws, 'draws', 0);
         const seed = intFlag(flags.seed, 'seed', 0);
         const h = parseHandoffAt(kineticsPath);
@@ -131,6 +136,10 @@ export function registerSize(program: Command): void {
           },
         });
         if (flags.out) writeAtomic(flags.out, toJson(result) + '\n', { force: !!flags.force });
+        if (flags.report) {
+          const stem = basename(casePath).replace(/\.json$/i, '').replace(/\.case$/i, '');
+          await writeSizingReport(sizingReportData(result), { outDir: flags.report, baseName: `${stem}-sizing`, force: !!flags.force });
+        }
         return { json: result, text: formatSizing(result), trustworthy: result.success };
       });
     });

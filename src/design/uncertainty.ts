@@ -58,7 +58,22 @@ export interface UncertaintyResult {
   sensitivities: Sensitivity[];
   /** Conversion of the key species along the normalised size: median and P5/P95 over draws. */
   band?: { x: number[]; median: number[]; p5: number[]; p95: number[]; draws: number; key: string };
+  /** Distribution of the successful draws: 40 equal bins from the smallest to the largest value. */
+  histogram: { start: number; end: number; count: number }[];
   seed: number;
+}
+
+/** Equal-width histogram of sorted values (empty for no values). */
+export function histogramSorted(sorted: ArrayLike<number>, bins = 40): { start: number; end: number; count: number }[] {
+  const n = sorted.length;
+  if (!n) return [];
+  const lo = sorted[0];
+  const hi = sorted[n - 1];
+  if (!(hi > lo)) return [{ start: lo, end: hi, count: n }];
+  const w = (hi - lo) / bins;
+  const out = Array.from({ length: bins }, (_, i) => ({ start: lo + i * w, end: lo + (i + 1) * w, count: 0 }));
+  for (let i = 0; i < n; i++) out[Math.min(bins - 1, Math.floor((sorted[i] - lo) / w))].count++;
+  return out;
 }
 
 /** Linear-interpolation percentile of sorted data (type 7). */
@@ -183,6 +198,7 @@ export function propagate(
     deltaMethod: { sd: sdQ, percentiles: levels.map((level) => ({ level, value: nominal + normalQuantile(level) * sdQ })) },
     sensitivities: map.free.map((name, k) => ({ name, transform: map.transform[k], dLnQuantity: g[k] / nominal })),
     ...(band ? { band } : {}),
+    histogram: histogramSorted(ok),
     seed,
   };
 }

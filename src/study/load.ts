@@ -19,7 +19,7 @@ import { Ledger, assertNoRejections, buildReport, checkAboveInlet, checkElementB
 import schemaJson from '../../schema/study.schema.json';
 import { checkSchema, type JsonSchema } from './schema-check';
 import { locatePath } from './locate';
-import { buildParameters, type ParameterSpec } from './parameters';
+import { buildParameters, referencedNames, type ParameterSpec } from './parameters';
 import { DEFAULT_ERROR_MODEL, sigmaFromModel, type CandidateSet, type ErrorModel, type LoadedStudy, type Observation, type Study, type StudyRun } from './types';
 
 /** The study-file schema as an object (the same file editors use). */
@@ -365,7 +365,19 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
       if (!chemistry.reactionIds.includes(id)) throw new RateloomError('E_VALUE', `candidate '${c.name}' replaces unknown reaction '${id}'`, { path: [...path, 'reactions', id] });
     }
     const reactions = raw.reactions.map((r) => (c.reactions[r.id] ? { ...r, rate: c.reactions[r.id] } : r));
-    const own = buildParameters([...raw.parameters, ...(c.parameters ?? [])], reactions.map((r) => r.rate), groups, hasGroupColumn, [...path, 'parameters']);
+    // A candidate keeps only the study parameters its own rate laws use (an unused one would be an
+    // unidentifiable direction of the fit), plus every parameter it declares itself.
+    const used = new Set<string>();
+    for (const r of reactions) {
+      if (r.rate.form === 'expression') {
+        for (const m of r.rate.expression.matchAll(/[A-Za-z_][A-Za-z0-9_]*/g)) used.add(m[0]);
+      } else {
+        const { constants, others } = referencedNames(r.rate);
+        for (const n of [...constants, ...others]) used.add(n);
+      }
+    }
+    const kept = raw.parameters.filter((p) => used.has(p.name) || p.scope === 'per-run-group');
+    const own = buildParameters([...kept, ...(c.parameters ?? [])], reactions.map((r) => r.rate), groups, hasGroupColumn, [...path, 'parameters']);
     return { name: c.name, ...(c.description !== undefined ? { description: c.description } : {}), reactions, replaced, parameters: own.parameters, scopes: own.scopes };
   });
   const names = new Set<string>();

@@ -66,6 +66,26 @@ export function fitStudy(study: Study, options: StudyFitOptions = {}): StudyFit 
   return { variant: variant.name, fit, model, data };
 }
 
+/**
+ * Per-run-group parameters ('a@c1', 'a@c2': one value per catalyst charge, say) describe the lab
+ * runs, not the plant. The hand-off carries one value under the base name: the mean over the
+ * groups, held fixed (it takes no part in the covariance). Global parameters pass unchanged.
+ */
+function collapseGroups(params: FitResult['parameters']): FitResult['parameters'] {
+  const out: FitResult['parameters'] = [];
+  const groups = new Map<string, FitResult['parameters']>();
+  for (const p of params) {
+    const at = p.name.indexOf('@');
+    if (at < 0) out.push(p);
+    else groups.set(p.name.slice(0, at), [...(groups.get(p.name.slice(0, at)) ?? []), p]);
+  }
+  for (const [base, members] of groups) {
+    const value = members.reduce((s, m) => s + m.value, 0) / members.length;
+    out.push({ ...members[0], name: base, value, internalValue: members[0].transform === 'log' ? Math.log(value) : value, fixed: true, stdError: null, internalStdError: null, ci: { ...members[0].ci, linear: null } });
+  }
+  return out;
+}
+
 /** The fitted-kinetics hand-off file of a study fit (plain JSON, SI). */
 export function buildHandoff(study: Study, sf: StudyFit): FittedKinetics {
   const variant = findVariant(study, sf.variant);
@@ -79,7 +99,7 @@ export function buildHandoff(study: Study, sf: StudyFit): FittedKinetics {
     species: study.species,
     reactions: variant.reactions,
     referenceTemperature: study.referenceTemperature,
-    parameters: fit.parameters.map((p) => ({
+    parameters: collapseGroups(fit.parameters).map((p) => ({
       name: p.name,
       unit: p.unit,
       value: p.value,

@@ -1,0 +1,68 @@
+/**
+ * From a sizing result (design/size.ts) to the sizing report's view model (report/types.ts).
+ * Only reshapes numbers; the cautions are passed through unchanged, always.
+ */
+import type { SizingResult } from '../design/size';
+import type { SizingReportData } from '../report/types';
+import { VERSION } from '../version';
+
+function targetText(r: SizingResult): SizingReportData['target'] {
+  const t = r.target;
+  if (t.kind === 'conversion') return { description: `conversion of ${t.species}`, value: t.value, unit: '1' };
+  if (t.kind === 'production') return { description: `production of ${t.species}`, value: t.value, unit: r.reactor.kind === 'batch' ? 'mol/m3' : 'mol/s' };
+  return { description: 'rating of a given size', value: t.value, unit: r.size?.unit ?? (r.reactor.kind === 'packed-bed' ? 'kg' : r.reactor.kind === 'batch' ? 's' : 'm3') };
+}
+
+const percentile = (r: SizingResult, level: number): number =>
+  r.uncertainty?.percentiles.find((p) => Math.abs(p.level - level) < 1e-9)?.value ?? NaN;
+
+export function sizingReportData(r: SizingResult): SizingReportData {
+  const u = r.uncertainty;
+  const sizeQuantity = r.size?.quantity ?? (u?.quantity === 'conversion' ? 'conversion' : 'size');
+  const rating = r.target.kind === 'size';
+  return {
+    title: `Reactor sizing: ${r.case}`,
+    caseName: r.case,
+    generatedBy: `rateloom ${VERSION}`,
+    status: r.status,
+    success: r.success,
+    message: r.message,
+    target: targetText(r),
+    size: {
+      label: rating ? `conversion of the key species` : sizeQuantity,
+      unit: rating ? '1' : (r.size?.unit ?? '1'),
+      median: u ? u.median : (r.size?.value ?? NaN),
+      p90: percentile(r, 0.9),
+      p95: percentile(r, 0.95),
+      nominal: rating ? (r.outlet?.conversion?.value ?? null) : (r.size?.value ?? null),
+    },
+    reactor: `${r.reactor.kind.replace('-', ' ')}, ${r.reactor.phase} phase, isothermal`,
+    outlet: r.outlet
+      ? Object.entries(r.outlet.amounts).map(([species, value]) => ({ species, value, unit: r.outlet!.amountUnit }))
+      : [],
+    pressureDrop: r.pressure ? { value: r.pressure.drop, fractionOfInlet: r.pressure.drop / r.pressure.inlet } : null,
+    tubes: r.tubes
+      ? { count: r.tubes.count, diameter: r.tubes.innerDiameter, length: r.tubes.length, sizePerTube: r.tubes.catalystPerTube }
+      : null,
+    productionProfile: u?.band
+      ? {
+          coordinate: { label: `size / nominal size`, unit: '1' },
+          quantity: { label: `X_${u.band.key}`, unit: '1' },
+          bandLevel: 0.9,
+          series: [
+            {
+              name: `conversion of ${u.band.key}`,
+              points: u.band.x.map((x, i) => ({ x, median: u.band!.median[i], lo: u.band!.p5[i], hi: u.band!.p95[i] })),
+            },
+          ],
+        }
+      : null,
+    sizeDistribution: u ? { histogram: u.histogram } : null,
+    sensitivityMeasure: `d ln(${u?.quantity ?? 'size'}) / d ln(parameter) for rate and equilibrium constants, per unit of the parameter otherwise`,
+    sensitivityUnit: '1',
+    sensitivity: u ? u.sensitivities.map((s) => ({ parameter: s.transform === 'log' ? `ln ${s.name}` : s.name, effect: s.dLnQuantity })) : [],
+    draws: u ? { total: u.draws, failed: u.failed.count } : null,
+    warnings: r.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.path ? { path: w.path } : {}) })),
+    cautions: r.cautions,
+  };
+}
