@@ -1,0 +1,59 @@
+/**
+ * rateloom's public API: named exports only. The flow runs one way:
+ * data and study files -> chemistry, kinetics, reactors -> numerics -> estimation -> design -> report.
+ */
+export { VERSION } from './version';
+
+// Core: typed errors, outcomes, parameters.
+export { RateloomError, ERROR_CODES, isRateloomError, formatPath, type ErrorCode, type ErrorLocation } from './core/errors';
+export type { Outcome, Warning, StatusTable } from './core/outcome';
+export { makeParameter, toInternal, toExternal, type Parameter, type Transform } from './core/parameter';
+
+// Units at the edges.
+export { toSI, fromSI, unitFor, acceptedUnits, siUnit, compoundToSI } from './units';
+
+// Chemistry and kinetics.
+export type { SpeciesSpec, ReactionSpec } from './chemistry/spec';
+export { parseFormula, molarMassOf } from './chemistry/formula';
+export { parseEquation } from './chemistry/equation';
+export { buildChemistry, elementBalanceResidual, type Chemistry } from './chemistry/mechanism';
+export type { RateLawSpec, RateBasis, ArrheniusRef, VantHoffRef } from './kinetics/spec';
+export type { CompiledKinetics } from './kinetics/compiled';
+export { compileKinetics, netRates, type KineticsInput, type CompiledKineticsInfo, type RateDescription } from './kinetics/compile';
+export { arrhenius, vantHoff, GAS_CONSTANT } from './kinetics/temperature';
+
+// Reactor models.
+export { solveReactor, REACTOR_MODELS, ergunAlpha, resolveAlpha } from './reactors';
+export type { ReactorSpec, ReactorKind, RunConditions, ReactorOptions, ReactorSolution, ReactorProfile, ErgunInputs } from './reactors/types';
+
+// Numerics.
+export { integrate, newton, brent, findAllRoots, solveLinear } from './numerics';
+export type { OdeOptions, OdeResult, OdeEvent } from './numerics';
+
+// Data and study files.
+export { readCsv } from './data';
+export type { ValidationReport, Rejection } from './data';
+export { loadStudy, STUDY_SCHEMA } from './study';
+export type { Study, LoadedStudy, Observation, StudyRun, ErrorModel, CandidateSet } from './study';
+
+// Estimation.
+export { fitModel, multistartFit, compareModels, levenbergMarquardt, profileParameter } from './estimation';
+export type { RegressionModel, FitResult, FitData, FitOptions, FittedParameter, Comparison } from './estimation';
+
+// Workflow: a study as a regression model, fits, comparisons, hand-off, report view models.
+export { StudyModel } from './workflow/study-model';
+export { fitStudy, buildHandoff, studyVariants, type StudyFit, type StudyFitOptions } from './workflow/fit-study';
+export { compareStudy, type StudyComparison } from './workflow/compare-study';
+export { fitReportData } from './workflow/fit-report-data';
+export { sizingReportData } from './workflow/sizing-report-data';
+
+// Design.
+export type { FittedKinetics } from './design/handoff';
+export { parseHandoff } from './design/handoff-load';
+export { kineticsFromHandoff } from './design/kinetics';
+export { loadCase, type DesignCase } from './design/case';
+export { sizeReactor, type SizingResult, type SizingOptions } from './design/size';
+
+// Reports.
+export { renderFitReport, renderSizingReport } from './report';
+export type { FitReportData, SizingReportData, RenderedReport } from './report';
