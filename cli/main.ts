@@ -3,7 +3,7 @@
  * Commands only parse flags, read files, call the library and print.
  */
 import { Command } from 'commander';
-import { EXIT_BAD_INPUT } from './run';
+import { configureUsageErrors } from './run';
 import { registerFit } from './fit';
 import { registerCompare } from './compare';
 import { registerSize } from './size';
@@ -14,12 +14,8 @@ const program = new Command();
 program
   .name('rateloom')
   .description('Chemical kinetics regression and isothermal reactor sizing')
-  .version('0.1.0')
-  .showHelpAfterError('(run with --help for usage and an example)')
-  .exitOverride((err) => {
-    if (err.code === 'commander.helpDisplayed' || err.code === 'commander.version' || err.code === 'commander.help') process.exit(0);
-    process.exit(EXIT_BAD_INPUT);
-  });
+  .version('0.1.0');
+configureUsageErrors(program);
 
 // Command registrations (one file per command):
 const registrations: Array<(p: Command) => void> = [];

@@ -2,7 +2,8 @@
  * Shared command plumbing: exit codes, --json output and error printing, identical for every
  * command. Exit codes: 0 success, 1 ran but the result is not trustworthy, 2 bad input or usage.
  */
-import { isRateloomError } from '../src/core/errors';
+import type { Command, CommanderError } from 'commander';
+import { ERROR_CODES, isRateloomError } from '../src/core/errors';
 import { written } from './io';
 
 export const EXIT_OK = 0;
@@ -49,9 +50,10 @@ export async function runCommand(json: boolean, body: () => Promise<CommandOutpu
       if (json) process.stdout.write(toJson({ status: 'error', error: e.toJSON() }) + '\n');
       else process.stderr.write(`error [${e.code}] ${e.message}\n`);
     } else {
-      const err = e as Error;
-      if (json) process.stdout.write(toJson({ status: 'error', error: { code: 'E_INTERNAL', message: err.message } }) + '\n');
-      else process.stderr.write(`internal error: ${err.stack ?? err.message}\nThis is a rateloom bug; please report it with the input that caused it.\n`);
+      const err = e instanceof Error ? e : new Error(String(e));
+      const fix = ERROR_CODES.E_INTERNAL;
+      if (json) process.stdout.write(toJson({ status: 'error', error: { code: 'E_INTERNAL', message: `${err.message}. Fix: ${fix}`, problem: err.message, fix, path: '' } }) + '\n');
+      else process.stderr.write(`internal error: ${err.stack ?? err.message}\nFix: ${fix}\n`);
     }
     process.exitCode = EXIT_BAD_INPUT;
   }
@@ -70,4 +72,30 @@ export function progressReporter(json: boolean, label: string): ((done: number, 
     process.stderr.write(`\r${label} [${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${pct}%`);
     if (done >= total) process.stderr.write('\n');
   };
+}
+
+/**
+ * Usage errors found by the flag parser (unknown flag, missing argument, ...) follow the same rules
+ * as every other error: exit 2, a 'Fix:' telling what to do, and under --json exactly one JSON
+ * document on stdout (the parser's own text is then kept off the output).
+ * @param argv the raw command line (process.argv)
+ */
+export function configureUsageErrors(program: Command, argv: readonly string[] = process.argv): void {
+  const json = argv.includes('--json');
+  const command = argv.slice(2).find((a) => !a.startsWith('-'));
+  const fix = `Check the command line; run 'rateloom ${command ?? '<command>'} --help' for the options and an example.`;
+  program.showHelpAfterError(json ? false : `Fix: ${fix}`);
+  program.configureOutput({
+    writeErr: (s) => {
+      if (!json) process.stderr.write(s);
+    },
+  });
+  program.exitOverride((err: CommanderError) => {
+    if (err.code === 'commander.helpDisplayed' || err.code === 'commander.version' || err.code === 'commander.help') process.exit(EXIT_OK);
+    if (json) {
+      const problem = err.message.replace(/^error: /, '');
+      process.stdout.write(toJson({ status: 'error', error: { code: 'E_USAGE', message: `${problem}. Fix: ${fix}`, problem, fix, path: '' } }) + '\n');
+    }
+    process.exit(EXIT_BAD_INPUT);
+  });
 }
