@@ -22,7 +22,6 @@ import {
 import { resolveAlpha } from './ergun';
 import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentration } from './gas';
 import { runOde, type OdeCore } from './ode-driver';
-import { RateTerms } from './rate-terms';
 import { buildSolution, type StateReader } from './solution';
 import type { ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types';
 import { RateloomError } from '../core/errors';
@@ -149,7 +148,55 @@ class TubeWork {
     const nS = kinetics.speciesNames.length;
     const nP = kinetics.parameterNames.length;
     const n = gas ? nS + 1 : nS;
-    const rt = new RateTerms(kinetics);
+    // Species-level rate terms R = nu^T diag(w) r and their derivatives (as RateTerms, with plain
+    // loops instead of TypedArray.fill, which costs more than the kinetics call at this size).
+    const nR = kinetics.reactionIds.length;
+    const nu = kinetics.stoich;
+    const r = new Float64Array(nR);
+    const jc = new Float64Array(nR * nS);
+    const jp = new Float64Array(nR * nP);
+    const net = (C: Float64Array, T: number, theta: Float64Array, w: Float64Array, out: Float64Array): void => {
+      kinetics.rates(C, T, theta, r);
+      for (let j = 0; j < nS; j++) out[j] = 0;
+      for (let i = 0; i < nR; i++) {
+        const wr = w[i] * r[i];
+        if (wr === 0) continue;
+        const row = i * nS;
+        for (let j = 0; j < nS; j++) out[j] += nu[row + j] * wr;
+      }
+    };
+    const jacCm = (C: Float64Array, T: number, theta: Float64Array, w: Float64Array, out: Float64Array): void => {
+      kinetics.ratesJacC(C, T, theta, jc);
+      for (let q = 0; q < nS * nS; q++) out[q] = 0;
+      for (let i = 0; i < nR; i++) {
+        const wi = w[i];
+        if (wi === 0) continue;
+        const row = i * nS;
+        for (let j = 0; j < nS; j++) {
+          const c = nu[row + j] * wi;
+          if (c === 0) continue;
+          const o = j * nS;
+          for (let k = 0; k < nS; k++) out[o + k] += c * jc[row + k];
+        }
+      }
+    };
+    const jacPm = (C: Float64Array, T: number, theta: Float64Array, w: Float64Array, out: Float64Array): void => {
+      kinetics.ratesJacP(C, T, theta, jp);
+      for (let q = 0; q < nS * nP; q++) out[q] = 0;
+      for (let i = 0; i < nR; i++) {
+        const wi = w[i];
+        if (wi === 0) continue;
+        const rowS = i * nS;
+        const rowP = i * nP;
+        for (let j = 0; j < nS; j++) {
+          const c = nu[rowS + j] * wi;
+          if (c === 0) continue;
+          const o = j * nP;
+          for (let k = 0; k < nP; k++) out[o + k] += c * jp[rowP + k];
+        }
+      }
+    };
+    const rt = { net, jacC: jacCm, jacP: jacPm };
     const C = new Float64Array(nS);
     const R = new Float64Array(nS);
     const dCdF = new Float64Array(nS * nS);
@@ -157,12 +204,19 @@ class TubeWork {
     const dRdC = new Float64Array(nS * nS);
     const dRdP = new Float64Array(nS * nP);
     const dC = new Float64Array(nS * nP);
-    const gasConc = gasConcentrations;
     const gasJac = gasConcentrationJacobian;
     const sum = sumFirst;
     const conc = (y: Float64Array, out: Float64Array): void => {
-      if (gas) gasConc(y, nS, y[nS], this.p.cT0, out);
-      else {
+      if (gas) {
+        let FT = 0;
+        for (let j = 0; j < nS; j++) FT += y[j];
+        if (!(FT > 0)) {
+          for (let j = 0; j < nS; j++) out[j] = 0;
+          return;
+        }
+        const f = (this.p.cT0 * y[nS]) / FT;
+        for (let j = 0; j < nS; j++) out[j] = f * y[j];
+      } else {
         const invV0 = this.p.invV0;
         for (let j = 0; j < nS; j++) out[j] = y[j] * invV0;
       }
@@ -186,7 +240,7 @@ class TubeWork {
         conc(y, C);
         rt.jacC(C, T, this.theta, weights, dRdC);
         for (let j = 0; j < nS; j++) dRdC[j * nS + j] -= perm[j];
-        out.fill(0, 0, n * n);
+        for (let q = 0; q < n * n; q++) out[q] = 0;
         if (gas) {
           const p = y[nS];
           gasJac(y, nS, p, cT0, dCdF, dCdp);
@@ -213,8 +267,8 @@ class TubeWork {
       dtheta: (_x, y, out) => {
         conc(y, C);
         rt.jacP(C, this.p.T, this.theta, this.p.weights, dRdP);
-        out.set(dRdP);
-        if (gas) out.fill(0, nS * nP, n * nP);
+        for (let q = 0; q < nS * nP; q++) out[q] = dRdP[q];
+        if (gas) for (let q = nS * nP; q < n * nP; q++) out[q] = 0;
       },
       // dS/dx = (df/dy) S + df/dtheta without forming df/dy: dC/dtheta first, then dR/dC dC/dtheta.
       sensRhs: (_x, y, out) => {
