@@ -72,7 +72,16 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
   const evaluated = problem.predict(x, pred) && problem.residuals(x, r) && problem.jacobian(x, r, J);
   if (!evaluated) {
     status = 'model-failure';
-    detail = problem.failures.map((f) => `${f.run}: ${f.message}`).join('; ') || 'the model could not be evaluated at the estimate';
+    const fl = problem.failures;
+    detail = fl.length
+      ? fl.slice(0, 3).map((f) => `${f.run}: ${f.message}`).join('; ') + (fl.length > 3 ? `; and ${fl.length - 3} more` : '')
+      : 'the model could not be evaluated at the estimate';
+    const runs = [...new Set(fl.map((f) => f.run))];
+    warnings.push({
+      code: 'model-failure-at-estimate',
+      message: `the model cannot be evaluated at the reported parameter values (${runs.length ? `failing: ${runs.map((r) => (r === '*' ? 'model' : `run ${r}`)).join(', ')}` : 'no detail'}); no statistics are given`,
+      path: runs,
+    });
     pred.fill(0);
     r.fill(0);
   }

@@ -14,6 +14,7 @@
  * or central differences (h_j = eps^(1/3) max(|x_j|, 1)) on request. A step that leaves the bounds
  * is taken to the other side. All buffers are preallocated: the residual loop does not allocate.
  */
+import type { Warning } from '../core/outcome';
 import type { PredictionFailure, RegressionModel } from './model';
 
 /** A least-squares problem in the free parameters: what the solvers see. */
@@ -58,6 +59,10 @@ export class ResidualProblem implements LeastSquaresProblem {
   evaluations = 0;
   /** Failure messages of the most recent failed evaluation. */
   readonly failures: PredictionFailure[] = [];
+  /** Every failed evaluation so far, per run: how often and the first message (see failureWarning). */
+  readonly failureLog = new Map<string, { count: number; message: string }>();
+  /** Number of failed evaluations so far. */
+  failedEvaluations = 0;
   private readonly model: RegressionModel;
   private readonly measured: Float64Array;
   private readonly invSigma: Float64Array;
@@ -112,9 +117,49 @@ export class ResidualProblem implements LeastSquaresProblem {
       ok = false;
       this.failures.push({ run: '*', message: e instanceof Error ? e.message : String(e) });
     }
-    if (!ok) return false;
-    for (let i = 0; i < this.m; i++) if (!Number.isFinite(out[i])) return false;
-    return true;
+    if (ok) {
+      for (let i = 0; i < this.m; i++) {
+        if (!Number.isFinite(out[i])) {
+          this.failures.push({ run: '*', message: `prediction ${i} is not finite` });
+          ok = false;
+          break;
+        }
+      }
+    }
+    if (!ok) this.logFailure();
+    return ok;
+  }
+
+  private logFailure(): void {
+    this.failedEvaluations++;
+    if (this.failures.length === 0) this.failures.push({ run: '*', message: 'the model could not be evaluated' });
+    const seen = new Set<string>();
+    for (const f of this.failures) {
+      if (seen.has(f.run)) continue;
+      seen.add(f.run);
+      const e = this.failureLog.get(f.run);
+      if (e) e.count++;
+      else this.failureLog.set(f.run, { count: 1, message: f.message });
+    }
+  }
+
+  /**
+   * One warning naming every run whose model evaluation failed at some parameter values during
+   * the solve (those trial steps were rejected), or undefined when none failed.
+   */
+  failureWarning(): Warning | undefined {
+    if (this.failureLog.size === 0) return undefined;
+    const runs = [...this.failureLog.keys()];
+    const shown = runs.slice(0, 8).map((r) => {
+      const e = this.failureLog.get(r)!;
+      return `${r === '*' ? 'model' : `run ${r}`} (${e.count}x: ${e.message.length > 160 ? `${e.message.slice(0, 157)}...` : e.message})`;
+    });
+    const more = runs.length > 8 ? `; and ${runs.length - 8} more run(s)` : '';
+    return {
+      code: 'model-evaluation-failed',
+      message: `${this.failedEvaluations} of ${this.evaluations} model evaluations failed (a failed trial step is rejected and the trust region shrinks); failing: ${shown.join('; ')}${more}`,
+      path: runs,
+    };
   }
 
   residuals(x: Float64Array, out: Float64Array): boolean {
@@ -138,11 +183,18 @@ export class ResidualProblem implements LeastSquaresProblem {
         ok = false;
         this.failures.push({ run: '*', message: e instanceof Error ? e.message : String(e) });
       }
-      if (!ok) return false;
+      if (!ok) {
+        this.logFailure();
+        return false;
+      }
       for (let i = 0; i < m; i++) {
         for (let j = 0; j < n; j++) {
           const v = -this.Jfull[i * nt + this.freeIndex[j]] * this.invSigma[i];
-          if (!Number.isFinite(v)) return false;
+          if (!Number.isFinite(v)) {
+            this.failures.push({ run: '*', message: `the derivative of prediction ${i} is not finite` });
+            this.logFailure();
+            return false;
+          }
           J[i * n + j] = v;
         }
       }

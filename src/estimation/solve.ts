@@ -148,5 +148,7 @@ export function solveFree(
   const result = (o.solver ?? 'trust-region') === 'card'
     ? cardLevenbergMarquardt(problem, x0, common)
     : levenbergMarquardt(problem, x0, common);
-  return { result, problem };
+  // Runs that failed at trial points are named on the result (the steps themselves were rejected).
+  const failed = problem.failureWarning();
+  return { result: failed ? { ...result, warnings: [...result.warnings, failed] } : result, problem };
 }
