@@ -70,6 +70,11 @@ export function formatFit(study: Study, sf: StudyFit): string {
     rows.push([p.name, g(p.value, 5), p.fixed ? 'fixed' : g(p.stdError, 3), p.fixed ? '' : lin, pro, p.unit, p.atBound ? 'at a bound' : '']);
   }
   L.push('', table(rows));
+  if (sf.derived.length) {
+    const d = [['derived', 'value', 'std error', `${pc} interval`, 'unit', 'definition']];
+    for (const q of sf.derived) d.push([q.name, g(q.value, 5), g(q.stdError, 3), q.ci.linear ? `[${g(q.ci.linear[0])}, ${g(q.ci.linear[1])}]` : 'n/a', q.unit, q.definition]);
+    L.push('', table(d));
+  }
   const c = fit.correlation;
   if (c.matrix && c.names.length > 1) {
     L.push('', 'Correlation of the estimates:');
@@ -136,6 +141,7 @@ export function registerFit(program: Command): void {
             model: sf.variant,
             referenceTemperature: { value: study.referenceTemperature, unit: 'K' },
             fit: sf.fit,
+            derived: sf.derived,
             ...(sf.minima ? { minima: sf.minima } : {}),
             data: { rowsIn: report.rowsIn, rowsUsed: report.rowsUsed, rowsRejected: report.rowsRejected },
             outputs: { handoff: handoffPath, ...(reportPaths ?? {}) },

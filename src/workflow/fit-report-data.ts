@@ -124,7 +124,10 @@ export function fitReportData(study: Study, sf: StudyFit, comparison?: Compariso
     success: fit.success,
     message: fit.message,
     warnings: fit.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.path ? { path: w.path } : {}) })),
-    parameters: parameterRows(sf),
+    parameters: [
+      ...parameterRows(sf),
+      ...sf.derived.map((q) => ({ name: q.name, unit: q.unit, value: q.value, stdError: q.stdError, ciLevel: q.ci.level, linearCI: q.ci.linear, profileCI: null, flags: [`derived: ${q.definition}`] })),
+    ],
     correlation: fit.correlation.matrix ? { names: fit.correlation.names, matrix: fit.correlation.matrix } : null,
     statistics: {
       n: s.n,

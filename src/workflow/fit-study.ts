@@ -9,6 +9,7 @@ import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics } from '../design/
 import { RateloomError, closestName } from '../core/errors';
 import type { Study } from '../study/types';
 import { studyCoverage } from './coverage';
+import { derivedQuantities, type DerivedQuantity } from './derived';
 import { studyFitData, type StudyFitData } from './fit-data';
 import { StudyModel, baseVariant, candidateVariant, type ModelVariant, type StudyModelOptions } from './study-model';
 import { VERSION } from '../version';
@@ -33,6 +34,8 @@ export interface StudyFit {
   data: StudyFitData;
   /** Distinct minima found by the multistart, lowest SSR first (absent for a single fit). */
   minima?: Minimum[];
+  /** Pre-exponential factors (Arrhenius) and van 't Hoff factors with their intervals. */
+  derived: DerivedQuantity[];
 }
 
 /** The rate-law sets of a study: 'base' first, then its candidates. */
@@ -57,13 +60,14 @@ export function findVariant(study: Study, name: string): ModelVariant {
 export function fitStudy(study: Study, options: StudyFitOptions = {}): StudyFit {
   const variant = findVariant(study, options.variant ?? 'base');
   const model = new StudyModel(study, variant, options.model);
+  const derivedOf = (fit: FitResult) => derivedQuantities(fit, variant.reactions.map((r) => r.rate), study.referenceTemperature);
   const data = studyFitData(study);
   if (options.starts && options.starts > 0) {
     const ms = multistartFit(model, variant.parameters, data, { ...options, starts: options.starts, seed: options.seed ?? 1 });
-    return { variant: variant.name, fit: ms.best, model, data, minima: ms.minima };
+    return { variant: variant.name, fit: ms.best, model, data, minima: ms.minima, derived: derivedOf(ms.best) };
   }
   const fit = fitModel(model, variant.parameters, data, options);
-  return { variant: variant.name, fit, model, data };
+  return { variant: variant.name, fit, model, data, derived: derivedOf(fit) };
 }
 
 /**
