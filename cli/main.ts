@@ -9,6 +9,7 @@ import { registerCompare } from './compare';
 import { registerSize } from './size';
 import { registerCheck } from './check';
 import { registerSimulate } from './simulate';
+import { registerDemo } from './demo';
 
 const program = new Command();
 program
@@ -25,6 +26,7 @@ registrations.push(registerSimulate);
 registrations.push(registerSize);
 registrations.push(registerFit);
 registrations.push(registerCompare);
+registrations.push(registerDemo);
 
 for (const r of registrations) r(program);
 

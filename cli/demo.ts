@@ -1,0 +1,334 @@
+/**
+ * `rateloom demo [--out DIR] [--force] [--json]`: the whole workflow on the invented demo data in
+ * datasets-demo/ — check the pilot packed-bed data, rank the rival rate laws, fit the chosen one
+ * with confidence intervals, size two production cases (one inside the data range, one that
+ * extrapolates), fit the liquid batch and stirred-tank studies, and write every report plus one
+ * index page. Calls the same library functions as check, compare, fit and size.
+ *
+ * Overwriting: the demo owns its output folder. It writes a marker file (.rateloom-demo) there and
+ * replaces its own files on a later run; a folder that exists, is not empty and has no marker is
+ * refused unless --force. Files the demo does not write are never touched or deleted.
+ * Exit 0 every fit converged and the in-range case was sized, 1 otherwise, 2 bad input.
+ */
+import type { Command } from 'commander';
+import { existsSync, readdirSync } from 'node:fs';
+import { join, relative, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { RateloomError } from '../src/core/errors';
+import { summarizeStudy, type StudySummary } from '../src/study/summary';
+import { applyParameterValues } from '../src/study/simulate';
+import type { Study } from '../src/study/types';
+import type { ValidationReport } from '../src/data/report';
+import { buildHandoff, fitStudy, type StudyFit } from '../src/workflow/fit-study';
+import { compareStudy } from '../src/workflow/compare-study';
+import { fitReportData } from '../src/workflow/fit-report-data';
+import { sizingReportData } from '../src/workflow/sizing-report-data';
+import type { Comparison } from '../src/estimation/compare';
+import { parseHandoff } from '../src/design/handoff-load';
+import { kineticsFromHandoff } from '../src/design/kinetics';
+import { loadCase } from '../src/design/case';
+import { sizeReactor, type SizingResult } from '../src/design/size';
+import { formatCheck } from './check';
+import { formatComparison } from './compare';
+import { formatFit } from './fit';
+import { formatSizing } from './size';
+import { g } from './format';
+import { readJson, writeAtomic } from './io';
+import { writeFitReport, writeSizingReport } from './report-render';
+import { runCommand, toJson } from './run';
+import { readStudy } from './study-input';
+
+/** datasets-demo/ of this checkout. */
+export const DEMO_DATA_DIR = fileURLToPath(new URL('../datasets-demo/', import.meta.url));
+const MARKER = '.rateloom-demo';
+
+export interface DemoOptions {
+  /** Output folder; default 'reports/demo'. */
+  outDir?: string;
+  /** Write into a non-empty folder without the demo marker; default false. */
+  force?: boolean;
+  /** Folder with the demo data; default datasets-demo/ of this checkout. */
+  dataDir?: string;
+  /** Also fit the batch and stirred-tank studies; default true. */
+  liquids?: boolean;
+  /** Monte Carlo draws of each sizing; default: the case files' value. */
+  draws?: number;
+  /** Progress lines (one per step), for the terminal; default none. */
+  log?: (line: string) => void;
+}
+
+/** A fitted parameter next to the recorded true value of the generator. */
+export interface ParameterVsTruth {
+  name: string;
+  unit: string;
+  fitted: number;
+  truth: number;
+  linear: [number, number] | null;
+  profile: [number | null, number | null] | null;
+  /** The true value lies inside the linear (and, where computed, profile) 95% interval. */
+  covered: boolean;
+}
+
+export interface DemoStudyResult {
+  study: string;
+  status: string;
+  converged: boolean;
+  parameters: ParameterVsTruth[];
+  report: { html: string; markdown: string };
+}
+
+export interface DemoResult {
+  outDir: string;
+  seconds: number;
+  check: { rowsIn: number; rowsUsed: number; rowsRejected: number; rejections: { line: number; reason: string; message: string }[]; replicateGroups: number; observations: number; degreesOfFreedom: number };
+  comparison: { best: string; ranking: { name: string; delta: number | null; weight: number | null; converged: boolean }[]; verdict: string; report: { html: string; markdown: string } };
+  fit: DemoStudyResult & { handoff: string; lackOfFitP: number | null };
+  sizing: { case: string; status: string; success: boolean; size: number | null; unit: string | null; p90: number | null; p95: number | null; warnings: string[]; report: { html: string; markdown: string }; json: string }[];
+  liquids: DemoStudyResult[];
+  index: string;
+  /** Every file written, absolute. */
+  files: string[];
+  /** Narrated summary (the text the command prints). */
+  text: string;
+}
+
+/** Refuse a foreign non-empty output folder unless forced; then mark it as the demo's. */
+function claimOutDir(outDir: string, force: boolean): void {
+  if (existsSync(outDir) && !existsSync(join(outDir, MARKER)) && readdirSync(outDir).length > 0 && !force) {
+    throw new RateloomError('E_EXISTS', `output folder '${outDir}' is not empty and was not written by the demo`, {
+      location: { file: outDir },
+      fix: 'Choose another folder with --out, or pass --force to write the demo files into it (other files are left alone).',
+    });
+  }
+  writeAtomic(join(outDir, MARKER), 'This folder holds the outputs of `rateloom demo`; a later demo run replaces them.\n', { force: true });
+}
+
+function vsTruth(study: Study, sf: StudyFit, truth: Record<string, { value: number; unit: string }>, file: string): ParameterVsTruth[] {
+  const trueParams = applyParameterValues(study.parameters, truth, file);
+  return sf.fit.parameters.map((p) => {
+    const t = trueParams.find((q) => q.name === p.name)?.value ?? NaN;
+    const lin = p.ci.linear;
+    const pro = p.ci.profile ?? null;
+    const inLin = !!lin && t >= lin[0] && t <= lin[1];
+    const inPro = !pro || ((pro[0] === null || t >= pro[0]) && (pro[1] === null || t <= pro[1]));
+    return { name: p.name, unit: p.unit, fitted: p.value, truth: t, linear: lin, profile: pro, covered: inLin && inPro };
+  });
+}
+
+const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+
+function indexPage(r: Omit<DemoResult, 'index' | 'files' | 'text' | 'seconds'>, outDir: string, summary: string): string {
+  const link = (abs: string, label: string) => `<a href="${esc(relative(outDir, abs))}">${esc(label)}</a>`;
+  const items = [
+    `<li>${link(r.comparison.report.html, 'Rival rate laws')} — ranking of the packed-bed rate-law sets (best: ${esc(r.comparison.best)})</li>`,
+    `<li>${link(r.fit.report.html, 'Packed-bed fit')} — parameters with linear and profile-likelihood intervals, parity and residual charts; hand-off ${link(r.fit.handoff, 'pbr-kinetics.json')}</li>`,
+    ...r.sizing.map((s) => `<li>${link(s.report.html, `Sizing: ${s.case}`)} (${esc(s.status)})</li>`),
+    ...r.liquids.map((l) => `<li>${link(l.report.html, `Fit: ${l.study}`)}</li>`),
+  ];
+  return `<!doctype html>
+<html lang="en"><head><meta charset="utf-8"><title>rateloom demo</title>
+<style>body{font-family:system-ui,sans-serif;max-width:60rem;margin:2rem auto;padding:0 1rem;line-height:1.45}pre{background:#f5f5f5;padding:1rem;overflow-x:auto;font-size:.85rem}</style>
+</head><body>
+<h1>rateloom demo</h1>
+<p>Invented data (datasets-demo/): a pilot packed bed for ethylene hydration with an ether side reaction, a liquid batch esterification and a liquid stirred tank. The data were generated from recorded true parameter values (datasets-demo/truth.json), so the fitted values can be checked against the truth.</p>
+<h2>Reports</h2>
+<ul>
+${items.join('\n')}
+</ul>
+<h2>Summary</h2>
+<pre>${esc(summary)}</pre>
+</body></html>
+`;
+}
+
+/** Run the demo in-process; writes the reports and returns what happened. */
+export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
+  const t0 = performance.now();
+  const dataDir = resolve(options.dataDir ?? DEMO_DATA_DIR);
+  const outDir = resolve(options.outDir ?? 'reports/demo');
+  const log = options.log ?? (() => {});
+  const files: string[] = [];
+  const keep = (p: string) => (files.push(p), p);
+  claimOutDir(outDir, !!options.force);
+  files.push(join(outDir, MARKER));
+  const w = (name: string, content: string) => keep(writeAtomic(join(outDir, name), content, { force: true }));
+  const truth = readJson(join(dataDir, 'truth.json'), 'truth file') as Record<string, { study: string; parameters: Record<string, { value: number; unit: string }> }>;
+  const rel = (p: string) => relative(process.cwd(), p) || '.';
+
+  // 1. check
+  const pbrPath = join(dataDir, 'pbr', 'pbr.study.json');
+  log('1/5 check: reading the pilot packed-bed data ...');
+  const { study, report } = readStudy(pbrPath);
+  const summary: StudySummary = summarizeStudy(study, report);
+  w('pbr-check.txt', formatCheck(summary, report) + '\n');
+
+  // 2. compare
+  log('2/5 compare: fitting the three rival rate-law sets ...');
+  const cmp = compareStudy(study, { profile: false });
+  const comparison: Comparison = cmp.comparison;
+  const bestName = comparison.ranking[0].name;
+  const bestFit = cmp.fits.find((f) => f.variant === bestName)!;
+  const cr = await writeFitReport(fitReportData(study, bestFit, comparison), { outDir, baseName: 'pbr-compare', force: true });
+  files.push(cr.html, cr.markdown);
+  w('pbr-compare.txt', formatComparison(comparison) + '\n');
+
+  // 3. fit the best-supported set with profile intervals
+  log(`3/5 fit: '${bestName}' with profile-likelihood intervals ...`);
+  const sf = fitStudy(study, { variant: bestName, profile: true });
+  const handoff = buildHandoff(study, sf);
+  const handoffText = toJson(handoff) + '\n';
+  const handoffPath = w('pbr-kinetics.json', handoffText);
+  const fr = await writeFitReport(fitReportData(study, sf), { outDir, baseName: 'pbr-fit', force: true });
+  files.push(fr.html, fr.markdown);
+  w('pbr-fit.txt', formatFit(study, sf) + '\n');
+  const pbrVsTruth = vsTruth(study, sf, truth.pbr.parameters, 'truth.json');
+
+  // 4. size the production cases from the hand-off file as written
+  log('4/5 size: production cases with Monte Carlo uncertainty ...');
+  const h = parseHandoff(JSON.parse(handoffText));
+  const dk = kineticsFromHandoff(h);
+  const sizing: DemoResult['sizing'] = [];
+  for (const name of ['plant', 'hot']) {
+    const casePath = join(dataDir, 'pbr', `${name}.case.json`);
+    const kase = loadCase(readJson(casePath, 'case file'), dk.kinetics.speciesNames, dk.kinetics.reactionIds);
+    const result: SizingResult = sizeReactor({
+      handoff: h,
+      kinetics: dk.kinetics,
+      kase,
+      ...(dk.molarMasses ? { molarMasses: dk.molarMasses } : {}),
+      options: options.draws !== undefined ? { draws: options.draws } : {},
+    });
+    const json = w(`${name}-sizing.json`, toJson(result) + '\n');
+    w(`${name}-sizing.txt`, formatSizing(result) + '\n');
+    const sr = await writeSizingReport(sizingReportData(result), { outDir, baseName: `${name}-sizing`, force: true });
+    files.push(sr.html, sr.markdown);
+    const pct = (l: number) => result.uncertainty?.percentiles.find((p) => Math.abs(p.level - l) < 1e-9)?.value ?? null;
+    sizing.push({
+      case: result.case,
+      status: result.status,
+      success: result.success,
+      size: result.size?.value ?? null,
+      unit: result.size?.unit ?? null,
+      p90: pct(0.9),
+      p95: pct(0.95),
+      warnings: result.warnings.map((x) => `[${x.code}] ${x.message}`),
+      report: { html: sr.html, markdown: sr.markdown },
+      json,
+    });
+  }
+
+  // 5. liquid studies
+  const liquids: DemoStudyResult[] = [];
+  if (options.liquids !== false) {
+    log('5/5 fit: liquid batch and stirred-tank studies ...');
+    for (const key of ['batch', 'cstr']) {
+      const path = join(dataDir, truth[key].study);
+      const ls = readStudy(path).study;
+      const lf = fitStudy(ls, { profile: true });
+      const lr = await writeFitReport(fitReportData(ls, lf), { outDir, baseName: `${key}-fit`, force: true });
+      files.push(lr.html, lr.markdown);
+      w(`${key}-fit.txt`, formatFit(ls, lf) + '\n');
+      liquids.push({ study: ls.title ?? key, status: lf.fit.status, converged: lf.fit.success, parameters: vsTruth(ls, lf, truth[key].parameters, 'truth.json'), report: { html: lr.html, markdown: lr.markdown } });
+    }
+  }
+
+  const base = {
+    outDir,
+    check: {
+      rowsIn: report.rowsIn,
+      rowsUsed: report.rowsUsed,
+      rowsRejected: report.rowsRejected,
+      rejections: report.rejections.map((r) => ({ line: r.line, reason: r.reason, message: r.message })),
+      replicateGroups: report.replicateGroups.length,
+      observations: summary.observations,
+      degreesOfFreedom: summary.degreesOfFreedom,
+    },
+    comparison: {
+      best: bestName,
+      ranking: comparison.ranking.map((r) => ({ name: r.name, delta: r.delta, weight: r.akaikeWeight, converged: r.converged })),
+      verdict: comparison.verdict,
+      report: { html: cr.html, markdown: cr.markdown },
+    },
+    fit: {
+      study: study.title ?? 'packed bed',
+      status: sf.fit.status,
+      converged: sf.fit.success,
+      parameters: pbrVsTruth,
+      report: { html: fr.html, markdown: fr.markdown },
+      handoff: handoffPath,
+      lackOfFitP: sf.fit.statistics.lackOfFit?.pValue ?? null,
+    },
+    sizing,
+    liquids,
+  };
+  const text = narrate(base, study, report, rel);
+  const index = w('index.html', indexPage(base, outDir, text));
+  const seconds = (performance.now() - t0) / 1000;
+  return { ...base, index, files, seconds, text: `${text}\n\nDemo finished in ${g(seconds, 3)} s. Open ${rel(index)} for all reports.` };
+}
+
+function fmtTruthTable(ps: ParameterVsTruth[]): string[] {
+  return ps.map((p) => {
+    const ci = p.linear ? `[${g(p.linear[0])}, ${g(p.linear[1])}]` : 'n/a';
+    return `    ${p.name.padEnd(4)} fitted ${g(p.fitted, 5).padStart(11)}  95% ${ci.padEnd(24)} true ${g(p.truth, 4).padStart(9)} ${p.unit === '1' ? '' : p.unit}${p.covered ? '' : '  <- true value outside the interval'}`;
+  });
+}
+
+function narrate(r: Omit<DemoResult, 'index' | 'files' | 'text' | 'seconds'>, study: Study, report: ValidationReport, rel: (p: string) => string): string {
+  const L: string[] = [];
+  L.push('rateloom demo: invented ethylene hydration C2H4 + H2O <=> EtOH (side reaction 2 EtOH -> DEE + H2O) in a pilot packed bed.');
+  L.push('');
+  L.push(`1. check  ${r.check.rowsIn} rows read, ${r.check.rowsUsed} used, ${r.check.rowsRejected} rejected; ${r.check.observations} observations, ${r.check.degreesOfFreedom} degrees of freedom; ${r.check.replicateGroups} replicate group(s).`);
+  for (const x of report.rejections) L.push(`         rejected ${x.file}:${x.line}${x.column ? `:${x.column}` : ''} (${x.reason}): ${x.message}`);
+  L.push(`2. compare  ${r.comparison.ranking.map((x) => `${x.name} (delta AICc ${g(x.delta, 3)}, weight ${g(x.weight, 2)})`).join('; ')}`);
+  L.push(`         ${r.comparison.verdict}`);
+  L.push(`3. fit  '${r.comparison.best}': ${r.fit.status}; lack-of-fit p = ${r.fit.lackOfFitP === null ? 'n/a' : g(r.fit.lackOfFitP, 3)} (replicates). Fitted vs the recorded truth of the generator (SI units):`);
+  L.push(...fmtTruthTable(r.fit.parameters));
+  L.push(`         reference temperature ${g(study.referenceTemperature, 4)} K; hand-off file ${rel(r.fit.handoff)}`);
+  for (const s of r.sizing) {
+    L.push(`4. size  ${s.case}: ${s.status}${s.size !== null ? `, ${g(s.size, 4)} ${s.unit} catalyst (nominal), P90 ${g(s.p90 ?? NaN, 4)}, P95 ${g(s.p95 ?? NaN, 4)} ${s.unit}` : ''}`);
+    for (const w of s.warnings.filter((x) => x.startsWith('[W_EXTRAPOLATION]'))) L.push(`         ${w}`);
+  }
+  for (const l of r.liquids) {
+    L.push(`5. fit  ${l.study}: ${l.status}`);
+    L.push(...fmtTruthTable(l.parameters));
+  }
+  L.push('');
+  L.push(`Reports in ${rel(r.fit.report.html).replace(/[^/\\]*$/, '')}: index.html, pbr-compare.html, pbr-fit.html, plant-sizing.html, hot-sizing.html${r.liquids.length ? ', batch-fit.html, cstr-fit.html' : ''} (each with a .md twin).`);
+  return L.join('\n');
+}
+
+export function registerDemo(program: Command): void {
+  program
+    .command('demo')
+    .description('run check, compare, fit, size and the reports on the invented demo data (datasets-demo/)')
+    .option('--out <dir>', 'output folder (the demo replaces its own earlier outputs there)', 'reports/demo')
+    .option('--force', 'write into a non-empty folder that the demo did not create')
+    .option('--no-liquids', 'skip the batch and stirred-tank fits')
+    .option('--json', 'print one JSON document')
+    .addHelpText(
+      'after',
+      `
+Example:
+  npm run demo
+  rateloom demo --out /tmp/rateloom-demo --json > demo.json
+
+The data are invented (datasets-demo/README.md); the true parameter values are recorded in
+datasets-demo/truth.json, and the demo prints the fitted values beside them.
+Exit codes: 0 all fits converged and the in-range case was sized, 1 otherwise, 2 bad input.`,
+    )
+    .action(async (flags: { out?: string; force?: boolean; liquids?: boolean; json?: boolean }) => {
+      await runCommand(!!flags.json, async () => {
+        const r = await runDemo({
+          outDir: flags.out ?? 'reports/demo',
+          force: !!flags.force,
+          liquids: flags.liquids !== false,
+          ...(!flags.json && process.stderr.isTTY ? { log: (l: string) => process.stderr.write(`${l}\n`) } : {}),
+        });
+        const trustworthy = r.fit.converged && r.liquids.every((l) => l.converged) && r.sizing[0]?.success === true;
+        const { text, ...json } = r;
+        return { json: { status: trustworthy ? 'ok' : 'untrustworthy', ...json }, text, trustworthy };
+      });
+    });
+}
+
