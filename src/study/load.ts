@@ -19,7 +19,7 @@ import { Ledger, assertNoRejections, buildReport, checkAboveInlet, checkElementB
 import schemaJson from '../../schema/study.schema.json';
 import { checkSchema, type JsonSchema } from './schema-check';
 import { locatePath } from './locate';
-import { buildParameters, referencedNames, type ParameterSpec } from './parameters';
+import { buildParameters, parameterRoles, referencedNames, type ParameterSpec } from './parameters';
 import { DEFAULT_ERROR_MODEL, sigmaFromModel, type CandidateSet, type ErrorModel, type LoadedStudy, type Observation, type Study, type StudyRun } from './types';
 
 /** The study-file schema as an object (the same file editors use). */
@@ -357,7 +357,13 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
 
   const groups = [...new Set(studyRuns.map((r) => r.group).filter((g): g is string => g !== undefined))];
   const hasGroupColumn = studyRuns.some((r) => r.group !== undefined);
-  const base = buildParameters(raw.parameters, raw.reactions.map((r) => r.rate), groups, hasGroupColumn, ['parameters']);
+  // Default starts of parameters without values: orders default to the species' coefficient.
+  const coefficient = (i: number, sp: string, side: 'forward' | 'reverse'): number => {
+    const j = speciesNames.indexOf(sp);
+    const nu = j < 0 ? 0 : chemistry.stoich[i * nS + j];
+    return side === 'forward' ? Math.max(0, -nu) : Math.max(0, nu);
+  };
+  const base = buildParameters(raw.parameters, raw.reactions.map((r) => r.rate), groups, hasGroupColumn, ['parameters'], parameterRoles(raw.reactions.map((r) => r.rate), coefficient));
   const candidates: CandidateSet[] = (raw.candidates ?? []).map((c, ci) => {
     const path = ['candidates', ci];
     const replaced = Object.keys(c.reactions);
@@ -377,8 +383,8 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
       }
     }
     const kept = raw.parameters.filter((p) => used.has(p.name) || p.scope === 'per-run-group');
-    const own = buildParameters([...kept, ...(c.parameters ?? [])], reactions.map((r) => r.rate), groups, hasGroupColumn, [...path, 'parameters']);
-    return { name: c.name, ...(c.description !== undefined ? { description: c.description } : {}), reactions, replaced, parameters: own.parameters, scopes: own.scopes };
+    const own = buildParameters([...kept, ...(c.parameters ?? [])], reactions.map((r) => r.rate), groups, hasGroupColumn, [...path, 'parameters'], parameterRoles(reactions.map((r) => r.rate), coefficient));
+    return { name: c.name, ...(c.description !== undefined ? { description: c.description } : {}), reactions, replaced, parameters: own.parameters, scopes: own.scopes, ...(own.autoStart.length ? { autoStart: own.autoStart } : {}) };
   });
   const names = new Set<string>();
   for (const c of candidates) {
@@ -399,6 +405,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     referenceTemperatureSource,
     parameters: base.parameters,
     scopes: base.scopes,
+    ...(base.autoStart.length ? { autoStart: base.autoStart } : {}),
     runs: studyRuns,
     observations: studyObs,
     errorModels: models,

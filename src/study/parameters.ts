@@ -13,8 +13,11 @@ import type { ParameterScope } from './types';
 /** A parameter as written in the study file. */
 export interface ParameterSpec {
   name: string;
-  /** Initial (or fixed) value in `unit`. */
-  value: number;
+  /**
+   * Initial (or fixed) value in `unit`. Omitted or 'auto': rateloom picks the start (see
+   * defaultStartValue here, and the differential method of src/workflow/start-values.ts).
+   */
+  value?: number | 'auto';
   /** Unit of value and bounds; default '1'. */
   unit?: string;
   lower?: number;
@@ -48,13 +51,79 @@ export function referencedNames(rate: RateLawSpec): { constants: string[]; other
   return { constants, others };
 }
 
+/** What a parameter is to the rate laws, which decides its default start. */
+export type ParameterRole = 'constant' | 'energy' | 'order' | 'other';
+
+/** True when the study file leaves the start of this parameter to rateloom. */
+export function isAutoValue(s: Pick<ParameterSpec, 'value'>): boolean {
+  return s.value === undefined || s.value === 'auto';
+}
+
+/**
+ * The documented default start of a parameter without a value, in SI (bounds in SI):
+ *   constant (rate, equilibrium, adsorption; log transform): the geometric middle sqrt(lo hi) of
+ *     finite positive bounds; else 1 (SI), moved inside a one-sided bound (10 lo, or hi / 10);
+ *   energy (activation energy, enthalpy): 0 J/mol when inside the bounds, else the middle of finite
+ *     bounds (or the one finite bound);
+ *   order: `order` (the species' stoichiometric coefficient in its term), put inside the bounds;
+ *   other: the middle of finite bounds; else 1, put inside a one-sided bound (lo + 1, hi - 1).
+ * Common practice, no source: these only seed the multistart that follows.
+ */
+export function defaultStartValue(role: ParameterRole, lower: number, upper: number, order = 1): number {
+  const lo = Number.isFinite(lower) ? lower : -Infinity;
+  const hi = Number.isFinite(upper) ? upper : Infinity;
+  const inside = (v: number) => v >= lo && v <= hi;
+  const mid = () => (Number.isFinite(lo) && Number.isFinite(hi) ? (lo + hi) / 2 : Number.isFinite(lo) ? lo : hi);
+  switch (role) {
+    case 'constant': {
+      if (lo > 0 && Number.isFinite(hi)) return Math.sqrt(lo * hi);
+      if (inside(1)) return 1;
+      return hi < 1 ? hi / 10 : lo * 10;
+    }
+    case 'energy':
+      return inside(0) ? 0 : mid();
+    case 'order':
+      return inside(order) ? order : Math.min(hi, Math.max(lo, order));
+    default:
+      if (Number.isFinite(lo) && Number.isFinite(hi)) return (lo + hi) / 2;
+      if (inside(1)) return 1;
+      return hi < 1 ? hi - 1 : lo + 1;
+  }
+}
+
+/**
+ * Role of every parameter a set of rate laws references, and for orders the default: the
+ * stoichiometric coefficient of the species in its term (reactant for forward orders, product for
+ * reverse orders). `coefficient(i, species, side)` gives |nu| of the species in reaction i.
+ */
+export function parameterRoles(
+  rates: readonly RateLawSpec[],
+  coefficient: (reaction: number, species: string, side: 'forward' | 'reverse') => number,
+): Map<string, { role: ParameterRole; order?: number }> {
+  const roles = new Map<string, { role: ParameterRole; order?: number }>();
+  rates.forEach((rate, i) => {
+    if (rate.form === 'expression') return;
+    const { constants } = referencedNames(rate);
+    for (const n of constants) roles.set(n, { role: 'constant' });
+    if (rate.rateConstant.activationEnergy) roles.set(rate.rateConstant.activationEnergy, { role: 'energy' });
+    if ('equilibriumConstant' in rate && rate.equilibriumConstant?.enthalpy) roles.set(rate.equilibriumConstant.enthalpy, { role: 'energy' });
+    if (rate.form === 'lhhw') for (const a of Object.values(rate.adsorption)) if (a.enthalpy) roles.set(a.enthalpy, { role: 'energy' });
+    const sides: ['forward' | 'reverse', Record<string, number | string> | undefined][] = [['forward', rate.orders], ['reverse', 'reverseOrders' in rate ? rate.reverseOrders : undefined]];
+    for (const [side, orders] of sides) {
+      for (const [sp, o] of Object.entries(orders ?? {})) if (typeof o === 'string' && !roles.has(o)) roles.set(o, { role: 'order', order: coefficient(i, sp, side) });
+    }
+  });
+  return roles;
+}
+
 export function buildParameters(
   specs: readonly ParameterSpec[],
   rates: readonly RateLawSpec[],
   groups: readonly string[],
   hasGroupColumn: boolean,
   path: FieldPath,
-): { parameters: Parameter[]; scopes: ParameterScope[] } {
+  roles: ReadonlyMap<string, { role: ParameterRole; order?: number }> = parameterRoles(rates, () => 1),
+): { parameters: Parameter[]; scopes: ParameterScope[]; autoStart: string[] } {
   const declared = specs.map((s) => s.name);
   const constants = new Set<string>();
   rates.forEach((r, i) => {
@@ -72,6 +141,7 @@ export function buildParameters(
   });
   const parameters: Parameter[] = [];
   const scopes: ParameterScope[] = [];
+  const autoStart: string[] = [];
   const seen = new Set<string>();
   specs.forEach((s, i) => {
     const p = [...path, i];
@@ -79,9 +149,20 @@ export function buildParameters(
     seen.add(s.name);
     const unit = s.unit ?? '1';
     const conv = compoundToSI(1, unit, { path: [...p, 'unit'] });
-    const transform: Transform = s.transform ?? (constants.has(s.name) && s.value > 0 ? 'log' : 'none');
+    const auto = isAutoValue(s);
+    if (auto && s.fixed) {
+      throw new RateloomError('E_MISSING_FIELD', `parameter '${s.name}' is fixed but has no value`, {
+        path: [...p, 'value'],
+        fix: 'Give the value to hold it at, or remove "fixed": true to let rateloom estimate a start.',
+      });
+    }
+    const transform: Transform = s.transform ?? (constants.has(s.name) && (auto || (s.value as number) > 0) ? 'log' : 'none');
+    const lo = s.lower !== undefined ? s.lower * conv.value : transform === 'log' ? 0 : -Infinity;
+    const hi = s.upper !== undefined ? s.upper * conv.value : Infinity;
+    const role = roles.get(s.name);
+    const value = auto ? defaultStartValue(transform === 'log' ? 'constant' : role?.role === 'constant' ? 'other' : (role?.role ?? 'other'), lo, hi, role?.order) : (s.value as number) * conv.value;
     const init = {
-      value: s.value * conv.value,
+      value,
       unit: conv.unit,
       transform,
       fixed: s.fixed ?? false,
@@ -92,6 +173,7 @@ export function buildParameters(
     if ((s.scope ?? 'global') === 'global') {
       parameters.push(makeParameter({ name: s.name, ...init }, p));
       scopes.push({ base: s.name, scope: 'global' });
+      if (auto) autoStart.push(s.name);
       return;
     }
     if (!hasGroupColumn) {
@@ -105,10 +187,11 @@ export function buildParameters(
       const name = `${s.name}@${g}`;
       members[g] = name;
       parameters.push(makeParameter({ name, ...init }, p));
+      if (auto) autoStart.push(name);
     }
     scopes.push({ base: s.name, scope: 'per-run-group', members });
   });
-  return { parameters, scopes };
+  return { parameters, scopes, autoStart };
 }
 
 /**

@@ -94,6 +94,8 @@ export interface CandidateSet {
   /** All parameters of this candidate: the base ones plus its own (SI), expanded per group. */
   parameters: Parameter[];
   scopes: ParameterScope[];
+  /** Names of this set's parameters whose start the study left to rateloom (value omitted or 'auto'). */
+  autoStart?: string[];
 }
 
 export interface Study {
@@ -113,6 +115,12 @@ export interface Study {
   /** Parameters in SI, per-run-group ones expanded to '<base>@<group>'. */
   parameters: Parameter[];
   scopes: ParameterScope[];
+  /**
+   * Names (expanded per group) of the parameters whose start the study left to rateloom (value
+   * omitted or 'auto'); they hold the documented default start (study/parameters.ts) until
+   * src/workflow/start-values.ts estimates better ones. Absent when every value was given.
+   */
+  autoStart?: string[];
   runs: StudyRun[];
   observations: Observation[];
   errorModels: Record<string, ErrorModel>;
