@@ -5,9 +5,9 @@
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { loadStudy } from '../src/study/load';
 
-const N = Number(process.argv[2] ?? 10_000);
 const fixtures = join(import.meta.dirname, '../tests/data/fixtures');
 const study = JSON.parse(readFileSync(join(fixtures, 'study.json'), 'utf8'));
 study.data = [study.data[0]];
@@ -27,19 +27,29 @@ function makeCsv(n: number): string {
   return lines.join('\n') + '\n';
 }
 
-const csv = makeCsv(N);
-const studyText = JSON.stringify(study);
-const studyPath = join(fixtures, 'bench.study.json');
-const read = () => csv;
-loadStudy(studyText, studyPath, read); // warm-up
-const times: number[] = [];
-let last;
-for (let k = 0; k < 5; k++) {
-  const t0 = performance.now();
-  last = loadStudy(studyText, studyPath, read);
-  times.push(performance.now() - t0);
+/** Time loading an N-row CSV study; returns the report lines and the median time (ms). */
+export function runCsvLoad(N = 10_000): { lines: string[]; rows: number; medianMs: number } {
+  const csv = makeCsv(N);
+  const studyText = JSON.stringify(study);
+  const studyPath = join(fixtures, 'bench.study.json');
+  const read = () => csv;
+  loadStudy(studyText, studyPath, read); // warm-up
+  const times: number[] = [];
+  let last;
+  for (let k = 0; k < 5; k++) {
+    const t0 = performance.now();
+    last = loadStudy(studyText, studyPath, read);
+    times.push(performance.now() - t0);
+  }
+  times.sort((a, b) => a - b);
+  const r = last!.report;
+  const lines = [
+    `csv-load: ${N} rows (${(csv.length / 1024).toFixed(0)} KiB), load+validate median ${times[2].toFixed(1)} ms (min ${times[0].toFixed(1)}, max ${times[4].toFixed(1)})`,
+    `  rows in ${r.rowsIn} = used ${r.rowsUsed} + rejected ${r.rowsRejected}; runs ${last!.study.runs.length}; observations ${last!.study.observations.length}; replicate groups ${r.replicateGroups.length}`,
+  ];
+  return { lines, rows: N, medianMs: times[2] };
 }
-times.sort((a, b) => a - b);
-const r = last!.report;
-console.log(`csv-load: ${N} rows (${(csv.length / 1024).toFixed(0)} KiB), load+validate median ${times[2].toFixed(1)} ms (min ${times[0].toFixed(1)}, max ${times[4].toFixed(1)})`);
-console.log(`  rows in ${r.rowsIn} = used ${r.rowsUsed} + rejected ${r.rowsRejected}; runs ${last!.study.runs.length}; observations ${last!.study.observations.length}; replicate groups ${r.replicateGroups.length}`);
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  for (const l of runCsvLoad(Number(process.argv[2] ?? 10_000)).lines) console.log(l);
+}

@@ -5,24 +5,33 @@
  * Run: npx tsx bench/mc-sizing.ts [draws]
  */
 import { readFileSync } from 'node:fs';
+import { pathToFileURL } from 'node:url';
 import { parseHandoff } from '../src/design/handoff-load';
 import { kineticsFromHandoff } from '../src/design/kinetics';
 import { loadCase } from '../src/design/case';
 import { sizeReactor } from '../src/design/size';
 
-const draws = Number(process.argv[2] ?? 10000);
 const root = new URL('../tests/design/fixtures/', import.meta.url);
 const h = parseHandoff(JSON.parse(readFileSync(new URL('bed.kinetics.json', root), 'utf8')));
 const dk = kineticsFromHandoff(h);
 const kase = loadCase(JSON.parse(readFileSync(new URL('bed.case.json', root), 'utf8')), dk.kinetics.speciesNames, dk.kinetics.reactionIds);
 
-const t0 = performance.now();
-const nominal = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase, molarMasses: dk.molarMasses!, options: { draws: 0, profileDraws: 0 } });
-const t1 = performance.now();
-const r = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase, molarMasses: dk.molarMasses!, options: { draws, profileDraws: 200 } });
-const t2 = performance.now();
-const u = r.uncertainty!;
-console.log(`case: ${kase.name}; status ${r.status}; ${r.tubes?.count} tubes; nominal W ${nominal.size?.value.toFixed(3)} kg`);
-console.log(`nominal sizing with tube search: ${(t1 - t0).toFixed(0)} ms`);
-console.log(`${draws} Monte Carlo draws (+200-draw band, delta method): ${((t2 - t1) / 1000).toFixed(2)} s (${(((t2 - t1) * 1000) / draws).toFixed(0)} us per draw)`);
-console.log(`median ${u.median.toFixed(3)} kg, P90 ${u.percentiles[0].value.toFixed(3)} kg, P95 ${u.percentiles[1].value.toFixed(3)} kg, failed ${u.failed.count}`);
+/** Run the sizing benchmark; returns the timings (ms) and prints nothing. */
+export function runMcSizing(draws = 10000): { lines: string[]; nominalMs: number; drawsMs: number; draws: number; failed: number; medianKg: number } {
+  const t0 = performance.now();
+  const nominal = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase, molarMasses: dk.molarMasses!, options: { draws: 0, profileDraws: 0 } });
+  const t1 = performance.now();
+  const r = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase, molarMasses: dk.molarMasses!, options: { draws, profileDraws: 200 } });
+  const t2 = performance.now();
+  const u = r.uncertainty!;
+  const lines = [
+    `case: ${kase.name}; status ${r.status}; ${r.tubes?.count} tubes; nominal W ${nominal.size?.value.toFixed(3)} kg`,
+  `nominal sizing with tube search: ${(t1 - t0).toFixed(0)} ms`,
+  `${draws} Monte Carlo draws (+200-draw band, delta method): ${((t2 - t1) / 1000).toFixed(2)} s (${(((t2 - t1) * 1000) / draws).toFixed(0)} us per draw)`,
+  `median ${u.median.toFixed(3)} kg, P90 ${u.percentiles[0].value.toFixed(3)} kg, P95 ${u.percentiles[1].value.toFixed(3)} kg, failed ${u.failed.count}`];
+  return { lines, nominalMs: t1 - t0, drawsMs: t2 - t1, draws, failed: u.failed.count, medianKg: u.median };
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  for (const l of runMcSizing(Number(process.argv[2] ?? 10000)).lines) console.log(l);
+}

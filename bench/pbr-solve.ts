@@ -5,6 +5,7 @@
  * repeats and the right-hand-side evaluations per solve. Run: npx tsx bench/pbr-solve.ts
  */
 import { performance } from 'node:perf_hooks';
+import { pathToFileURL } from 'node:url';
 import { buildChemistry } from '../src/chemistry/mechanism';
 import { compileKinetics } from '../src/kinetics/compile';
 import type { RateLawSpec } from '../src/kinetics/spec';
@@ -18,7 +19,7 @@ function kinetics(species: string[], eqs: [string, RateLawSpec][]) {
 const rev: RateLawSpec = { form: 'reversible-power-law', basis: 'mass', rateConstant: { k: 'k1' }, equilibriumConstant: { K: 'K1' } };
 const fwd: RateLawSpec = { form: 'power-law', basis: 'mass', rateConstant: { k: 'k2' } };
 
-const cases = [
+export const cases = [
   {
     name: 'multi (2 reactions, pressure drop)',
     kin: kinetics(['A', 'B', 'C', 'D', 'I'], [['A + B <=> C', rev], ['C -> D', fwd]]),
@@ -46,22 +47,31 @@ const variants: [string, ReactorOptions][] = [
   ['with sensitivities', { sensitivities: true }],
 ];
 
-for (const c of cases) {
-  for (const [label, opts] of variants) {
-    let last: ReactorSolution | undefined;
-    const solve = () => solveReactor({ kind: 'packed-bed', phase: 'gas', pressureDrop: { alpha: c.alpha } }, c.run, c.kin, c.theta, opts);
-    for (let i = 0; i < 20; i++) solve(); // warm-up
-    const times: number[] = [];
-    for (let i = 0; i < 200; i++) {
-      const t0 = performance.now();
-      last = solve();
-      times.push(performance.now() - t0);
+/** Median times of one packed-bed solve per case and variant; returns the report lines. */
+export function runPbrSolve(repeats = 200): { lines: string[] } {
+  const lines: string[] = [];
+  for (const c of cases) {
+    for (const [label, opts] of variants) {
+      let last: ReactorSolution | undefined;
+      const solve = () => solveReactor({ kind: 'packed-bed', phase: 'gas', pressureDrop: { alpha: c.alpha } }, c.run, c.kin, c.theta, opts);
+      for (let i = 0; i < 20; i++) solve(); // warm-up
+      const times: number[] = [];
+      for (let i = 0; i < repeats; i++) {
+        const t0 = performance.now();
+        last = solve();
+        times.push(performance.now() - t0);
+      }
+      const s = last!;
+      lines.push(
+        `pbr-solve ${c.name}, ${label}: median ${median(times).toFixed(3)} ms, ` +
+          `rhs evaluations ${s.stats.rhsEvaluations}, jacobians ${s.stats.jacobianEvaluations}, steps ${s.stats.steps}, ` +
+          `method ${s.stats.method}, status ${s.status}`,
+      );
     }
-    const s = last!;
-    console.log(
-      `pbr-solve ${c.name}, ${label}: median ${median(times).toFixed(3)} ms, ` +
-        `rhs evaluations ${s.stats.rhsEvaluations}, jacobians ${s.stats.jacobianEvaluations}, steps ${s.stats.steps}, ` +
-        `method ${s.stats.method}, status ${s.status}`,
-    );
   }
+  return { lines };
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  for (const l of runPbrSolve().lines) console.log(l);
 }
