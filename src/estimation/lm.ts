@@ -2,7 +2,7 @@
  * Trust-region Levenberg-Marquardt with variable scaling.
  *
  * Method: J. J. More (1978), "The Levenberg-Marquardt algorithm: implementation and theory", in
- * Numerical Analysis (G. A. Watson, ed.), Lecture Notes in Mathematics 630, Springer, 105-116; the
+ * Numerical Analysis (G. A. Watson, ed.), Springer LNM 630, 105-116; the
  * outer loop, scaling (D = running maximum of the Jacobian column norms), trust-radius update and the
  * ftol / xtol / gtol tests follow MINPACK lmder (More, Garbow & Hillstrom 1980, ANL-80-74). The
  * Levenberg-Marquardt parameter for ||D p|| <= Delta is found by More's safeguarded Newton iteration
