@@ -12,6 +12,7 @@ import { studyCoverage } from './coverage';
 import { derivedQuantities, type DerivedQuantity } from './derived';
 import { studyFitData, type StudyFitData } from './fit-data';
 import { StudyModel, baseVariant, candidateVariant, type ModelVariant, type StudyModelOptions } from './study-model';
+import { estimateStartValues, type StartValueOptions, type StartValues } from './start-values';
 import { VERSION } from '../version';
 
 export interface StudyFitOptions extends FitOptions {
@@ -19,8 +20,13 @@ export interface StudyFitOptions extends FitOptions {
   variant?: string;
   /** Reactor solve tolerances and Jacobian choice. */
   model?: StudyModelOptions;
-  /** Latin-hypercube starts in addition to the given start (0 = a single fit); default 0. */
+  /**
+   * Latin-hypercube starts in addition to the given start (0 = a single fit); default 0, or 20
+   * when the study left any start of this rate-law set to rateloom (see start-values.ts).
+   */
   starts?: number;
+  /** Rules of the start-value estimate (conversion limits of the differential method). */
+  startValues?: StartValueOptions;
   /** Seed of the multistart design; default 1. */
   seed?: number;
   /** Progress of a multistart, (done, total). */
@@ -36,6 +42,14 @@ export interface StudyFit {
   minima?: Minimum[];
   /** Pre-exponential factors (Arrhenius) and van 't Hoff factors with their intervals. */
   derived: DerivedQuantity[];
+  /** The starting values rateloom estimated, and how (absent when the study gave every value). */
+  startValues?: StartValues;
+}
+
+/** Names of the parameters of a rate-law set whose start the study left open. */
+export function openStarts(study: Study, variant: string): string[] {
+  if (variant === 'base') return study.autoStart ?? [];
+  return study.candidates.find((c) => c.name === variant)?.autoStart ?? [];
 }
 
 /** The rate-law sets of a study: 'base' first, then its candidates. */
@@ -58,16 +72,21 @@ export function findVariant(study: Study, name: string): ModelVariant {
 
 /** Fit one rate-law set of a study. Bad input throws; convergence trouble is the fit's status. */
 export function fitStudy(study: Study, options: StudyFitOptions = {}): StudyFit {
-  const variant = findVariant(study, options.variant ?? 'base');
+  const given = findVariant(study, options.variant ?? 'base');
+  const open = openStarts(study, given.name).filter((n) => given.parameters.some((p) => p.name === n && !p.fixed));
+  const startValues = open.length ? estimateStartValues(study, given, open, options.startValues) : undefined;
+  const variant: ModelVariant = startValues ? { ...given, parameters: startValues.parameters } : given;
+  const sv = startValues ? { startValues } : {};
   const model = new StudyModel(study, variant, options.model);
   const derivedOf = (fit: FitResult) => derivedQuantities(fit, variant.reactions.map((r) => r.rate), study.referenceTemperature);
   const data = studyFitData(study);
-  if (options.starts && options.starts > 0) {
-    const ms = multistartFit(model, variant.parameters, data, { ...options, starts: options.starts, seed: options.seed ?? 1 });
-    return { variant: variant.name, fit: ms.best, model, data, minima: ms.minima, derived: derivedOf(ms.best) };
+  const starts = options.starts ?? (startValues ? 20 : 0);
+  if (starts > 0) {
+    const ms = multistartFit(model, variant.parameters, data, { ...options, starts, seed: options.seed ?? 1 });
+    return { variant: variant.name, fit: ms.best, model, data, minima: ms.minima, derived: derivedOf(ms.best), ...sv };
   }
   const fit = fitModel(model, variant.parameters, data, options);
-  return { variant: variant.name, fit, model, data, derived: derivedOf(fit) };
+  return { variant: variant.name, fit, model, data, derived: derivedOf(fit), ...sv };
 }
 
 /**
