@@ -41,7 +41,7 @@ interface RawStudy {
   data: SourceSpec[];
   parameters: ParameterSpec[];
   errorModels?: Record<string, { absolute?: MeasureSpec; relative?: number; replicates?: true }>;
-  candidates?: { name: string; description?: string; reactions: Record<string, RateLawSpec>; parameters?: ParameterSpec[] }[];
+  candidates?: { name: string; description?: string; nests?: string; reactions: Record<string, RateLawSpec>; parameters?: ParameterSpec[] }[];
   checks?: Partial<CheckSettings> & { strict?: boolean };
 }
 
@@ -384,12 +384,37 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     }
     const kept = raw.parameters.filter((p) => used.has(p.name) || p.scope === 'per-run-group');
     const own = buildParameters([...kept, ...(c.parameters ?? [])], reactions.map((r) => r.rate), groups, hasGroupColumn, [...path, 'parameters'], parameterRoles(reactions.map((r) => r.rate), coefficient));
-    return { name: c.name, ...(c.description !== undefined ? { description: c.description } : {}), reactions, replaced, parameters: own.parameters, scopes: own.scopes, ...(own.autoStart.length ? { autoStart: own.autoStart } : {}) };
+    return { name: c.name, ...(c.description !== undefined ? { description: c.description } : {}), ...(c.nests !== undefined ? { nests: c.nests } : {}), reactions, replaced, parameters: own.parameters, scopes: own.scopes, ...(own.autoStart.length ? { autoStart: own.autoStart } : {}) };
   });
   const names = new Set<string>();
   for (const c of candidates) {
+    if (c.nests !== undefined && c.nests !== 'base' && !candidates.some((o) => o.name === c.nests)) {
+      throw new RateloomError('E_VALUE', `candidate '${c.name}' nests '${c.nests}', which is neither 'base' nor another candidate`, {
+        path: ['candidates', candidates.indexOf(c), 'nests'],
+        fix: `Name 'base' or one of: ${candidates.map((o) => o.name).join(', ')}.`,
+      });
+    }
     if (names.has(c.name)) throw new RateloomError('E_VALUE', `candidate name '${c.name}' is used twice`, { path: ['candidates'] });
     names.add(c.name);
+  }
+
+  // Measured rates are predicted from the rate laws as written (no basis conversion): a rate in
+  // mol/(kg s) needs mass-basis rate laws for its species, a rate in mol/(m3 s) volume-basis ones.
+  const rateSets = [{ name: 'the study', reactions: raw.reactions }, ...candidates.map((c) => ({ name: `candidate '${c.name}'`, reactions: c.reactions }))];
+  for (const o of studyObs) {
+    if (o.response !== 'rate') continue;
+    const basis = o.unit === 'mol/(kg s)' ? 'mass' : 'volume';
+    const j = o.speciesIndex ?? keyReactantIndex;
+    for (const set of rateSets) {
+      set.reactions.forEach((r, i) => {
+        const lawBasis = r.rate.basis ?? 'volume';
+        if (chemistry.stoich[i * nS + j] === 0 || lawBasis === basis) return;
+        throw new RateloomError('E_UNIT', `measured rates of ${speciesNames[j]} are per ${basis === 'mass' ? 'kg of catalyst' : 'm3 of fluid'} (${o.location.file}:${o.location.line}), but reaction '${r.id}' of ${set.name} has a ${lawBasis}-basis rate law`, {
+          path: ['reactions', i, 'rate', 'basis'],
+          fix: `Give the rate column in a ${lawBasis === 'mass' ? 'per-mass unit such as mmol/(g min)' : 'per-volume unit such as mol/(L s)'}, or set the rate law's basis to '${basis}'.`,
+        });
+      });
+    }
   }
 
   const study: Study = {

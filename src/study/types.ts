@@ -89,6 +89,8 @@ export interface CandidateSet {
   description?: string;
   /** Full reaction list with the replaced rate laws. */
   reactions: ReactionSpec[];
+  /** A simpler set ('base' or another candidate's name) that this one contains as a special case. */
+  nests?: string;
   /** Ids of the reactions whose rate laws were replaced. */
   replaced: string[];
   /** All parameters of this candidate: the base ones plus its own (SI), expanded per group. */

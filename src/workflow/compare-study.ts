@@ -16,14 +16,10 @@ export interface StudyCompareOptions extends Omit<StudyFitOptions, 'variant'> {
   progress?: (done: number, total: number) => void;
 }
 
-/**
- * Nested pairs: a candidate that declares `nests` (the name of a simpler set it contains) — when
- * the study format gives it; otherwise pairs whose parameter sets are strict subsets of each other
- * and whose rate-law forms allow it are not assumed, only declared pairs are tested.
- */
+/** Nested pairs are those the study declares (candidate `nests`); none is assumed. */
 function nestedPairs(study: Study): Array<readonly [string, string]> {
   const out: Array<readonly [string, string]> = [];
-  for (const c of study.candidates as Array<{ name: string; nests?: string }>) {
+  for (const c of study.candidates) {
     if (c.nests) out.push([c.nests, c.name] as const);
   }
   return out;
