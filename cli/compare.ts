@@ -9,7 +9,9 @@ import type { Command } from 'commander';
 import { compareStudy } from '../src/workflow/compare-study';
 import { fitReportData } from '../src/workflow/fit-report-data';
 import type { Comparison } from '../src/estimation/compare';
+import { join } from 'node:path';
 import { writeFitReport } from './report-render';
+import { assertWritable } from './io';
 import { g, table } from './format';
 import { progressReporter, runCommand } from './run';
 import { readStudy, studyStem } from './study-input';
@@ -62,14 +64,16 @@ export function registerCompare(program: Command): void {
     .addHelpText('after', EXAMPLE)
     .action(async (studyPath: string, flags: CompareFlags) => {
       await runCommand(!!flags.json, async () => {
+        const stem = flags.name ?? studyStem(studyPath);
+        const outDir = flags.out ?? 'reports';
         const { study } = readStudy(studyPath, !!flags.strict);
+        if (flags.report !== false) assertWritable([join(outDir, `${stem}-compare.html`), join(outDir, `${stem}-compare.md`)], { force: !!flags.force });
         const progress = progressReporter(!!flags.json, 'fitting rival rate laws');
         const { fits, comparison } = compareStudy(study, { profile: false, ...(progress ? { progress } : {}) });
         const best = fits.find((f) => f.variant === comparison.ranking[0].name)!;
         let reportPaths: { html: string; markdown: string } | undefined;
         if (flags.report !== false) {
-          const stem = flags.name ?? studyStem(studyPath);
-          const r = await writeFitReport(fitReportData(study, best, comparison), { outDir: flags.out ?? 'reports', baseName: `${stem}-compare`, force: !!flags.force });
+          const r = await writeFitReport(fitReportData(study, best, comparison), { outDir, baseName: `${stem}-compare`, force: !!flags.force });
           reportPaths = { html: r.html, markdown: r.markdown };
         }
         return {

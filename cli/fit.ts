@@ -11,7 +11,7 @@ import { buildHandoff, fitStudy, type StudyFit } from '../src/workflow/fit-study
 import { fitReportData } from '../src/workflow/fit-report-data';
 import type { Study } from '../src/study/types';
 import { writeFitReport } from './report-render';
-import { writeAtomic } from './io';
+import { assertWritable, writeAtomic } from './io';
 import { g, table, withUnit } from './format';
 import { progressReporter, runCommand, toJson } from './run';
 import { readStudy, studyStem } from './study-input';
@@ -119,13 +119,15 @@ export function registerFit(program: Command): void {
         const starts = numberFlag(flags.starts, 'starts', (n) => Number.isInteger(n) && n >= 0, 'Give a whole number of starts, e.g. --starts 20.') ?? 0;
         const seed = numberFlag(flags.seed, 'seed', Number.isInteger, 'Give a whole-number seed, e.g. --seed 7.') ?? 1;
         const level = numberFlag(flags.level, 'level', (n) => n > 0 && n < 1, 'Give a level between 0 and 1, e.g. --level 0.95.') ?? 0.95;
-        const { study, report } = readStudy(studyPath, !!flags.strict);
-        const progress = progressReporter(!!flags.json, 'multistart');
-        const sf = fitStudy(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, starts, seed, level, ...(progress ? { progress } : {}) });
         const stem = flags.name ?? studyStem(studyPath);
         const outDir = flags.out ?? 'reports';
+        const planned = [join(outDir, `${stem}-kinetics.json`), ...(flags.report !== false ? [join(outDir, `${stem}-fit.html`), join(outDir, `${stem}-fit.md`)] : [])];
+        const { study, report } = readStudy(studyPath, !!flags.strict);
+        assertWritable(planned, { force: !!flags.force });
+        const progress = progressReporter(!!flags.json, 'multistart');
+        const sf = fitStudy(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, starts, seed, level, ...(progress ? { progress } : {}) });
         const handoff = buildHandoff(study, sf);
-        const handoffPath = writeAtomic(join(outDir, `${stem}-kinetics.json`), toJson(handoff) + '\n', { force: !!flags.force });
+        const handoffPath = writeAtomic(planned[0], toJson(handoff) + '\n', { force: !!flags.force });
         let reportPaths: { html: string; markdown: string } | undefined;
         if (flags.report !== false) {
           const r = await writeFitReport(fitReportData(study, sf), { outDir, baseName: `${stem}-fit`, force: !!flags.force });

@@ -3,7 +3,7 @@
  * same folder, then rename) and never replace an existing file unless --force is given.
  */
 import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync, unlinkSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
+import { dirname, relative, resolve } from 'node:path';
 import { RateloomError } from '../src/core/errors';
 import { parseJsonText } from '../src/core/json-text';
 
@@ -30,12 +30,33 @@ export interface WriteOptions {
   force?: boolean;
 }
 
-/** Files written by the current command, for the closing list. */
+/** Files written by the current command (relative to the current folder), for the closing list. */
 export const written: string[] = [];
 
+/** A path as shown in messages and JSON: relative to the current folder, so output is reproducible. */
+export function displayPath(path: string): string {
+  return relative(process.cwd(), resolve(path)) || '.';
+}
+
 /**
- * Write `content` to `path` atomically. Refuses to replace an existing file without force.
- * Returns the absolute path written.
+ * Refuse, before any work is done, when one of the outputs of a command already exists and force
+ * is not given, so that a command never writes some of its outputs and then stops at another.
+ */
+export function assertWritable(paths: readonly string[], opts: WriteOptions = {}): void {
+  if (opts.force) return;
+  const existing = paths.filter((p) => existsSync(resolve(p)));
+  if (existing.length) {
+    throw new RateloomError('E_EXISTS', `output${existing.length > 1 ? 's' : ''} ${existing.map((p) => `'${displayPath(p)}'`).join(', ')} already exist${existing.length > 1 ? '' : 's'}; nothing was written`, {
+      location: { file: displayPath(existing[0]) },
+      fix: 'Pass --force to overwrite, or choose another output folder or name (--out, --name).',
+    });
+  }
+}
+
+/**
+ * Write `content` to `path` atomically (a temporary file in the same folder, then rename), so a
+ * reader never sees a half-written file. Refuses to replace an existing file without force.
+ * Returns the path written, relative to the current folder.
  */
 export function writeAtomic(path: string, content: string | Uint8Array, opts: WriteOptions = {}): string {
   const abs = resolve(path);
@@ -61,6 +82,7 @@ export function writeAtomic(path: string, content: string | Uint8Array, opts: Wr
       fix: 'Check that the folder is writable and the disk is not full.',
     });
   }
-  written.push(abs);
-  return abs;
+  const shown = displayPath(abs);
+  written.push(shown);
+  return shown;
 }

@@ -4,7 +4,7 @@
  * --force). Returns the paths written and the drawing warnings for the command's output.
  */
 import { join } from 'node:path';
-import { renderFitReport, renderSizingReport } from '../src/report';
+import type { renderFitReport } from '../src/report';
 import type { FitReportData, ReportWarning, SizingReportData } from '../src/report/types';
 import { writeAtomic } from './io';
 
@@ -20,11 +20,11 @@ export interface ReportWriteOptions {
 }
 
 export interface ReportWriteResult {
-  /** Absolute path of the HTML document. */
+  /** Path of the HTML document (relative to the current folder). */
   html: string;
-  /** Absolute path of the Markdown summary. */
+  /** Path of the Markdown summary (relative to the current folder). */
   markdown: string;
-  /** Absolute paths of separate SVG files (empty unless svgFiles). */
+  /** Paths of separate SVG files, relative to the current folder (empty unless svgFiles). */
   svg: string[];
   /** Problems met while drawing charts. */
   warnings: ReportWarning[];
@@ -50,10 +50,14 @@ async function write(
 
 /** Render and write a fit report (HTML + Markdown). */
 export async function writeFitReport(data: FitReportData, opts: ReportWriteOptions = {}): Promise<ReportWriteResult> {
+  // Loaded on first use: the chart libraries take about a second to load, which every other path
+  // of a command (errors, --help, --no-report) should not pay.
+  const { renderFitReport } = await import('../src/report');
   return write(await renderFitReport(data), 'fit-report', opts);
 }
 
 /** Render and write a sizing report (HTML + Markdown). */
 export async function writeSizingReport(data: SizingReportData, opts: ReportWriteOptions = {}): Promise<ReportWriteResult> {
+  const { renderSizingReport } = await import('../src/report');
   return write(await renderSizingReport(data), 'sizing-report', opts);
 }

@@ -9,8 +9,8 @@ import { parseHandoff } from '../src/design/handoff-load';
 import { kineticsFromHandoff } from '../src/design/kinetics';
 import { loadCase } from '../src/design/case';
 import { sizeReactor, type SizingResult } from '../src/design/size';
-import { readJson, writeAtomic } from './io';
-import { basename } from 'node:path';
+import { assertWritable, readJson, writeAtomic } from './io';
+import { basename, join } from 'node:path';
 import { sizingReportData } from '../src/workflow/sizing-report-data';
 import { writeSizingReport } from './report-render';
 import { progressReporter, runCommand, toJson } from './run';
@@ -120,9 +120,11 @@ export function registerSize(program: Command): void {
       await runCommand(json, async () => {
         const draws = intFlag(flags.draws, 'draws', 0);
         const seed = intFlag(flags.seed, 'seed', 0);
+        const reportStem = `${basename(casePath).replace(/\.json$/i, '').replace(/\.case$/i, '')}-sizing`;
         const h = parseHandoffAt(kineticsPath);
         const dk = kineticsFromHandoff(h);
         const kase = loadCaseAt(casePath, dk.kinetics.speciesNames, dk.kinetics.reactionIds);
+        assertWritable([...(flags.out ? [flags.out] : []), ...(flags.report ? [join(flags.report, `${reportStem}.html`), join(flags.report, `${reportStem}.md`)] : [])], { force: !!flags.force });
         const onProgress = progressReporter(json, 'Monte Carlo');
         const result = sizeReactor({
           handoff: h,
@@ -135,12 +137,14 @@ export function registerSize(program: Command): void {
             ...(onProgress ? { onProgress } : {}),
           },
         });
-        if (flags.out) writeAtomic(flags.out, toJson(result) + '\n', { force: !!flags.force });
+        const outputs: { result?: string; html?: string; markdown?: string } = {};
+        if (flags.out) outputs.result = writeAtomic(flags.out, toJson(result) + '\n', { force: !!flags.force });
         if (flags.report) {
-          const stem = basename(casePath).replace(/\.json$/i, '').replace(/\.case$/i, '');
-          await writeSizingReport(sizingReportData(result), { outDir: flags.report, baseName: `${stem}-sizing`, force: !!flags.force });
+          const r = await writeSizingReport(sizingReportData(result), { outDir: flags.report, baseName: reportStem, force: !!flags.force });
+          outputs.html = r.html;
+          outputs.markdown = r.markdown;
         }
-        return { json: result, text: formatSizing(result), trustworthy: result.success };
+        return { json: Object.keys(outputs).length ? { ...result, outputs } : result, text: formatSizing(result), trustworthy: result.success };
       });
     });
 }
