@@ -22,7 +22,8 @@ describe('compareStudy', () => {
     expect(t.largerSignificantlyBetter).toBe(false);
     const base = fits.find((f) => f.variant === 'base')!;
     const wi = fits.find((f) => f.variant === 'waterInhibited')!;
-    // Nesting: the larger set can never fit worse than the one it contains.
-    expect(wi.fit.statistics.ssr).toBeLessThanOrEqual(base.fit.statistics.ssr * (1 + 1e-6));
+    // Nesting: the larger set contains the simpler one only in the limit KW -> 0, which a log-space
+    // parameter approaches but never reaches, so its SSR may exceed the simpler set's only slightly.
+    expect(wi.fit.statistics.ssr).toBeLessThanOrEqual(base.fit.statistics.ssr * (1 + 1e-4));
   });
 });
