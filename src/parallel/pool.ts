@@ -61,23 +61,128 @@ export function chunkRanges(total: number, chunks: number): { start: number; cou
 
 const message = (e: unknown): string => (e instanceof Error ? e.message : String(e));
 
-/** Run jobs in this thread (the serial reference, also used when workers <= 1). */
-async function runSerial<C, S, J, R>(moduleUrl: string, context: C, jobs: readonly J[]): Promise<JobOutcome<R>[]> {
-  const mod = (await import(moduleUrl)) as JobModule<C, S, J, R>;
-  const state = mod.setup ? await mod.setup(context) : (context as unknown as S);
-  const out: JobOutcome<R>[] = [];
-  for (const job of jobs) {
-    try {
-      out.push({ ok: true, value: await mod.runJob(state, job) });
-    } catch (e) {
-      out.push({ ok: false, message: message(e) });
-    }
-  }
-  return out;
+/** A started pool: workers with the job module set up, reusable for several batches of jobs. */
+export interface JobPool<J, R> {
+  /** Worker threads running (0: jobs run in this thread). */
+  readonly workers: number;
+  /** Run a batch; outcomes in job order. One batch at a time. */
+  run(jobs: readonly J[]): Promise<JobOutcome<R>[]>;
+  /** Stop the workers. */
+  close(): Promise<void>;
+}
+
+interface Slot {
+  w: Worker;
+  alive: boolean;
+  current: number;
+  onResult?: (index: number, outcome: JobOutcome<unknown>) => void;
+  onDead?: (index: number, why: string) => void;
 }
 
 /**
- * Run `jobs` through the job module at `moduleUrl` (a file URL string) on worker threads.
+ * Start a pool on the job module at `moduleUrl` (file URL string) with `context` given to every
+ * worker's setup; resolves once every worker has run its setup (a worker that fails to start is
+ * left out). With workers <= 1 the module runs in this thread.
+ */
+export async function startPool<C, J, R>(moduleUrl: string, context: C, options: PoolOptions = {}): Promise<JobPool<J, R>> {
+  const nWorkers = options.workers ?? availableParallelism();
+  if (nWorkers <= 1) {
+    const mod = (await import(moduleUrl)) as JobModule<C, unknown, J, R>;
+    const state = mod.setup ? await mod.setup(context) : context;
+    return {
+      workers: 0,
+      async run(jobs) {
+        const out: JobOutcome<R>[] = [];
+        for (const job of jobs) {
+          try {
+            out.push({ ok: true, value: await mod.runJob(state, job) });
+          } catch (e) {
+            out.push({ ok: false, message: message(e) });
+          }
+        }
+        return out;
+      },
+      async close() {},
+    };
+  }
+  const slots: Slot[] = [];
+  await Promise.all(
+    Array.from({ length: nWorkers }, () =>
+      new Promise<void>((ready) => {
+        const w = new Worker(BOOTSTRAP, { eval: true, workerData: { moduleUrl, context } });
+        const slot: Slot = { w, alive: false, current: -1 };
+        let started = false;
+        w.on('message', (m: { type: 'ready' } | { type: 'result'; index: number; ok: boolean; value?: R; message?: string }) => {
+          if (m.type === 'ready') {
+            started = true;
+            slot.alive = true;
+            slots.push(slot);
+            ready();
+            return;
+          }
+          slot.onResult?.(m.index, m.ok ? { ok: true, value: m.value } : { ok: false, message: m.message ?? 'job failed' });
+        });
+        const dead = (why: string) => {
+          slot.alive = false;
+          if (!started) {
+            started = true;
+            ready();
+          } else if (slot.current >= 0) slot.onDead?.(slot.current, why);
+        };
+        w.on('error', (e) => dead(`worker error: ${message(e)}`));
+        w.on('exit', (code) => dead(`worker exited with code ${code}`));
+      }),
+    ),
+  );
+  return {
+    workers: slots.length,
+    run(jobs) {
+      const results: JobOutcome<R>[] = new Array(jobs.length);
+      let next = 0;
+      let pending = jobs.length;
+      return new Promise((resolve) => {
+        if (pending === 0) return resolve(results);
+        const finish = (index: number, o: JobOutcome<R>) => {
+          if (results[index] !== undefined) return;
+          results[index] = o;
+          if (--pending === 0) resolve(results);
+        };
+        const failRest = () => {
+          // no live worker left: report the jobs never handed out, never drop them
+          if (slots.some((s) => s.alive)) return;
+          while (next < jobs.length) finish(next++, { ok: false, message: 'no worker left to run the job' });
+        };
+        const feed = (slot: Slot) => {
+          if (!slot.alive || next >= jobs.length) {
+            slot.current = -1;
+            return;
+          }
+          slot.current = next++;
+          slot.w.postMessage({ index: slot.current, job: jobs[slot.current] });
+        };
+        for (const slot of slots) {
+          slot.onResult = (index, o) => {
+            finish(index, o as JobOutcome<R>);
+            feed(slot);
+          };
+          slot.onDead = (index, why) => {
+            finish(index, { ok: false, message: why });
+            failRest();
+          };
+          feed(slot);
+        }
+        failRest();
+      });
+    },
+    async close() {
+      await Promise.all(slots.map((s) => ((s.alive = false), s.w.terminate())));
+    },
+  };
+}
+
+/**
+ * Run `jobs` through the job module at `moduleUrl` (a file URL string) on worker threads started
+ * for this call (see startPool for a reusable pool).
  * @param context passed once to each worker's setup (structured clone: plain data, typed arrays, Maps)
  * @returns one outcome per job, in job order
  */
@@ -87,47 +192,11 @@ export async function runJobs<C, J, R>(
   jobs: readonly J[],
   options: PoolOptions = {},
 ): Promise<JobOutcome<R>[]> {
-  const nWorkers = Math.min(options.workers ?? availableParallelism(), jobs.length);
-  if (nWorkers <= 1) return runSerial<C, unknown, J, R>(moduleUrl, context, jobs);
-  const results: JobOutcome<R>[] = new Array(jobs.length);
-  let next = 0;
-  const workers: Worker[] = [];
-  await new Promise<void>((resolve) => {
-    let active = nWorkers;
-    const finishWorker = (w: Worker) => {
-      void w.terminate();
-      if (--active === 0) resolve();
-    };
-    for (let i = 0; i < nWorkers; i++) {
-      const w = new Worker(BOOTSTRAP, { eval: true, workerData: { moduleUrl, context } });
-      workers.push(w);
-      let current = -1;
-      let done = false;
-      const feed = () => {
-        if (next >= jobs.length) {
-          done = true;
-          finishWorker(w);
-          return;
-        }
-        current = next++;
-        w.postMessage({ index: current, job: jobs[current] });
-      };
-      w.on('message', (m: { type: 'ready' } | { type: 'result'; index: number; ok: boolean; value?: R; message?: string }) => {
-        if (m.type === 'ready') return feed();
-        results[m.index] = m.ok ? { ok: true, value: m.value as R } : { ok: false, message: m.message ?? 'job failed' };
-        feed();
-      });
-      const fail = (why: string) => {
-        if (done) return;
-        done = true;
-        if (current >= 0 && results[current] === undefined) results[current] = { ok: false, message: why };
-        finishWorker(w);
-      };
-      w.on('error', (e) => fail(`worker error: ${message(e)}`));
-      w.on('exit', (code) => fail(`worker exited with code ${code}`));
-    }
-  });
-  // jobs never handed out (every worker died) are reported, not dropped
-  for (let i = 0; i < jobs.length; i++) if (results[i] === undefined) results[i] = { ok: false, message: 'no worker left to run the job' };
-  return results;
+  const workers = Math.min(options.workers ?? availableParallelism(), jobs.length);
+  const pool = await startPool<C, J, R>(moduleUrl, context, { workers });
+  try {
+    return await pool.run(jobs);
+  } finally {
+    await pool.close();
+  }
 }

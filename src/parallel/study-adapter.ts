@@ -6,8 +6,8 @@
 import type { FitResult } from '../estimation/fit-types';
 import { latinHypercube } from '../estimation/multistart';
 import type { Study } from '../study/types';
-import { runJobs, type JobOutcome, type PoolOptions } from './pool';
-import type { ProfileJob, StartJob, StartResult, StudyJobContext, StudyJobResult } from './study-jobs';
+import { runJobs, startPool, type JobOutcome, type JobPool, type PoolOptions } from './pool';
+import type { ProfileJob, StartJob, StartResult, StudyJob, StudyJobContext, StudyJobResult } from './study-jobs';
 
 const JOBS_URL = new URL('./study-jobs.ts', import.meta.url).href;
 
@@ -24,6 +24,16 @@ export function profileJobs(fit: FitResult): ProfileJob[] {
     jobs.push({ kind: 'profile', index: j, thetaHat, ssrMin: fit.statistics.ssr, internalStdError: Math.sqrt(cov[k][k]), linear: p.ci.linear });
   });
   return jobs;
+}
+
+/** A reusable pool whose workers hold the study model (for several batches: profiles, starts). */
+export function startStudyPool(ctx: StudyJobContext, pool: PoolOptions = {}): Promise<JobPool<StudyJob, StudyJobResult>> {
+  return startPool<StudyJobContext, StudyJob, StudyJobResult>(JOBS_URL, ctx, pool);
+}
+
+/** Start jobs of a multistart design. */
+export function startJobs(design: number[][]): StartJob[] {
+  return design.map((x) => ({ kind: 'start', x }));
 }
 
 /** Run the profiles of a fit of `study` on worker threads; outcomes in parameter order. */
@@ -54,8 +64,7 @@ export function multistartDesign(
 
 /** Run multistart starts on worker threads; outcomes in design order. */
 export async function parallelStarts(ctx: StudyJobContext, design: number[][], pool: PoolOptions = {}): Promise<JobOutcome<StartResult>[]> {
-  const jobs: StartJob[] = design.map((x) => ({ kind: 'start', x }));
-  return runJobs<StudyJobContext, StartJob, StartResult>(JOBS_URL, ctx, jobs, pool);
+  return runJobs<StudyJobContext, StartJob, StartResult>(JOBS_URL, ctx, startJobs(design), pool);
 }
 
 export type { Study };
