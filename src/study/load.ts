@@ -400,7 +400,10 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
 
   // Measured rates are predicted from the rate laws as written (no basis conversion): a rate in
   // mol/(kg s) needs mass-basis rate laws for its species, a rate in mol/(m3 s) volume-basis ones.
-  const rateSets = [{ name: 'the study', reactions: raw.reactions }, ...candidates.map((c) => ({ name: `candidate '${c.name}'`, reactions: c.reactions }))];
+  const rateSets = [
+    { name: 'the study', reactions: raw.reactions, at: (i: number) => ['reactions', i, 'rate', 'basis'] },
+    ...candidates.map((c, ci) => ({ name: `candidate '${c.name}'`, reactions: c.reactions, at: (i: number) => (c.replaced.includes(c.reactions[i].id) ? ['candidates', ci, 'reactions', c.reactions[i].id, 'basis'] : ['reactions', i, 'rate', 'basis']) })),
+  ];
   for (const o of studyObs) {
     if (o.response !== 'rate') continue;
     const basis = o.unit === 'mol/(kg s)' ? 'mass' : 'volume';
@@ -410,7 +413,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
         const lawBasis = r.rate.basis ?? 'volume';
         if (chemistry.stoich[i * nS + j] === 0 || lawBasis === basis) return;
         throw new RateloomError('E_UNIT', `measured rates of ${speciesNames[j]} are per ${basis === 'mass' ? 'kg of catalyst' : 'm3 of fluid'} (${o.location.file}:${o.location.line}), but reaction '${r.id}' of ${set.name} has a ${lawBasis}-basis rate law`, {
-          path: ['reactions', i, 'rate', 'basis'],
+          path: set.at(i),
           fix: `Give the rate column in a ${lawBasis === 'mass' ? 'per-mass unit such as mmol/(g min)' : 'per-volume unit such as mol/(L s)'}, or set the rate law's basis to '${basis}'.`,
         });
       });
