@@ -1,20 +1,25 @@
 /**
- * Browser check of the HTML reports: Debian's chromium (driven by playwright-core) opens the
- * generated fit and sizing reports from file:// URLs. The page must log no console errors, make no
+ * Browser check of the HTML reports: the demo is run (packed-bed study only, fewer Monte Carlo
+ * draws), then Debian's chromium (driven by playwright-core) opens the demo's index page and its
+ * fit, comparison and sizing reports from file:// URLs. The page must log no console errors, make no
  * request other than the file itself, and show marks in every chart's SVG. Screenshots go to
  * reports/. If chromium is missing the test FAILS (CI installs it in .ci/run); it never skips.
  */
 import { execSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { chromium, type BrowserContext } from 'playwright-core';
 import { afterAll, describe, expect, it } from 'vitest';
-import { renderFitReport, renderSizingReport } from '../../src/report';
-import { sampleFitReportData, sampleSizingReportData } from '../report/fixtures/sample-data';
+import { runDemo, type DemoResult } from '../../cli/demo';
 
 const REPORTS = resolve(__dirname, '../../reports');
+const DEMO_OUT = join(REPORTS, 'demo-browser');
+
+let demo: Promise<DemoResult> | undefined;
+/** Run the demo once for all tests of this file (packed bed only; 300 draws per sizing). */
+const demoReports = (): Promise<DemoResult> => (demo ??= runDemo({ outDir: DEMO_OUT, liquids: false, draws: 300, force: true }));
 
 function chromiumPath(): string {
   try {
@@ -65,11 +70,10 @@ afterAll(async () => {
   if (userDataDir) rmSync(userDataDir, { recursive: true, force: true });
 });
 
-async function checkInBrowser(html: string, file: string, screenshot: string, expectedCharts: number): Promise<void> {
+async function checkInBrowser(path: string, screenshot: string): Promise<void> {
   const ctx = await browser();
-  mkdirSync(REPORTS, { recursive: true });
-  const path = join(REPORTS, file);
-  writeFileSync(path, html);
+  const html = readFileSync(path, 'utf8');
+  const expectedCharts = (html.match(/<figure class="chart/g) ?? []).length;
   const url = pathToFileURL(path).href;
   const page = await ctx.newPage();
   const errors: string[] = [];
@@ -106,13 +110,25 @@ async function checkInBrowser(html: string, file: string, screenshot: string, ex
 }
 
 describe('HTML report in a headless browser', () => {
-  it('fit report opens from file:// with no errors, no network and marks in every chart', async () => {
-    const rendered = await renderFitReport(sampleFitReportData());
-    await checkInBrowser(rendered.html, 'sample-fit-report.html', 'report-screenshot.png', rendered.charts.length);
+  it('demo fit report opens from file:// with no errors, no network and marks in every chart', async () => {
+    const r = await demoReports();
+    await checkInBrowser(join(r.outDir, 'pbr-fit.html'), 'report-screenshot.png');
   });
 
-  it('sizing report opens from file:// with no errors, no network and marks in every chart', async () => {
-    const rendered = await renderSizingReport(sampleSizingReportData());
-    await checkInBrowser(rendered.html, 'sample-sizing-report.html', 'sizing-report-screenshot.png', rendered.charts.length);
+  it('demo comparison report shows the rival models', async () => {
+    const r = await demoReports();
+    await checkInBrowser(r.comparison.report.html, 'compare-report-screenshot.png');
+  });
+
+  it('demo sizing report opens with its charts and the cautions', async () => {
+    const r = await demoReports();
+    const html = r.sizing[0].report.html;
+    expect(readFileSync(html, 'utf8')).toMatch(/licensed engineers/);
+    await checkInBrowser(html, 'sizing-report-screenshot.png');
+  });
+
+  it('demo index page links the reports', async () => {
+    const r = await demoReports();
+    await checkInBrowser(r.index, 'index-screenshot.png');
   });
 });
