@@ -126,7 +126,7 @@ export function fitReportData(study: Study, sf: StudyFit, comparison?: Compariso
     warnings: fit.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.path ? { path: w.path } : {}) })),
     parameters: [
       ...parameterRows(sf),
-      ...sf.derived.map((q) => ({ name: q.name, unit: q.unit, value: q.value, stdError: q.stdError, ciLevel: q.ci.level, linearCI: q.ci.linear, profileCI: null, flags: [`derived: ${q.definition}`] })),
+      ...sf.derived.map((q) => ({ name: q.name, unit: q.unit, value: q.value, stdError: q.stdError, ciLevel: q.ci.level, linearCI: q.ci.linear, profileCI: null, flags: [`derived = ${q.definition.split(',')[0]}`] })),
     ],
     correlation: fit.correlation.matrix ? { names: fit.correlation.names, matrix: fit.correlation.matrix } : null,
     statistics: {

@@ -70,6 +70,28 @@ export function findVariant(study: Study, name: string): ModelVariant {
   return v;
 }
 
+/**
+ * Estimation names observations by index; a study knows their runs. Rewrite the influential-
+ * observation warning to name run, response and CSV line, with the run ids as its path.
+ */
+function nameObservations(fit: FitResult, study: Study): FitResult {
+  if (!fit.influential.length) return fit;
+  const label = (i: number) => {
+    const o = study.observations[i];
+    return `run ${o.runId} ${o.species ?? ''} ${o.response}${o.position !== undefined ? ` at ${o.position}` : ''} (${o.location.file}:${o.location.line})`.replace(/\s+/g, ' ');
+  };
+  const warnings = fit.warnings.map((w) =>
+    w.code === 'influential-observations'
+      ? {
+          ...w,
+          message: `${fit.influential.length} influential observation(s) (Cook's distance > 4/n or |studentized residual| > 3): ${fit.influential.map((o) => label(o.index)).join('; ')}`,
+          path: [...new Set(fit.influential.map((o) => study.observations[o.index].runId))],
+        }
+      : w,
+  );
+  return { ...fit, warnings };
+}
+
 /** Fit one rate-law set of a study. Bad input throws; convergence trouble is the fit's status. */
 export function fitStudy(study: Study, options: StudyFitOptions = {}): StudyFit {
   const given = findVariant(study, options.variant ?? 'base');
