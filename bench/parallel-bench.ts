@@ -5,12 +5,15 @@
  * Times include starting the workers (tsx + module load + model setup in each).
  * Run alone: npx tsx bench/parallel-bench.ts
  */
+import { readFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
+import { quantileSorted } from '../src/design/uncertainty';
+import { parallelDraws } from '../src/parallel/mc-adapter';
 import { fitStudy } from '../src/workflow/fit-study';
 import { multistartDesign, profileJobs, startJobs, startStudyPool } from '../src/parallel/study-adapter';
 import { syntheticStudy } from './synthetic-study';
 
-export async function runParallelBench(quick = false): Promise<{ lines: string[]; results: Record<string, unknown> }> {
+export async function runParallelBench(quick = false, serialMc?: { drawsMs: number; medianKg: number; p90Kg: number; p95Kg: number; draws: number }): Promise<{ lines: string[]; results: Record<string, unknown> }> {
   const runs = 50;
   const study = syntheticStudy(runs);
   const sf = fitStudy(study, { profile: false });
@@ -56,6 +59,30 @@ export async function runParallelBench(quick = false): Promise<{ lines: string[]
     out[name] = { jobs: s1.outcomes.length, serialMs: s1.ms, twoWorkersMs: s2.ms, speedup: s1.ms / s2.ms, speedupWithStart: withStart, identical: same };
   }
   results.poolStartMs = two.startMs;
+
+  // Monte Carlo draws of the sizing case (bench/mc-sizing.ts), in chunks
+  const root = new URL('../tests/design/fixtures/', import.meta.url);
+  const mcCtx = {
+    handoff: JSON.parse(readFileSync(new URL('bed.kinetics.json', root), 'utf8')),
+    case: JSON.parse(readFileSync(new URL('bed.case.json', root), 'utf8')),
+  };
+  const draws = serialMc?.draws ?? (quick ? 1000 : 10000);
+  const stats = (v: Float64Array) => {
+    const ok = Float64Array.from(v.filter((x) => Number.isFinite(x))).sort();
+    return { median: quantileSorted(ok, 0.5), p90: quantileSorted(ok, 0.9), p95: quantileSorted(ok, 0.95), failed: v.length - ok.length };
+  };
+  const m1 = await time(() => parallelDraws(mcCtx, { draws, workers: 1, chunks: 8 }));
+  const m2 = await time(() => parallelDraws(mcCtx, { draws, workers: 2, chunks: 8 }));
+  const st1 = stats(m1.value.values);
+  const st2 = stats(m2.value.values);
+  const sameMc = m1.value.values.every((x, i) => Object.is(x, m2.value.values[i]));
+  const matchesSize = serialMc ? st2.median === serialMc.medianKg && st2.p90 === serialMc.p90Kg && st2.p95 === serialMc.p95Kg : undefined;
+  lines.push(
+    `Monte Carlo, ${draws} draws in 8 chunks: serial ${(m1.ms / 1000).toFixed(2)} s, 2 workers ${(m2.ms / 1000).toFixed(2)} s (pool start included) -> speed-up ${(m1.ms / m2.ms).toFixed(2)}x; ` +
+      `identical draws: ${sameMc}; median ${st2.median.toFixed(3)} kg, P90 ${st2.p90.toFixed(3)}, P95 ${st2.p95.toFixed(3)}, failed ${st2.failed}` +
+      (matchesSize !== undefined ? `; equal to sizeReactor's serial percentiles: ${matchesSize}` : ''),
+  );
+  results.monteCarlo = { draws, serialMs: m1.ms, twoWorkersMs: m2.ms, speedup: m1.ms / m2.ms, identical: sameMc, matchesSizeReactor: matchesSize, median: st2.median, p90: st2.p90, p95: st2.p95, status: m2.value.status, serialStats: st1 };
   results.batches = out;
   return { lines, results };
 }
