@@ -105,9 +105,10 @@ export function fitStudy(study: Study, options: StudyFitOptions = {}): StudyFit 
   const starts = options.starts ?? (startValues ? 20 : 0);
   if (starts > 0) {
     const ms = multistartFit(model, variant.parameters, data, { ...options, starts, seed: options.seed ?? 1 });
-    return { variant: variant.name, fit: ms.best, model, data, minima: ms.minima, derived: derivedOf(ms.best), ...sv };
+    const best = nameObservations(ms.best, study);
+    return { variant: variant.name, fit: best, model, data, minima: ms.minima, derived: derivedOf(best), ...sv };
   }
-  const fit = fitModel(model, variant.parameters, data, options);
+  const fit = nameObservations(fitModel(model, variant.parameters, data, options), study);
   return { variant: variant.name, fit, model, data, derived: derivedOf(fit), ...sv };
 }
 
