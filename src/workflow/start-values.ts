@@ -22,7 +22,9 @@
  * (one temperature for E, one concentration level for an order) that parameter keeps its default.
  *
  * Every other open parameter keeps the documented default of study/parameters.ts
- * (defaultStartValue). Estimates are put inside the parameter bounds. Pure: no I/O.
+ * (defaultStartValue), except an adsorption constant without finite bounds, which starts at
+ * 1 / (mean inlet concentration, or partial pressure, of its species) so that its term in the
+ * denominator is of order 1. Estimates are put inside the parameter bounds. Pure: no I/O.
  */
 import type { Parameter } from '../core/parameter';
 import { compileKinetics } from '../kinetics/compile';
@@ -124,6 +126,24 @@ export function estimateStartValues(study: Study, variant: ModelVariant, open: r
     for (const [n, how] of result.method) method.set(n, how);
   }
 
+  // Adsorption constants without finite bounds: K = 1 / (mean inlet X of the species), so K X ~ 1.
+  const defaultHow = new Map<string, string>();
+  const C = new Float64Array(nS);
+  rates.forEach((r) => {
+    if (r.form !== 'lhhw') return;
+    for (const [sp, ref] of Object.entries(r.adsorption)) {
+      const j = chem.speciesNames.indexOf(sp);
+      let sum = 0;
+      for (const run of study.runs) sum += inletConcentrations(run, study, C)[j] * (r.pressureBasis ? R_GAS * run.temperature : 1);
+      const mean = study.runs.length && j >= 0 ? sum / study.runs.length : 0;
+      for (const p of variant.parameters) {
+        if (baseOf(p.name) !== ref.K || !openSet.has(p.name) || (p.lower > 0 && Number.isFinite(p.upper)) || !(mean > 0)) continue;
+        values.set(p.name, Math.min(p.upper, Math.max(1 / mean, p.lower)));
+        defaultHow.set(p.name, `default: 1 / mean inlet ${r.pressureBasis ? 'partial pressure' : 'concentration'} of ${sp} (${fmt(mean)} ${r.pressureBasis ? 'Pa' : 'mol/m3'}), so that K X is about 1`);
+      }
+    }
+  });
+
   // Report, with values put inside the bounds.
   const coefficient = (i: number, sp: string, side: 'forward' | 'reverse'): number => {
     const j = chem.speciesNames.indexOf(sp);
@@ -146,7 +166,7 @@ export function estimateStartValues(study: Study, variant: ModelVariant, open: r
         value = p.upper;
         detail += '; the estimate lay above the upper bound, start put at the bound';
       }
-    } else detail = defaultDetail(p, roles.get(baseOf(p.name))?.role);
+    } else detail = defaultHow.get(p.name) ?? defaultDetail(p, roles.get(baseOf(p.name))?.role);
     estimated.push({ name: p.name, value, unit, method: method.has(p.name) ? 'differential' : 'default', detail });
     return { ...p, value, unit };
   });
