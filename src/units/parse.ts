@@ -27,8 +27,9 @@ const ATOM_RE = /^[A-Za-z%µ°]+/;
 const NUM_RE = /^[-+]?\d+(\.\d+)?/;
 
 function lookupAtom(name: string): ParsedUnit | undefined {
-  const key = ATOMS[name] ? name : ALIASES[name];
-  const a = key ? ATOMS[key] : undefined;
+  // Own properties only: 'constructor' or '__proto__' are not units.
+  const key = Object.hasOwn(ATOMS, name) ? name : Object.hasOwn(ALIASES, name) ? ALIASES[name] : undefined;
+  const a = key !== undefined && Object.hasOwn(ATOMS, key) ? ATOMS[key] : undefined;
   return a ? { factor: a.factor, dims: a.dims, exact: a.exact } : undefined;
 }
 
