@@ -177,6 +177,10 @@ class RowReader {
     }
     const x = Number(raw);
     const si = p.conv.toSI(x);
+    if (!Number.isFinite(si)) {
+      this.reject('out-of-range', `'${raw}' ${p.conv.unit} is too large to be a number here (${what})`, header);
+      return undefined;
+    }
     if (min === 'nonneg' && si < 0) {
       this.reject('negative', `${what} is negative (${raw} ${p.conv.unit})`, header);
       return undefined;
