@@ -80,6 +80,12 @@ export function formatFit(study: Study, sf: StudyFit): string {
     L.push('', 'Correlation of the estimates:');
     L.push(table([['', ...c.names], ...c.matrix.map((r, i) => [c.names[i], ...r.map((v) => v.toFixed(3))])]));
   }
+  if (sf.startValues) {
+    const sv = sf.startValues;
+    L.push('', `Starting values estimated by rateloom (the study gave none); then ${sf.minima ? `a multistart fit (${sf.minima.reduce((n, m) => n + m.count, 0)} starts converged; change with --starts)` : 'a single fit'}:`);
+    L.push(table([['parameter', 'start', 'unit', 'how'], ...sv.estimated.map((e) => [e.name, g(e.value, 4), e.unit, e.detail])]));
+    for (const n of sv.notes) L.push(`  note: ${n}`);
+  }
   if (sf.minima && sf.minima.length > 1) {
     L.push('', `Multistart found ${sf.minima.length} distinct minima (weighted SSR): ${sf.minima.map((m) => `${g(m.ssr, 6)} (${m.count} starts)`).join(', ')}`);
   }
@@ -107,7 +113,7 @@ export function registerFit(program: Command): void {
     .option('--name <stem>', 'file-name stem of the outputs (default: from the study file name)')
     .option('--no-profile', 'skip the profile-likelihood intervals')
     .option('--no-report', 'skip the HTML and Markdown report')
-    .option('--starts <n>', 'multistart: Latin-hypercube starts in addition to the given start', '0')
+    .option('--starts <n>', 'multistart: Latin-hypercube starts in addition to the given start (default 0, or 20 when a starting value was estimated)')
     .option('--seed <n>', 'seed of the multistart design', '1')
     .option('--level <p>', 'confidence level of the intervals', '0.95')
     .option('--strict', 'fail on any rejected data row')
@@ -116,7 +122,7 @@ export function registerFit(program: Command): void {
     .addHelpText('after', EXAMPLE)
     .action(async (studyPath: string, flags: FitFlags) => {
       await runCommand(!!flags.json, async () => {
-        const starts = numberFlag(flags.starts, 'starts', (n) => Number.isInteger(n) && n >= 0, 'Give a whole number of starts, e.g. --starts 20.') ?? 0;
+        const starts = numberFlag(flags.starts, 'starts', (n) => Number.isInteger(n) && n >= 0, 'Give a whole number of starts, e.g. --starts 20.');
         const seed = numberFlag(flags.seed, 'seed', Number.isInteger, 'Give a whole-number seed, e.g. --seed 7.') ?? 1;
         const level = numberFlag(flags.level, 'level', (n) => n > 0 && n < 1, 'Give a level between 0 and 1, e.g. --level 0.95.') ?? 0.95;
         const stem = flags.name ?? studyStem(studyPath);
@@ -125,7 +131,7 @@ export function registerFit(program: Command): void {
         const { study, report } = readStudy(studyPath, !!flags.strict);
         assertWritable(planned, { force: !!flags.force });
         const progress = progressReporter(!!flags.json, 'multistart');
-        const sf = fitStudy(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, starts, seed, level, ...(progress ? { progress } : {}) });
+        const sf = fitStudy(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, ...(starts !== undefined ? { starts } : {}), seed, level, ...(progress ? { progress } : {}) });
         const handoff = buildHandoff(study, sf);
         const handoffPath = writeAtomic(planned[0], toJson(handoff) + '\n', { force: !!flags.force });
         let reportPaths: { html: string; markdown: string } | undefined;
@@ -145,6 +151,7 @@ export function registerFit(program: Command): void {
             fit: sf.fit,
             derived: sf.derived,
             ...(sf.minima ? { minima: sf.minima } : {}),
+            ...(sf.startValues ? { startValues: { estimated: sf.startValues.estimated, points: sf.startValues.points, notes: sf.startValues.notes } } : {}),
             data: { rowsIn: report.rowsIn, rowsUsed: report.rowsUsed, rowsRejected: report.rowsRejected },
             outputs: { handoff: handoffPath, ...(reportPaths ?? {}) },
           },
