@@ -123,6 +123,47 @@ describe('start values when the study gives none', () => {
     expect(sv.notes.join(' ')).toMatch(/lhhw rate law/);
   });
 
+  it('reversible reaction: the forward term is regressed on low-conversion points; K_eq keeps its default', () => {
+    const s = json(AUTO);
+    s.reactions[0] = { id: 'r1', equation: 'A + B <=> C', rate: { form: 'reversible-power-law', rateConstant: { k: 'k1', activationEnergy: 'E1' }, equilibriumConstant: { K: 'K1' } } };
+    s.parameters.push({ name: 'K1', value: 'auto', unit: 'L/mol', lower: 1e-3, upper: 1e5 });
+    const study = loadObj(s, AUTO);
+    const sv = estimateStartValues(study, baseVariant(study), openStarts(study, 'base'));
+    expect(sv.estimated.map((e) => [e.name, e.method])).toEqual([
+      ['k1', 'differential'],
+      ['E1', 'differential'],
+      ['K1', 'default'],
+    ]);
+    // Common practice, no source: geometric middle of [1e-3, 1e5] L/mol = 10 L/mol = 0.01 m3/mol.
+    expect(sv.estimated[2].value).toBeCloseTo(0.01, 12);
+    expect(sv.notes.join(' ')).toMatch(/reversible: only its forward term/);
+    // Source: auto/truth.json (the data are irreversible, so the forward term is the whole rate).
+    expect(Math.abs(sv.estimated[0].value / autoTruth.k1 - 1)).toBeLessThan(0.2);
+  });
+
+  it('per-run-group rate constants get one intercept per group', () => {
+    const s = json(RATES);
+    s.data[0].columns.group = 'charge';
+    s.parameters = [
+      { name: 'k1', scope: 'per-run-group', lower: 1e-12, upper: 1 },
+      { name: 'E1', unit: 'kJ/mol', lower: 0, upper: 300 },
+      { name: 'nA', lower: 0, upper: 3 },
+    ];
+    const csv = read(join(FIX, 'rates/rates.csv'))
+      .split('\n')
+      .map((l, i) => (i === 1 ? `${l},charge` : l.startsWith('D') ? `${l},${Number(l.slice(1, l.indexOf(','))) % 2 ? 'c1' : 'c2'}` : l))
+      .join('\n');
+    const study = loadStudy(JSON.stringify(s), RATES, (p) => (p.endsWith('rates.csv') ? csv : read(p))).study;
+    expect(study.autoStart).toEqual(['k1@c1', 'k1@c2', 'E1', 'nA']);
+    const sv = estimateStartValues(study, baseVariant(study), openStarts(study, 'base'));
+    for (const n of ['k1@c1', 'k1@c2']) {
+      const e = sv.estimated.find((x) => x.name === n)!;
+      expect(e.method).toBe('differential');
+      // Source: rates/truth.json (both groups were generated with one k).
+      expect(Math.abs(e.value / rateTruth.k1 - 1)).toBeLessThan(0.1);
+    }
+  });
+
   it('default rules: geometric middle, 1 SI, 0 J/mol, stoichiometric coefficient', () => {
     // Common practice, no source: the documented defaults of study/parameters.ts.
     expect(defaultStartValue('constant', 1e-6, 1e2)).toBeCloseTo(1e-2, 12);
