@@ -225,14 +225,36 @@ class TubeWork {
       n,
       nP,
       atol: new Float64Array(n),
+      // the hot path: concentrations, rates and balances inlined (no helper calls besides the kinetics)
       rhs: (_x, y, out) => {
-        const { T, weights, perm, sweep, alpha, FT0 } = this.p;
-        conc(y, C);
-        rt.net(C, T, this.theta, weights, R);
-        for (let j = 0; j < nS; j++) out[j] = R[j] - perm[j] * (C[j] - sweep[j]);
+        const pr = this.p;
+        let FT = 0;
         if (gas) {
+          for (let j = 0; j < nS; j++) FT += y[j];
+          const f = FT > 0 ? (pr.cT0 * y[nS]) / FT : 0;
+          for (let j = 0; j < nS; j++) C[j] = f * y[j];
+        } else {
+          const invV0 = pr.invV0;
+          for (let j = 0; j < nS; j++) C[j] = y[j] * invV0;
+        }
+        kinetics.rates(C, pr.T, this.theta, r);
+        const w = pr.weights;
+        for (let j = 0; j < nS; j++) out[j] = 0;
+        for (let i = 0; i < nR; i++) {
+          const wr = w[i] * r[i];
+          if (wr === 0) continue;
+          const row = i * nS;
+          for (let j = 0; j < nS; j++) out[j] += nu[row + j] * wr;
+        }
+        if (pr.kind === 'membrane') {
+          const perm = pr.perm;
+          const sweep = pr.sweep;
+          for (let j = 0; j < nS; j++) out[j] -= perm[j] * (C[j] - sweep[j]);
+        }
+        if (gas) {
+          const alpha = pr.alpha;
           const p = y[nS] > 1e-12 ? y[nS] : 1e-12;
-          out[nS] = alpha === 0 ? 0 : (-alpha / (2 * p)) * (sum(y, nS) / FT0);
+          out[nS] = alpha === 0 ? 0 : (-alpha / (2 * p)) * (FT / pr.FT0);
         }
       },
       jac: (_x, y, out) => {
