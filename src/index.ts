@@ -44,6 +44,8 @@ export type { RegressionModel, FitResult, FitData, FitOptions, FittedParameter, 
 export { StudyModel } from './workflow/study-model';
 export { fitStudy, buildHandoff, studyVariants, type StudyFit, type StudyFitOptions } from './workflow/fit-study';
 export { compareStudy, type StudyComparison } from './workflow/compare-study';
+export { estimateStartValues } from './workflow/start-values';
+export { derivedQuantities, type DerivedQuantity } from './workflow/derived';
 export { fitReportData } from './workflow/fit-report-data';
 export { sizingReportData } from './workflow/sizing-report-data';
 

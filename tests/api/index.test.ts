@@ -1,3 +1,5 @@
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import * as api from '../../src/index';
 
@@ -7,5 +9,8 @@ describe('public API', () => {
       expect(typeof (api as Record<string, unknown>)[name], name).toBe('function');
     }
     expect(api.VERSION).toMatch(/^\d+\.\d+\.\d+$/);
+    // The version written into hand-off files and reports is the package's own.
+    const pkg = JSON.parse(readFileSync(resolve(__dirname, '../../package.json'), 'utf8')) as { version: string };
+    expect(api.VERSION).toBe(pkg.version);
   });
 });
