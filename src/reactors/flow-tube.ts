@@ -204,6 +204,7 @@ class TubeWork {
     const dRdC = new Float64Array(nS * nS);
     const dRdP = new Float64Array(nS * nP);
     const dC = new Float64Array(nS * nP);
+    const g = new Float64Array(nR * nP);
     const gasJac = gasConcentrationJacobian;
     const sum = sumFirst;
     const conc = (y: Float64Array, out: Float64Array): void => {
@@ -294,13 +295,17 @@ class TubeWork {
       },
       // dS/dx = (df/dy) S + df/dtheta without forming df/dy: dC/dtheta first, then dR/dC dC/dtheta.
       sensRhs: (_x, y, out) => {
-        const { T, weights, perm, alpha, FT0, cT0, invV0 } = this.p;
+        const pr = this.p;
+        const { T, weights, alpha, FT0, cT0, invV0 } = pr;
         const theta = this.theta;
         conc(y, C);
-        rt.jacC(C, T, theta, weights, dRdC);
-        rt.jacP(C, T, theta, weights, dRdP);
-        const FT = gas ? sum(y, nS) : 0;
+        // reaction-level derivatives: dr_i/dC (jc, nR x nS) and dr_i/dtheta (jp, nR x nP)
+        kinetics.ratesJacC(C, T, theta, jc);
+        kinetics.ratesJacP(C, T, theta, jp);
+        let FT = 0;
+        if (gas) for (let j = 0; j < nS; j++) FT += y[j];
         const p = gas ? y[nS] : 1;
+        // dC/dtheta (nS x nP) from the flow and pressure sensitivities
         for (let k = 0; k < nP; k++) {
           if (gas) {
             if (FT > 0) {
@@ -323,13 +328,30 @@ class TubeWork {
             for (let j = 0; j < nS; j++) dC[j * nP + k] = y[n + j * nP + k] * invV0;
           }
         }
-        for (let j = 0; j < nS; j++) {
-          const pj = perm[j];
+        // d r_i/d theta_k along the solution: g = jc dC + jp (nR x nP), weighted by w_i
+        for (let i = 0; i < nR; i++) {
+          const wi = weights[i];
           for (let k = 0; k < nP; k++) {
-            let v = dRdP[j * nP + k] - pj * dC[j * nP + k];
-            for (let m = 0; m < nS; m++) v += dRdC[j * nS + m] * dC[m * nP + k];
-            out[n + j * nP + k] = v;
+            let v = jp[i * nP + k];
+            for (let m = 0; m < nS; m++) {
+              const c = jc[i * nS + m];
+              if (c !== 0) v += c * dC[m * nP + k];
+            }
+            g[i * nP + k] = wi * v;
           }
+        }
+        // dR_j/dtheta_k = sum_i nu_ij g_ik (minus permeation)
+        for (let q = 0; q < nS * nP; q++) out[n + q] = 0;
+        for (let i = 0; i < nR; i++) {
+          for (let j = 0; j < nS; j++) {
+            const c = nu[i * nS + j];
+            if (c === 0) continue;
+            for (let k = 0; k < nP; k++) out[n + j * nP + k] += c * g[i * nP + k];
+          }
+        }
+        if (pr.kind === 'membrane') {
+          const perm = pr.perm;
+          for (let j = 0; j < nS; j++) for (let k = 0; k < nP; k++) out[n + j * nP + k] -= perm[j] * dC[j * nP + k];
         }
       },
     };
