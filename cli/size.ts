@@ -65,7 +65,13 @@ export function formatSizing(r: SizingResult): string {
   L.push(`Status: ${r.status} - ${r.message}`);
   if (r.equilibrium) {
     const e = r.equilibrium;
-    L.push(e.method === 'limiting-reactant' ? `No equilibrium limit on ${e.species} (largest conversion ${g(e.conversion, 6)}, set by the limiting reactant)` : `Equilibrium conversion of ${e.species}: ${g(e.conversion, 6)} (${e.method})`);
+    L.push(
+      e.method === 'limiting-reactant'
+        ? `No equilibrium limit on ${e.species} (largest conversion ${g(e.conversion, 6)}, set by the limiting reactant)`
+        : e.method === 'plateau'
+          ? `Largest conversion of ${e.species} with all reactions running to a very large size: ${g(e.conversion, 6)} (a side reaction that consumes a product can carry it past the equilibrium of the main reaction)`
+          : `Equilibrium conversion of ${e.species}: ${g(e.conversion, 6)}`,
+    );
   }
   if (r.size) {
     L.push(`${r.size.quantity[0].toUpperCase()}${r.size.quantity.slice(1)} (nominal fit): ${g(r.size.value, 5)} ${r.size.unit}`);

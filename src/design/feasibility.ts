@@ -55,6 +55,8 @@ export function equilibriumConversion(kinetics: CompiledKinetics, kase: DesignCa
     const hi = xiMax * (1 - 1e-13);
     const fHi = f(hi);
     const f0 = f(0);
+    // A reactant absent from the feed: nothing reacts; the limit is the feed, not an equilibrium.
+    if (!(f0 > 0) && Number.isFinite(xiMax) && xiMax <= 0) return { species, conversion: 0, method: 'limiting-reactant', settled: true };
     if (!(f0 > 0)) return { species, conversion: 0, method: 'equilibrium', settled: true };
     if (fHi > 0) return { species, conversion: Math.min(1, conv(xiMax)), method: 'limiting-reactant', settled: true };
     const root = brentRoot(f, 0, hi, f0, fHi, 1e-15 * xiMax, 300);
