@@ -30,4 +30,16 @@ registrations.push(registerDemo);
 
 for (const r of registrations) r(program);
 
+// An option that takes a value must not swallow the next flag ('--out --json' would write into a
+// folder named '--json'): refuse it as a usage error.
+program.hook('preAction', (_root, action) => {
+  for (const opt of action.options) {
+    const key = opt.attributeName();
+    const v = action.getOptionValue(key);
+    if (opt.required && typeof v === 'string' && v.startsWith('--')) {
+      action.error(`option '${opt.flags}' got '${v}' as its value`, { code: 'commander.optionMissingArgument' });
+    }
+  }
+});
+
 await program.parseAsync(process.argv);
