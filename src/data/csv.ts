@@ -3,6 +3,9 @@
  * and comment lines starting with '#', trims cells, keeps the 1-based source line of each record.
  * Rows with the wrong number of cells are not thrown out here; the mapping step reports them.
  * A malformed file (an unclosed quote) is a RateloomError('E_CSV') with the line.
+ * Text without double quotes or carriage returns (the common lab export) takes a direct line
+ * splitter that reproduces csv-parse's result for such text exactly (same cells, trimming, skipped
+ * lines and line numbers); anything else goes through csv-parse.
  */
 import { parse } from 'csv-parse/sync';
 import { RateloomError, closestName } from '../core/errors';
@@ -22,17 +25,71 @@ export interface CsvTable {
   rows: CsvRow[];
 }
 
+type ParsedRecord = { record: string[]; info: { lines: number } };
+
 /** csv-parse reports the line where a record ends; step back over newlines inside quoted cells. */
-function startLine(r: { record: string[]; info: { lines: number } }): number {
+function startLine(r: ParsedRecord): number {
   let inner = 0;
-  for (const c of r.record) for (const ch of c) if (ch === '\n') inner++;
+  for (const c of r.record) for (let k = c.indexOf('\n'); k >= 0; k = c.indexOf('\n', k + 1)) inner++;
   return r.info.lines - inner;
+}
+
+/** True when no cell can be quoted and every line ends with '\n' (and no lone surrogate). */
+function isPlain(text: string): boolean {
+  if (text.indexOf('"') >= 0 || text.indexOf('\r') >= 0) return false;
+  const wf = (text as { isWellFormed?: () => boolean }).isWellFormed;
+  return typeof wf === 'function' ? wf.call(text) : !/[\uD800-\uDFFF]/.test(text);
+}
+
+/** csv-parse trims these at the start of a cell (space, tab, form feed; CR/LF end the line here). */
+function isLeftTrim(c: number): boolean {
+  return c === 32 || c === 9 || c === 12;
+}
+
+/**
+ * The records csv-parse returns for plain text (see isPlain) with the options of readCsv: a
+ * leading BOM dropped; a line that is blank after left-trimming or whose first such character is
+ * '#' skipped; cells split at ',', left-trimmed of space/tab/form feed and right-trimmed of white
+ * space (String.prototype.trimEnd); a record whose cells are all white space skipped; `lines` is
+ * the 1-based line of the record.
+ */
+function parsePlain(text: string): ParsedRecord[] {
+  const out: ParsedRecord[] = [];
+  const n = text.length;
+  let start = text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  let line = 1;
+  while (start <= n) {
+    let end = text.indexOf('\n', start);
+    if (end < 0) end = n;
+    let p = start;
+    while (p < end && isLeftTrim(text.charCodeAt(p))) p++;
+    if (p < end && text.charCodeAt(p) !== 35) {
+      const record: string[] = [];
+      let empty = true;
+      let a = p;
+      for (;;) {
+        let b = text.indexOf(',', a);
+        if (b < 0 || b > end) b = end;
+        while (a < b && isLeftTrim(text.charCodeAt(a))) a++;
+        const cell = text.slice(a, b).trimEnd();
+        if (empty && cell.trim() !== '') empty = false;
+        record.push(cell);
+        if (b === end) break;
+        a = b + 1;
+      }
+      if (!empty) out.push({ record, info: { lines: line } });
+    }
+    line++;
+    start = end + 1;
+  }
+  return out;
 }
 
 /** Parse CSV text. `file` is only used in messages. */
 export function readCsv(text: string, file: string): CsvTable {
-  let records: { record: string[]; info: { lines: number } }[];
-  try {
+  let records: ParsedRecord[];
+  if (isPlain(text)) records = parsePlain(text);
+  else try {
     records = parse(text, {
       bom: true,
       comment: '#',
@@ -42,7 +99,7 @@ export function readCsv(text: string, file: string): CsvTable {
       trim: true,
       relax_column_count: true,
       info: true,
-    }) as unknown as { record: string[]; info: { lines: number } }[];
+    }) as unknown as ParsedRecord[];
   } catch (e) {
     const err = e as Error & { lines?: number; code?: string };
     throw new RateloomError('E_CSV', `cannot read CSV: ${err.message}`, {
@@ -53,7 +110,7 @@ export function readCsv(text: string, file: string): CsvTable {
   if (records.length === 0) {
     throw new RateloomError('E_CSV', 'the CSV file has no header row', { location: { file }, fix: 'Add a header row naming the columns.' });
   }
-  const [head, ...rest] = records;
+  const head = records[0];
   const header = head.record.map((h) => h.trim());
   const seen = new Set<string>();
   header.forEach((h, i) => {
@@ -69,8 +126,15 @@ export function readCsv(text: string, file: string): CsvTable {
     file,
     header,
     headerLine: startLine(head),
-    rows: rest.map((r) => ({ line: startLine(r), cells: r.record })),
+    rows: rowsOf(records),
   };
+}
+
+/** The records after the header as rows (a record's start line steps back over quoted newlines). */
+function rowsOf(records: readonly ParsedRecord[]): CsvRow[] {
+  const rows: CsvRow[] = new Array(records.length - 1);
+  for (let i = 1; i < records.length; i++) rows[i - 1] = { line: startLine(records[i]), cells: records[i].record };
+  return rows;
 }
 
 /** Index of a named column; a missing column is E_CSV naming the closest header. */
