@@ -143,16 +143,24 @@ function checkErrorModel(ctx: MappingContext, name: string | undefined, path: Fi
   });
 }
 
-/** Reads cells of one row, collecting problems instead of throwing. */
+/** Reads cells of one row at a time (reset per row), collecting problems instead of throwing. */
 class RowReader {
   problems: Rejection[] = [];
-  constructor(
-    private readonly table: CsvTable,
-    private readonly row: CsvRow,
-  ) {}
+  private row: CsvRow = { line: 0, cells: [] };
+  constructor(private readonly table: CsvTable) {}
+
+  /** Start on `row`; the previous row's problems are dropped (take them first). */
+  reset(row: CsvRow): void {
+    this.row = row;
+    if (this.problems.length) this.problems = [];
+  }
 
   reject(reason: Rejection['reason'], message: string, column?: string): void {
-    this.problems.push({ file: this.table.file, line: this.row.line, ...(column !== undefined ? { column } : {}), reason, message });
+    const p = { file: this.table.file, line: this.row.line } as Rejection;
+    if (column !== undefined) p.column = column;
+    p.reason = reason;
+    p.message = message;
+    this.problems.push(p);
   }
 
   text(col: number): string {
@@ -256,89 +264,101 @@ export function mapPerRunSource(table: CsvTable, spec: PerRunSourceSpec, ctx: Ma
   });
 
   const out: MappedSource = { file: table.file, layout: 'per-run', rowsIn: table.rows.length, runs: [], observations: [], rejections: [], rejectedLines: new Set() };
-  for (const row of table.rows) {
-    const r = new RowReader(table, row);
-    if (row.cells.length !== table.header.length) {
-      r.reject('column-count', `row has ${row.cells.length} cells, the header has ${table.header.length}`);
+  const r = new RowReader(table);
+  const nCols = table.header.length;
+  const needPressure = ctx.phase === 'gas';
+  const needFlow = ctx.phase === 'liquid' && !isBatch;
+  const measuredMin = measured.map(({ m }) => (m.response === 'outlet-flow' || m.response === 'outlet-concentration' || m.response === 'outlet-pressure' ? 'nonneg' : 'any'));
+  const obs: MappedObservation[] = [];
+
+  /** One row; its observations go to `obs`, its run (when the row has no problem) to out.runs. */
+  function readPerRunRow(row: CsvRow): void {
+    const id = r.text(runCol);
+    if (id === '') r.reject('missing', 'run id is empty', cols.run);
+    const group = groupCol !== undefined ? r.text(groupCol) : undefined;
+    if (groupCol !== undefined && group === '') r.reject('missing', 'run group is empty', cols.group);
+    const temperature = r.num(T, true, 'positive');
+    const pressure = P ? r.num(P, needPressure, 'positive') : undefined;
+    const sz = size ? r.num(size, true, 'nonneg') : undefined;
+    const catalystMass = W && size !== W ? r.num(W, false, 'nonneg') : undefined;
+    let feedVec: Float64Array | undefined;
+    const volumetricFlow = v0 ? r.num(v0, needFlow, 'nonneg') : undefined;
+    if (feed) {
+      feedVec = new Float64Array(nS);
+      for (let k = 0; k < feed.length; k++) feedVec[feed[k].j] = r.num(feed[k].p, true, 'nonneg') ?? 0;
+    } else if (fractions && (total || (volumetricFlow !== undefined && ctx.phase === 'gas' && !isBatch))) {
+      let FT: number | undefined;
+      if (total) FT = r.num(total, true, 'nonneg');
+      else if (volumetricFlow !== undefined && pressure !== undefined && temperature !== undefined) FT = (pressure * volumetricFlow) / (GAS_CONSTANT * temperature);
+      feedVec = new Float64Array(nS);
+      for (const { j, p } of fractions) {
+        const y = r.num(p, true, 'nonneg');
+        if (y !== undefined && y > 1 + 1e-9) r.reject('out-of-range', `feed fraction of ${ctx.speciesNames[j]} is above 1 (${y})`, p.header);
+        feedVec[j] = (y ?? 0) * (FT ?? 0);
+      }
+    } else if (cin && volumetricFlow !== undefined) {
+      feedVec = new Float64Array(nS);
+      for (const { j, p } of cin) feedVec[j] = (r.num(p, true, 'nonneg') ?? 0) * volumetricFlow;
+    }
+    let initial: Float64Array | undefined;
+    if (c0) {
+      initial = new Float64Array(nS);
+      for (const { j, p } of c0) initial[j] = r.num(p, true, 'nonneg') ?? 0;
+    } else if (isBatch && fractions && pressure !== undefined && temperature !== undefined) {
+      initial = new Float64Array(nS);
+      const CT = pressure / (GAS_CONSTANT * temperature);
+      for (const { j, p } of fractions) initial[j] = (r.num(p, true, 'nonneg') ?? 0) * CT;
+    }
+    const initialVolume = V0 ? r.num(V0, isSemi, 'nonneg') : undefined;
+    const file = table.file;
+    const line = row.line;
+    obs.length = 0;
+    for (let k = 0; k < measured.length; k++) {
+      const { m, j, p, sigma } = measured[k];
+      const value = r.num(p, false, measuredMin[k]);
+      if (value === undefined) continue; // an empty measured cell is simply not measured
+      const s = sigma ? r.num(sigma, false, 'positive') : undefined;
+      // Built key by key in the order of the documented shape (no spreads in this loop).
+      const o = { runId: id, response: m.response } as MappedObservation;
+      if (m.species !== undefined) {
+        o.species = m.species;
+        o.speciesIndex = j;
+      }
+      o.value = value;
+      if (s !== undefined) o.sigma = s;
+      if (m.errorModel !== undefined) o.errorModel = m.errorModel;
+      o.unit = p.conv.si;
+      o.location = { file, line, column: m.column };
+      obs.push(o);
+    }
+    if (r.problems.length) return;
+    const run = { id } as MappedRun;
+    if (group !== undefined) run.group = group;
+    run.temperature = temperature as number;
+    if (pressure !== undefined) run.pressure = pressure;
+    if (sz !== undefined) run.size = sz;
+    if (catalystMass !== undefined) run.catalystMass = catalystMass;
+    if (feedVec) run.feed = feedVec;
+    if (volumetricFlow !== undefined) run.volumetricFlow = volumetricFlow;
+    if (initial) run.initialConcentrations = initial;
+    if (initialVolume !== undefined) run.initialVolume = initialVolume;
+    run.location = { file, line };
+    out.runs.push(run);
+    for (let k = 0; k < obs.length; k++) out.observations.push(obs[k]);
+  }
+
+  const rows = table.rows;
+  for (let i = 0; i < rows.length; i++) {
+    const row = rows[i];
+    r.reset(row);
+    if (row.cells.length !== nCols) {
+      r.reject('column-count', `row has ${row.cells.length} cells, the header has ${nCols}`);
     } else {
-      readPerRunRow();
+      readPerRunRow(row);
     }
     if (r.problems.length) {
-      out.rejections.push(...r.problems);
+      for (const p of r.problems) out.rejections.push(p);
       out.rejectedLines.add(row.line);
-    }
-
-    function readPerRunRow(): void {
-      const id = r.text(runCol);
-      if (id === '') r.reject('missing', 'run id is empty', cols.run);
-      const group = groupCol !== undefined ? r.text(groupCol) : undefined;
-      if (groupCol !== undefined && group === '') r.reject('missing', 'run group is empty', cols.group);
-      const temperature = r.num(T, true, 'positive');
-      const pressure = P ? r.num(P, ctx.phase === 'gas', 'positive') : undefined;
-      const sz = size ? r.num(size, true, 'nonneg') : undefined;
-      const catalystMass = W && size !== W ? r.num(W, false, 'nonneg') : undefined;
-      let feedVec: Float64Array | undefined;
-      const volumetricFlow = v0 ? r.num(v0, ctx.phase === 'liquid' && !isBatch, 'nonneg') : undefined;
-      if (feed) {
-        feedVec = new Float64Array(nS);
-        for (const { j, p } of feed) feedVec[j] = r.num(p, true, 'nonneg') ?? 0;
-      } else if (fractions && (total || (volumetricFlow !== undefined && ctx.phase === 'gas' && !isBatch))) {
-        let FT: number | undefined;
-        if (total) FT = r.num(total, true, 'nonneg');
-        else if (volumetricFlow !== undefined && pressure !== undefined && temperature !== undefined) FT = (pressure * volumetricFlow) / (GAS_CONSTANT * temperature);
-        feedVec = new Float64Array(nS);
-        for (const { j, p } of fractions) {
-          const y = r.num(p, true, 'nonneg');
-          if (y !== undefined && y > 1 + 1e-9) r.reject('out-of-range', `feed fraction of ${ctx.speciesNames[j]} is above 1 (${y})`, p.header);
-          feedVec[j] = (y ?? 0) * (FT ?? 0);
-        }
-      } else if (cin && volumetricFlow !== undefined) {
-        feedVec = new Float64Array(nS);
-        for (const { j, p } of cin) feedVec[j] = (r.num(p, true, 'nonneg') ?? 0) * volumetricFlow;
-      }
-      let initial: Float64Array | undefined;
-      if (c0) {
-        initial = new Float64Array(nS);
-        for (const { j, p } of c0) initial[j] = r.num(p, true, 'nonneg') ?? 0;
-      } else if (isBatch && fractions && pressure !== undefined && temperature !== undefined) {
-        initial = new Float64Array(nS);
-        const CT = pressure / (GAS_CONSTANT * temperature);
-        for (const { j, p } of fractions) initial[j] = (r.num(p, true, 'nonneg') ?? 0) * CT;
-      }
-      const initialVolume = V0 ? r.num(V0, isSemi, 'nonneg') : undefined;
-      const location = { file: table.file, line: row.line };
-      const obs: MappedObservation[] = [];
-      for (const { m, j, p, sigma } of measured) {
-        const min = m.response === 'outlet-flow' || m.response === 'outlet-concentration' || m.response === 'outlet-pressure' ? 'nonneg' : 'any';
-        const value = r.num(p, false, min);
-        if (value === undefined) continue; // an empty measured cell is simply not measured
-        const s = sigma ? r.num(sigma, false, 'positive') : undefined;
-        obs.push({
-          runId: id,
-          response: m.response,
-          ...(m.species !== undefined ? { species: m.species, speciesIndex: j } : {}),
-          value,
-          ...(s !== undefined ? { sigma: s } : {}),
-          ...(m.errorModel !== undefined ? { errorModel: m.errorModel } : {}),
-          unit: p.conv.si,
-          location: { ...location, column: m.column },
-        });
-      }
-      if (r.problems.length) return;
-      out.runs.push({
-        id,
-        ...(group !== undefined ? { group } : {}),
-        temperature: temperature as number,
-        ...(pressure !== undefined ? { pressure } : {}),
-        ...(sz !== undefined ? { size: sz } : {}),
-        ...(catalystMass !== undefined ? { catalystMass } : {}),
-        ...(feedVec ? { feed: feedVec } : {}),
-        ...(volumetricFlow !== undefined ? { volumetricFlow } : {}),
-        ...(initial ? { initialConcentrations: initial } : {}),
-        ...(initialVolume !== undefined ? { initialVolume } : {}),
-        location,
-      });
-      out.observations.push(...obs);
     }
   }
   return out;
@@ -369,8 +389,9 @@ export function mapLongSource(
   const val = prepare(table, spec.response, { column: cols.value, unit: spec.unit }, RESPONSE_QUANTITY[spec.response], [...path, 'value']);
   const sig = cols.sigma !== undefined ? { ...val, name: 'sigma', column: columnIndex(table, cols.sigma, [...path, 'sigma']), header: cols.sigma, conv: { ...val.conv, toSI: (x: number) => x * val.conv.factor } } : undefined;
   const out: MappedSource = { file: table.file, layout: 'long', rowsIn: table.rows.length, runs: [], observations: [], rejections: [], rejectedLines: new Set() };
+  const r = new RowReader(table);
   for (const row of table.rows) {
-    const r = new RowReader(table, row);
+    r.reset(row);
     if (row.cells.length !== table.header.length) {
       r.reject('column-count', `row has ${row.cells.length} cells, the header has ${table.header.length}`);
     } else {
@@ -413,7 +434,7 @@ export function mapLongSource(
       }
     }
     if (r.problems.length) {
-      out.rejections.push(...r.problems);
+      for (const p of r.problems) out.rejections.push(p);
       out.rejectedLines.add(row.line);
     }
   }
