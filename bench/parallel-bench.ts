@@ -2,7 +2,9 @@
  * Section (g) of bench/run.ts: the worker-thread pool (src/parallel) on this machine's cores.
  * Profiles of the 4 parameters and 6 multistart starts of the synthetic study, each run serially
  * (workers = 1: same job module in this thread) and on 2 workers; the outcomes must be identical.
- * Times include starting the workers (tsx + module load + model setup in each).
+ * Pool start (tsx + module load + model setup in each worker) is timed apart for profiles and
+ * multistart and included for Monte Carlo. CPU time covers all threads: "cores busy" = cpu / wall
+ * shows how much of the 2 cores the workers actually got on a shared machine.
  * Run alone: npx tsx bench/parallel-bench.ts
  */
 import { readFileSync } from 'node:fs';
@@ -21,10 +23,13 @@ export async function runParallelBench(quick = false, serialMc?: { drawsMs: numb
   const lines: string[] = [];
   const results: Record<string, unknown> = { runs };
 
+  /** Wall time and CPU time of the whole process (all threads, so the workers' too). */
   const time = async <T>(f: () => Promise<T>) => {
+    const c0 = process.cpuUsage();
     const t0 = performance.now();
     const value = await f();
-    return { value, ms: performance.now() - t0 };
+    const c = process.cpuUsage(c0);
+    return { value, ms: performance.now() - t0, cpuMs: (c.user + c.system) / 1000 };
   };
   const free = sf.model.parameters.map((p) => ({
     transform: p.transform,
@@ -38,10 +43,10 @@ export async function runParallelBench(quick = false, serialMc?: { drawsMs: numb
   const runAll = async (workers: number) => {
     const st = await time(() => startStudyPool(ctx, { workers }));
     const pool = st.value;
-    const res: Record<string, { ms: number; outcomes: unknown[] }> = {};
+    const res: Record<string, { ms: number; cpuMs: number; outcomes: unknown[] }> = {};
     for (const [name, jobs] of Object.entries(batches)) {
       const r = await time(() => pool.run(jobs));
-      res[name] = { ms: r.ms, outcomes: r.value };
+      res[name] = { ms: r.ms, cpuMs: r.cpuMs, outcomes: r.value };
     }
     await pool.close();
     return { startMs: st.ms, workers: pool.workers, res };
@@ -55,8 +60,11 @@ export async function runParallelBench(quick = false, serialMc?: { drawsMs: numb
     const same = JSON.stringify(s1.outcomes) === JSON.stringify(s2.outcomes);
     const ok = (s2.outcomes as { ok: boolean }[]).filter((o) => o.ok).length;
     const withStart = (s1.ms + serial.startMs) / (s2.ms + two.startMs);
-    lines.push(`${name} (${s1.outcomes.length} jobs, ${runs} runs): serial ${(s1.ms / 1000).toFixed(2)} s, 2 workers ${(s2.ms / 1000).toFixed(2)} s -> speed-up ${(s1.ms / s2.ms).toFixed(2)}x (${withStart.toFixed(2)}x counting pool start); ${ok}/${s2.outcomes.length} ok; identical to serial: ${same}`);
-    out[name] = { jobs: s1.outcomes.length, serialMs: s1.ms, twoWorkersMs: s2.ms, speedup: s1.ms / s2.ms, speedupWithStart: withStart, identical: same };
+    lines.push(
+      `${name} (${s1.outcomes.length} jobs, ${runs} runs): serial ${(s1.ms / 1000).toFixed(2)} s, 2 workers ${(s2.ms / 1000).toFixed(2)} s -> speed-up ${(s1.ms / s2.ms).toFixed(2)}x (${withStart.toFixed(2)}x counting pool start); ` +
+        `cpu ${(s1.cpuMs / 1000).toFixed(2)} s vs ${(s2.cpuMs / 1000).toFixed(2)} s, cores busy ${(s2.cpuMs / s2.ms).toFixed(2)} of 2; ${ok}/${s2.outcomes.length} ok; identical to serial: ${same}`,
+    );
+    out[name] = { jobs: s1.outcomes.length, serialMs: s1.ms, twoWorkersMs: s2.ms, serialCpuMs: s1.cpuMs, twoWorkersCpuMs: s2.cpuMs, coresBusy: s2.cpuMs / s2.ms, speedup: s1.ms / s2.ms, speedupWithStart: withStart, identical: same };
   }
   results.poolStartMs = two.startMs;
 
@@ -78,7 +86,7 @@ export async function runParallelBench(quick = false, serialMc?: { drawsMs: numb
   const sameMc = m1.value.values.every((x, i) => Object.is(x, m2.value.values[i]));
   const matchesSize = serialMc ? st2.median === serialMc.medianKg && st2.p90 === serialMc.p90Kg && st2.p95 === serialMc.p95Kg : undefined;
   lines.push(
-    `Monte Carlo, ${draws} draws in 8 chunks: serial ${(m1.ms / 1000).toFixed(2)} s, 2 workers ${(m2.ms / 1000).toFixed(2)} s (pool start included) -> speed-up ${(m1.ms / m2.ms).toFixed(2)}x; ` +
+    `Monte Carlo, ${draws} draws in 8 chunks: serial ${(m1.ms / 1000).toFixed(2)} s, 2 workers ${(m2.ms / 1000).toFixed(2)} s (pool start included) -> speed-up ${(m1.ms / m2.ms).toFixed(2)}x, cores busy ${(m2.cpuMs / m2.ms).toFixed(2)}; ` +
       `identical draws: ${sameMc}; median ${st2.median.toFixed(3)} kg, P90 ${st2.p90.toFixed(3)}, P95 ${st2.p95.toFixed(3)}, failed ${st2.failed}` +
       (matchesSize !== undefined ? `; equal to sizeReactor's serial percentiles: ${matchesSize}` : ''),
   );
