@@ -14,9 +14,14 @@ import { describeRules, type CheckSettings, type PureError, type Rejection, type
 export class Ledger {
   private readonly sources = new Map<string, { layout: 'per-run' | 'long'; rowsIn: number; rejected: Set<number> }>();
   readonly rejections: Rejection[] = [];
+  /** Last file asked about in isRejected and its set of rejected lines (a lookup cache). */
+  private lastFile: string | undefined;
+  private lastRejected: Set<number> | undefined;
 
   addSource(file: string, layout: 'per-run' | 'long', rowsIn: number): void {
     this.sources.set(file, { layout, rowsIn, rejected: new Set() });
+    this.lastFile = undefined;
+    this.lastRejected = undefined;
   }
 
   /** Record problems; each names a row that is then counted as rejected. */
@@ -28,7 +33,11 @@ export class Ledger {
   }
 
   isRejected(loc: RowLocation): boolean {
-    return this.sources.get(loc.file)?.rejected.has(loc.line) ?? false;
+    if (loc.file !== this.lastFile) {
+      this.lastFile = loc.file;
+      this.lastRejected = this.sources.get(loc.file)?.rejected;
+    }
+    return this.lastRejected !== undefined && this.lastRejected.has(loc.line);
   }
 
   summaries(): SourceSummary[] {
@@ -197,26 +206,27 @@ const KEYS: ((r: MappedRun) => number)[] = [
  * Split `idx` into chains of runs whose key k differs by at most tol (relative) between sorted
  * neighbours, then recurse on the next key. Any two runs within tol in every key end up in the
  * same leaf, so comparing pairs only inside leaves finds every replicate pair.
+ * `keys[k][i]` is KEYS[k] of run i, computed once.
  */
-function leaves(runs: readonly MappedRun[], idx: number[], k: number, tol: number, out: number[][]): void {
+function leaves(keys: readonly Float64Array[], idx: number[], k: number, tol: number, out: number[][]): void {
   if (idx.length < 2) return;
-  if (k === KEYS.length) {
+  if (k === keys.length) {
     out.push(idx);
     return;
   }
-  const key = KEYS[k];
-  const sorted = [...idx].sort((a, b) => key(runs[a]) - key(runs[b]));
+  const key = keys[k];
+  const sorted = idx.slice().sort((a, b) => key[a] - key[b]);
   let chain = [sorted[0]];
   for (let i = 1; i < sorted.length; i++) {
-    const a = key(runs[sorted[i - 1]]);
-    const b = key(runs[sorted[i]]);
+    const a = key[sorted[i - 1]];
+    const b = key[sorted[i]];
     if (Math.abs(b - a) <= tol * Math.max(Math.abs(a), Math.abs(b))) chain.push(sorted[i]);
     else {
-      leaves(runs, chain, k + 1, tol, out);
+      leaves(keys, chain, k + 1, tol, out);
       chain = [sorted[i]];
     }
   }
-  leaves(runs, chain, k + 1, tol, out);
+  leaves(keys, chain, k + 1, tol, out);
 }
 
 /** Replicate groups: runs with equal conditions within the relative tolerance (two or more runs each). */
@@ -230,7 +240,12 @@ export function findReplicates(runs: readonly MappedRun[], tol: number): Replica
     return i;
   };
   const groups: number[][] = [];
-  leaves(runs, runs.map((_, i) => i), 0, tol, groups);
+  const keys = KEYS.map((key) => {
+    const v = new Float64Array(runs.length);
+    for (let i = 0; i < runs.length; i++) v[i] = key(runs[i]);
+    return v;
+  });
+  leaves(keys, runs.map((_, i) => i), 0, tol, groups);
   for (const leaf of groups) {
     for (let a = 0; a < leaf.length; a++) {
       for (let b = a + 1; b < leaf.length; b++) {
@@ -239,12 +254,12 @@ export function findReplicates(runs: readonly MappedRun[], tol: number): Replica
     }
   }
   const byRoot = new Map<number, string[]>();
-  runs.forEach((r, i) => {
+  for (let i = 0; i < runs.length; i++) {
     const root = find(i);
-    const g = byRoot.get(root) ?? [];
-    g.push(r.id);
-    byRoot.set(root, g);
-  });
+    const g = byRoot.get(root);
+    if (g) g.push(runs[i].id);
+    else byRoot.set(root, [runs[i].id]);
+  }
   const out: ReplicateGroup[] = [];
   for (const ids of byRoot.values()) if (ids.length > 1) out.push({ id: `rep${out.length + 1}`, runIds: ids });
   return out;
@@ -257,17 +272,47 @@ export function findReplicates(runs: readonly MappedRun[], tol: number): Replica
 export function pureErrors(observations: readonly MappedObservation[], groups: readonly ReplicateGroup[]): PureError[] {
   const groupOf = new Map<string, string>();
   for (const g of groups) for (const id of g.runIds) groupOf.set(id, g.id);
-  const cells = new Map<string, { key: string; o: MappedObservation; values: number[] }>();
+  // A cell is (group or 'run:<id>', response, species, position). Species names hold no '|'
+  // (schema pattern), so the nested keys below match the former flat key
+  // `${group}|${response}|${species}|${position}` exactly; cells keep their order of first use.
+  type Cell = { key: string; o: MappedObservation; values: number[] };
+  const cellList: Cell[] = [];
+  const cells = new Map<string, Map<string, Cell>>();
+  const groupKey = new Map<string, string>();
+  const respKeys = new Map<string, Map<string, string>>();
   for (const o of observations) {
-    const g = groupOf.get(o.runId) ?? `run:${o.runId}`;
-    const respKey = `${o.response}|${o.species ?? ''}`;
-    const key = `${g}|${respKey}|${o.position === undefined ? '' : o.position.toPrecision(9)}`;
-    const c = cells.get(key) ?? { key: respKey, o, values: [] };
+    let g = groupKey.get(o.runId);
+    if (g === undefined) {
+      g = groupOf.get(o.runId) ?? `run:${o.runId}`;
+      groupKey.set(o.runId, g);
+    }
+    const sp = o.species ?? '';
+    let bySpecies = respKeys.get(o.response);
+    if (!bySpecies) {
+      bySpecies = new Map();
+      respKeys.set(o.response, bySpecies);
+    }
+    let respKey = bySpecies.get(sp);
+    if (respKey === undefined) {
+      respKey = `${o.response}|${sp}`;
+      bySpecies.set(sp, respKey);
+    }
+    const inner = o.position === undefined ? respKey : `${respKey}|${o.position.toPrecision(9)}`;
+    let byResp = cells.get(g);
+    if (!byResp) {
+      byResp = new Map();
+      cells.set(g, byResp);
+    }
+    let c = byResp.get(inner);
+    if (!c) {
+      c = { key: respKey, o, values: [] };
+      byResp.set(inner, c);
+      cellList.push(c);
+    }
     c.values.push(o.value);
-    cells.set(key, c);
   }
   const pooled = new Map<string, PureError>();
-  for (const c of cells.values()) {
+  for (const c of cellList) {
     if (c.values.length < 2) continue;
     const mean = c.values.reduce((a, b) => a + b, 0) / c.values.length;
     const ss = c.values.reduce((a, y) => a + (y - mean) ** 2, 0);
