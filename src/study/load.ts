@@ -67,6 +67,35 @@ function withFile<T>(file: string, text: string, f: () => T): T {
   }
 }
 
+/**
+ * Observations grouped by source row (file and line), groups in order of first appearance. The
+ * mapping emits a row's observations together, so with distinct per-run file names a group is a
+ * run of neighbours with the same line; otherwise rows are matched by file and line through a map.
+ */
+function rowGroups(observations: readonly MappedObservation[], distinctFiles: boolean): MappedObservation[][] {
+  if (!distinctFiles) {
+    const byRow = new Map<string, MappedObservation[]>();
+    for (const o of observations) {
+      const key = `${o.location.file}\u0000${o.location.line}`;
+      const list = byRow.get(key) ?? [];
+      list.push(o);
+      byRow.set(key, list);
+    }
+    return [...byRow.values()];
+  }
+  const out: MappedObservation[][] = [];
+  let list: MappedObservation[] | undefined;
+  for (const o of observations) {
+    const at = list?.[0].location;
+    if (list && at && at.line === o.location.line && at.file === o.location.file) list.push(o);
+    else {
+      list = [o];
+      out.push(list);
+    }
+  }
+  return out;
+}
+
 function reactorSpec(raw: RawStudy['reactor'], speciesNames: readonly string[]): ReactorSpec {
   const spec: ReactorSpec = { kind: raw.kind, phase: raw.phase };
   const path = ['reactor'];
@@ -236,14 +265,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
 
   // Per-run observations: drop those of rejected rows, then physical checks row by row.
   let observations = perRun.flatMap((m) => m.observations).filter((o) => !ledger.isRejected(o.location));
-  const byRow = new Map<string, MappedObservation[]>();
-  for (const o of observations) {
-    const key = `${o.location.file}\u0000${o.location.line}`;
-    const list = byRow.get(key) ?? [];
-    list.push(o);
-    byRow.set(key, list);
-  }
-  for (const list of byRow.values()) {
+  for (const list of rowGroups(observations, new Set(perRun.map((m) => m.file)).size === perRun.length)) {
     const run = runById.get(list[0].runId) as MappedRun;
     const rowRun = run.location.line === list[0].location.line && run.location.file === list[0].location.file ? run : { ...run, location: { file: list[0].location.file, line: list[0].location.line } };
     for (const o of list) {
@@ -313,34 +335,33 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
       sigma = pe.sigma;
       models[modelName] = { ...models[modelName], dof: pe.dof };
     }
-    return {
-      index,
-      runId: o.runId,
-      runIndex: runIndex.get(o.runId) as number,
-      response: o.response,
-      ...(o.species !== undefined ? { species: o.species, speciesIndex: o.speciesIndex } : {}),
-      ...(o.position !== undefined ? { position: o.position } : {}),
-      value: o.value,
-      unit: o.unit,
-      ...(sigma !== undefined ? { sigma } : {}),
-      errorModel: modelName,
-      location: o.location,
-    };
+    // Built key by key in the documented order (optional keys only when defined; no spreads).
+    const so = { index, runId: o.runId, runIndex: runIndex.get(o.runId) as number, response: o.response } as Observation;
+    if (o.species !== undefined) {
+      so.species = o.species;
+      so.speciesIndex = o.speciesIndex;
+    }
+    if (o.position !== undefined) so.position = o.position;
+    so.value = o.value;
+    so.unit = o.unit;
+    if (sigma !== undefined) so.sigma = sigma;
+    so.errorModel = modelName;
+    so.location = o.location;
+    return so;
   });
 
-  const studyRuns: StudyRun[] = runs.map((r) => ({
-    id: r.id,
-    temperature: r.temperature,
-    size: r.size as number,
-    ...(r.pressure !== undefined ? { pressure: r.pressure } : {}),
-    ...(r.feed ? { feed: r.feed } : {}),
-    ...(r.volumetricFlow !== undefined ? { volumetricFlow: r.volumetricFlow } : {}),
-    ...(r.initialConcentrations ? { initialConcentrations: r.initialConcentrations } : {}),
-    ...(r.initialVolume !== undefined ? { initialVolume: r.initialVolume } : {}),
-    ...(r.catalystMass !== undefined ? { catalystMass: r.catalystMass } : {}),
-    ...(r.group !== undefined ? { group: r.group } : {}),
-    location: r.location,
-  }));
+  const studyRuns: StudyRun[] = runs.map((r) => {
+    const sr = { id: r.id, temperature: r.temperature, size: r.size as number } as StudyRun;
+    if (r.pressure !== undefined) sr.pressure = r.pressure;
+    if (r.feed) sr.feed = r.feed;
+    if (r.volumetricFlow !== undefined) sr.volumetricFlow = r.volumetricFlow;
+    if (r.initialConcentrations) sr.initialConcentrations = r.initialConcentrations;
+    if (r.initialVolume !== undefined) sr.initialVolume = r.initialVolume;
+    if (r.catalystMass !== undefined) sr.catalystMass = r.catalystMass;
+    if (r.group !== undefined) sr.group = r.group;
+    sr.location = r.location;
+    return sr;
+  });
 
   // Reference temperature: given, or the round number nearest the inverse-mean of the data range.
   let referenceTemperature: number;
@@ -352,7 +373,8 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   } else {
     referenceTemperatureSource = 'data';
     const Ts = studyRuns.map((r) => r.temperature);
-    referenceTemperature = Ts.length ? Math.round(2 / (1 / Math.min(...Ts) + 1 / Math.max(...Ts))) : 298;
+    // Reduced rather than spread into Math.min/max: a spread of many runs can overflow the stack.
+    referenceTemperature = Ts.length ? Math.round(2 / (1 / Ts.reduce((a, b) => Math.min(a, b), Infinity) + 1 / Ts.reduce((a, b) => Math.max(a, b), -Infinity))) : 298;
   }
 
   const groups = [...new Set(studyRuns.map((r) => r.group).filter((g): g is string => g !== undefined))];
