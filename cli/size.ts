@@ -31,8 +31,11 @@ plant.case.json:
                "bulkDensity": "900 kg/m3", "particleDensity": "1550 kg/m3",
                "viscosity": "2.4e-5 Pa s", "allowedPressureDrop": "1.5 bar" },
     "heat": { "reactionEnthalpy": { "r1": "-95 kJ/mol" }, "heatCapacity": "38 J/(mol K)" },
-    "uncertainty": { "draws": 10000, "seed": 12345, "levels": [0.9, 0.95] }
+    "uncertainty": { "draws": 10000, "seed": 12345, "levels": [0.9, 0.95], "designLevel": 0.95 }
   }
+uncertainty.designLevel (default 0.95): the percentile of the required catalyst mass the tubes are
+designed for; the tube count is raised until that catalyst (reported as the catalyst to install)
+stays within tubes.allowedPressureDrop, so only parameter sets beyond it may need more.
 Targets: { "conversion": X, "species": S } | { "production": "2 mol/s", "species": P } | { "size": "150 kg" }.
 Reactor kinds: packed-bed (size in kg catalyst), plug-flow (m3), stirred-tank (m3), batch (s).
 Exit codes: 0 sized, 1 target unreachable or result not trustworthy, 2 bad input.`;
@@ -89,14 +92,28 @@ export function formatSizing(r: SizingResult): string {
   }
   if (r.tubes) {
     const t = r.tubes;
-    L.push(`Tubes: ${t.count} x ${g(t.innerDiameter * 1000, 4)} mm ID, bed length ${g(t.length, 4)} m, ${g(t.catalystPerTube, 4)} kg catalyst and ${g(t.flowPerTube, 4)} mol/s per tube`);
-    L.push(`  pressure drop ${g(t.pressureDrop.pa, 4)} Pa (${g(t.pressureDrop.bar, 4)} bar) of ${g(t.allowedPressureDrop / 1e5, 4)} bar allowed; G = ${g(t.superficialMassFlux, 4)} kg/(m2 s)`);
+    const P = t.designedFor.level !== null ? pct(t.designedFor.level) : null;
+    L.push(`Tubes: ${t.count} x ${g(t.innerDiameter * 1000, 4)} mm ID, designed for ${t.designedFor.basis}${t.nominalCount !== t.count ? ` (the nominal fit alone needs ${t.nominalCount})` : ''}; ${g(t.flowPerTube, 4)} mol/s per tube, G = ${g(t.superficialMassFlux, 4)} kg/(m2 s)`);
+    L.push(`  nominal catalyst mass: bed length ${g(t.length, 4)} m, ${g(t.catalystPerTube, 4)} kg per tube, pressure drop ${g(t.pressureDrop.bar, 4)} bar`);
+    if (t.install && P) {
+      L.push(`  catalyst to install (${P}): ${g(t.install.catalystMass, 5)} kg, bed length ${g(t.install.length, 4)} m, ${g(t.install.catalystPerTube, 4)} kg per tube, pressure drop ${g(t.install.pressureDrop.bar, 4)} bar (nominal kinetics)`);
+    }
+    const d = t.draws;
+    L.push(
+      `  allowed pressure drop ${g(t.allowedPressureDrop / 1e5, 4)} bar` +
+        (d ? `; ${d.overAllowed} of ${d.of} parameter sets need more${d.dropAtLevel && P ? ` (${P} of the drops they need: ${g(d.dropAtLevel.bar, 4)} bar)` : ''}` : ''),
+    );
   }
   if (r.pressure) L.push(`Pressure: inlet ${g(r.pressure.inlet / 1e5, 5)} bar, outlet ${g(r.pressure.outlet / 1e5, 5)} bar`);
   if (r.outlet) {
     if (r.outlet.conversion) L.push(`Conversion of ${r.outlet.conversion.species}: ${g(r.outlet.conversion.value, 5)}`);
-    L.push(`Outlet (${r.outlet.amountUnit}; mole fraction):`);
-    for (const [s, v] of Object.entries(r.outlet.amounts)) L.push(`  ${s.padEnd(10)} ${g(v, 5).padStart(12)}  ${g(r.outlet.moleFractions[s], 4)}`);
+    const o = r.outlet;
+    const band = o.lo && o.hi && o.band;
+    L.push(`Outlet at the nominal size (${o.amountUnit}; mole fraction${band ? `; P5 and P95 over ${o.band!.draws} parameter sets` : ''}):`);
+    for (const [s, v] of Object.entries(o.amounts)) {
+      const b = band ? `  ${g(o.lo![s], 5).padStart(12)} ${g(o.hi![s], 5).padStart(12)}` : '';
+      L.push(`  ${s.padEnd(10)} ${g(v, 5).padStart(12)}  ${g(o.moleFractions[s], 4).padEnd(8)}${b}`);
+    }
   }
   if (r.heat) L.push(`Adiabatic temperature rise: ${g(r.heat.adiabaticRise, 4)} K; heat to remove ${g(r.heat.heatDuty.value, 4)} ${r.heat.heatDuty.unit} (${r.heat.formula})`);
   if (r.warnings.length) {

@@ -15,8 +15,13 @@
  *              "bulkDensity": "900 kg/m3", "particleDensity": "1550 kg/m3",
  *              "viscosity": "2.4e-5 Pa s", "allowedPressureDrop": "1.5 bar" },
  *   "heat": { "reactionEnthalpy": { "r1": "-95 kJ/mol" }, "heatCapacity": "38 J/(mol K)" },
- *   "uncertainty": { "draws": 10000, "seed": 12345, "levels": [0.9, 0.95] }
+ *   "uncertainty": { "draws": 10000, "seed": 12345, "levels": [0.9, 0.95], "designLevel": 0.95 }
  * }
+ *
+ * uncertainty.designLevel (fraction, default 0.95): the percentile of the required size that the
+ * tube bundle is designed for. The tube count is raised until the catalyst mass of that percentile
+ * (the catalyst to install) keeps the pressure drop within tubes.allowedPressureDrop, so only the
+ * parameter sets beyond the percentile may need more.
  */
 import { RateloomError, closestName, type FieldPath } from '../core/errors';
 import { quantityToSI, type QuantityKind } from './case-units';
@@ -86,12 +91,19 @@ export interface DesignCase {
     seed: number;
     /** Confidence levels reported, fractions; default [0.9, 0.95]. */
     levels: number[];
+    /**
+     * Percentile of the required size (fraction) the tube bundle is designed for; default 0.95
+     * (DEFAULT_DESIGN_LEVEL). Optional so hand-built cases stay valid; the loader always sets it.
+     */
+    designLevel?: number;
   };
 }
 
 export const DEFAULT_DRAWS = 10000;
 export const DEFAULT_SEED = 20261201;
 export const DEFAULT_LEVELS = [0.9, 0.95];
+/** Percentile of the size the tubes are designed for, when the case does not say. */
+export const DEFAULT_DESIGN_LEVEL = 0.95;
 
 type Obj = Record<string, unknown>;
 
@@ -276,7 +288,7 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
     species: [...species],
     temperature,
     target,
-    uncertainty: { draws: DEFAULT_DRAWS, seed: DEFAULT_SEED, levels: [...DEFAULT_LEVELS] },
+    uncertainty: { draws: DEFAULT_DRAWS, seed: DEFAULT_SEED, levels: [...DEFAULT_LEVELS], designLevel: DEFAULT_DESIGN_LEVEL },
   };
   if (pressure !== undefined) out.pressure = pressure;
   if (volumetricFlow !== undefined) out.volumetricFlow = volumetricFlow;
@@ -349,7 +361,7 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
 
   if (top.uncertainty !== undefined) {
     const u = obj(top.uncertainty, ['uncertainty'], 'uncertainty');
-    checkFields(u, ['draws', 'seed', 'levels'], ['uncertainty']);
+    checkFields(u, ['draws', 'seed', 'levels', 'designLevel'], ['uncertainty']);
     if (u.draws !== undefined) {
       const d = num(u.draws, ['uncertainty', 'draws'], 0, 1e7, 'draws');
       if (!Number.isInteger(d)) throw new RateloomError('E_VALUE', 'draws must be a whole number', { path: ['uncertainty', 'draws'] });
@@ -367,6 +379,16 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
         if (!(v > 0.5 && v < 1)) throw new RateloomError('E_VALUE', `level ${v} must lie between 0.5 and 1 (for example 0.9 for P90)`, { path: ['uncertainty', 'levels', i] });
         return v;
       });
+    }
+    if (u.designLevel !== undefined) {
+      const v = num(u.designLevel, ['uncertainty', 'designLevel'], 0, 1, 'design level');
+      if (!(v >= 0.5 && v < 1)) {
+        throw new RateloomError('E_VALUE', `design level ${v} must lie in [0.5, 1)`, {
+          path: ['uncertainty', 'designLevel'],
+          fix: 'Give the percentile the tubes are designed for as a fraction, for example 0.95 for P95 (0.5 designs for the median).',
+        });
+      }
+      out.uncertainty.designLevel = v;
     }
   }
   return out;

@@ -14,6 +14,8 @@ import { buildSystem, GAS_CONSTANT, type DesignSystem } from './system';
 import { Sizer, fmt, type SizeOnce } from './sizer';
 import { equilibriumConversion, type EquilibriumLimit } from './feasibility';
 import { designTubes, type TubeDesign } from './tubes';
+import { designTubesForPercentile, type PercentileTubeResult, type TubePass } from './tube-percentile';
+import { DEFAULT_DESIGN_LEVEL } from './case';
 import { parameterMap } from './handoff-load';
 import { propagate, type UncertaintyResult } from './uncertainty';
 import { extrapolationWarnings } from './extrapolation';
@@ -50,8 +52,13 @@ export interface SizingOptions {
   profileDraws?: number;
   /** Fraction of failed draws above which the result is 'draws-failed'; default 0.01. */
   maxFailedFraction?: number;
-  /** Progress of the Monte Carlo draws (done, total). */
+  /** Progress of the Monte Carlo draws (done, total); with a tube bundle a second pass may follow. */
   onProgress?: (done: number, total: number) => void;
+  /**
+   * Percentile of the required catalyst mass the tube bundle is designed for (fraction); default
+   * the case's uncertainty.designLevel, else 0.95.
+   */
+  designLevel?: number;
 }
 
 export interface SizingInput {
@@ -79,6 +86,13 @@ export interface SizingResult extends Outcome<SizingStatus> {
     moleFractions: Record<string, number>;
     /** Conversion of the key species (target species), 0..1. */
     conversion?: { species: string; value: number };
+    /**
+     * Band of the outlet amounts at the nominal size over the parameter uncertainty: P5 (`lo`) and
+     * P95 (`hi`) per species over the first Monte Carlo draws (`band.draws` that reached the size).
+     */
+    lo?: Record<string, number>;
+    hi?: Record<string, number>;
+    band?: { lower: number; upper: number; draws: number };
   };
   pressure?: { inlet: number; outlet: number; drop: number; dropBar: number; unit: 'Pa' };
   tubes?: TubeDesign;
@@ -157,8 +171,80 @@ export function sizeReactor(input: SizingInput): SizingResult {
   if (res.status !== 'sized') {
     return fail(res.status, res.detail ?? '', equilibrium ? { equilibrium } : {});
   }
+  // Uncertainty; for a tube bundle also the tube count designed for the design percentile.
+  const draws = opts.draws ?? kase.uncertainty.draws;
+  const level = opts.designLevel ?? kase.uncertainty.designLevel ?? DEFAULT_DESIGN_LEVEL;
+  const P0 = kase.pressure ?? NaN;
+  let lastSize = NaN;
+  let lastDrop = NaN;
+  const quantityFn =
+    t.kind === 'size'
+      ? (s: Sizer) => {
+          const r = s.rate(t.value);
+          return { value: r.status === 'sized' && key >= 0 ? s.conversion(r.y, key) : NaN, status: r.status };
+        }
+      : (s: Sizer) => {
+          const r = s.size();
+          const exhausted = r.status === 'pressure-exhausted';
+          lastSize = r.status === 'sized' ? r.size : exhausted ? Infinity : NaN;
+          lastDrop = r.status === 'sized' && sys.hasPressure ? P0 * (1 - Math.sqrt(Math.max(r.y[sys.nS], 0))) : exhausted ? Infinity : NaN;
+          return { value: r.status === 'sized' ? r.size : NaN, status: r.status };
+        };
+  const monteCarlo = (nominalQuantity: number, bandSize: number): TubePass => {
+    const sizes = new Float64Array(draws).fill(NaN);
+    const drops = new Float64Array(draws).fill(NaN);
+    const unc = propagate(sizer, map, quantityFn, nominalQuantity, t.kind === 'size' ? 'conversion' : 'size', t.kind === 'size' ? '1' : sys.unit, key >= 0 ? key : undefined, {
+      draws,
+      seed: opts.seed ?? kase.uncertainty.seed,
+      levels: opts.levels ?? kase.uncertainty.levels,
+      bandSize,
+      onDraw: (d) => {
+        sizes[d] = lastSize;
+        drops[d] = lastDrop;
+      },
+      ...(opts.profileDraws !== undefined ? { profileDraws: opts.profileDraws } : {}),
+      ...(opts.onProgress ? { onProgress: opts.onProgress } : {}),
+    });
+    return { unc, sizes, drops };
+  };
+  let pass: TubePass;
+  let designed: PercentileTubeResult | undefined;
+  if (tubes && draws > 0) {
+    designed = designTubesForPercentile({
+      sizer,
+      molarMasses: input.molarMasses!,
+      start: tubes,
+      startSizing: res,
+      level,
+      draws,
+      monteCarlo: () => {
+        const r0 = sizer.size();
+        return monteCarlo(r0.size, r0.size);
+      },
+    });
+    pass = designed.pass;
+    res = designed.sizing;
+    tubes = designed.tubes;
+  } else {
+    pass = t.kind === 'size' ? monteCarlo(NaN, t.value) : monteCarlo(res.size, res.size);
+    if (tubes) tubes = { ...tubes, designedFor: { level: null, basis: 'nominal fit (no Monte Carlo draws to design for a percentile)' } };
+  }
+  const unc = pass.unc;
+
+  // Nominal result (with the final tube layout).
   const nominal = t.kind === 'size' ? t.value : res.size;
   const out = describeOutlet(sys, sizer, res.y, key);
+  if (unc.outletBand) {
+    const lo: Record<string, number> = {};
+    const hi: Record<string, number> = {};
+    kase.species.forEach((sp, j) => {
+      lo[sp] = unc.outletBand!.p5[j];
+      hi[sp] = unc.outletBand!.p95[j];
+    });
+    out.lo = lo;
+    out.hi = hi;
+    out.band = { lower: 0.05, upper: 0.95, draws: unc.outletBand.draws };
+  }
   const result: SizingResult = {
     ...outcome(SIZING_STATUS, t.kind === 'size' ? 'rated' : 'sized', warnings),
     ...base,
@@ -177,42 +263,22 @@ export function sizeReactor(input: SizingInput): SizingResult {
   if (heat.check) result.heat = heat.check;
   warnings.push(...heat.warnings);
   warnings.push(...extrapolationWarnings(handoff, kase, handoff.coverage.conversion ? conversionOf(sizer, res.y, handoff.coverage.conversion.species) : undefined));
-
-  // Uncertainty.
-  const draws = opts.draws ?? kase.uncertainty.draws;
-  let overDrop = 0;
-  const quantityFn =
-    t.kind === 'size'
-      ? (s: Sizer) => {
-          const r = s.rate(t.value);
-          return { value: r.status === 'sized' && key >= 0 ? s.conversion(r.y, key) : NaN, status: r.status };
-        }
-      : (s: Sizer) => {
-          const r = s.size();
-          if (tubes && r.status === 'sized' && kase.pressure! * (1 - Math.sqrt(Math.max(r.y[sys.nS], 0))) > tubes.allowedPressureDrop) overDrop++;
-          return { value: r.status === 'sized' ? r.size : NaN, status: r.status };
-        };
-  const unc = propagate(
-    sizer,
-    map,
-    quantityFn,
-    t.kind === 'size' ? (out.conversion?.value ?? NaN) : nominal,
-    t.kind === 'size' ? 'conversion' : 'size',
-    t.kind === 'size' ? '1' : sys.unit,
-    key >= 0 ? key : undefined,
-    {
-      draws,
-      seed: opts.seed ?? kase.uncertainty.seed,
-      levels: opts.levels ?? kase.uncertainty.levels,
-      ...(opts.profileDraws !== undefined ? { profileDraws: opts.profileDraws } : {}),
-      ...(opts.onProgress ? { onProgress: opts.onProgress } : {}),
-    },
-  );
   result.uncertainty = unc;
-  if (overDrop > 0 && tubes) {
+  if (tubes?.draws && tubes.draws.overAllowed > 0) {
+    const d = tubes.draws;
+    const P = `P${fmt(level * 100, 3)}`;
+    const share = `${d.overAllowed} of ${d.of} Monte Carlo parameter sets (${fmt((100 * d.overAllowed) / d.of, 3)}%) need a pressure drop above the allowed ${fmt(tubes.allowedPressureDrop / 1e5, 4)} bar with ${tubes.count} tubes`;
     warnings.push({
       code: 'W_DRAWS_PRESSURE',
-      message: `with ${tubes.count} tubes, ${overDrop} parameter sets (Monte Carlo and delta-method evaluations) need a pressure drop above the allowed ${fmt(tubes.allowedPressureDrop / 1e5, 4)} bar; size the tubes for a percentile, not the nominal fit, if that margin matters`,
+      message: designed?.met
+        ? `${share}; the tubes are designed for ${P} of the catalyst mass, so these are parameter sets beyond the design percentile (at most ${fmt(100 * (1 - level), 3)}% by design); raise uncertainty.designLevel for a larger margin`
+        : `${share}; the tubes could not be designed for ${P} of the catalyst mass after ${designed?.passes ?? 0} Monte Carlo passes${designed?.detail ? ` (${designed.detail})` : ''}; use wider tubes, larger particles or a larger allowed pressure drop`,
+      path: ['tubes'],
+    });
+  } else if (designed && !designed.met) {
+    warnings.push({
+      code: 'W_DRAWS_PRESSURE',
+      message: `the bed of the P${fmt(level * 100, 3)} catalyst mass with ${tubes!.count} tubes exceeds the allowed pressure drop${designed.detail ? ` (${designed.detail})` : ''}`,
       path: ['tubes'],
     });
   }

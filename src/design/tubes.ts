@@ -34,6 +34,26 @@ export interface TubeDesign {
   pressureDrop: { pa: number; bar: number };
   /** Allowed pressure drop, Pa. */
   allowedPressureDrop: number;
+  /**
+   * What the count was chosen for: `level` is the percentile of the required size (0.95 = P95)
+   * whose catalyst keeps the pressure drop within the allowed value, or null when only the nominal
+   * fit was used (no Monte Carlo draws); `basis` says it in words.
+   */
+  designedFor: { level: number | null; basis: string };
+  /** Smallest count for the nominal fit alone (equal to `count` unless the percentile needed more). */
+  nominalCount: number;
+  /**
+   * Catalyst to install for the design percentile, with `count` tubes: total mass (the design
+   * percentile of the size, never below the nominal mass), per tube, bed length per tube, and the
+   * pressure drop over that bed with the nominal kinetics. Absent without Monte Carlo draws.
+   */
+  install?: { level: number; catalystMass: number; catalystPerTube: number; length: number; pressureDrop: { pa: number; bar: number } };
+  /**
+   * Monte Carlo draws (with `count` tubes) whose required size needs more than the allowed drop
+   * (a draw whose pressure runs out counts), of the draws sized or pressure-limited; `dropAtLevel`
+   * is the design percentile of the drops they need (absent when that draw's pressure runs out).
+   */
+  draws?: { overAllowed: number; of: number; dropAtLevel?: { pa: number; bar: number } };
 }
 
 export interface TubeSearch {
@@ -116,24 +136,35 @@ export function designTubes(sizer: Sizer, molarMasses: ArrayLike<number>): TubeS
     else lo = mid;
   }
   const fin = tryN(hi);
-  const ba = bundleAlpha(sys, molarMasses, hi);
-  const Ac = (Math.PI * t.innerDiameter ** 2) / 4;
+  return { status: 'sized', sizing: fin.res, design: { ...tubeLayout(sys, molarMasses, hi, fin.res.size, fin.dp), nominalCount: hi } };
+}
+
+/**
+ * The layout of `N` tubes holding the nominal catalyst mass `W` (kg) with pressure drop `dp` (Pa),
+ * designed for the nominal fit (callers that design for a percentile replace `designedFor`).
+ */
+export function tubeLayout(sys: DesignSystem, molarMasses: ArrayLike<number>, N: number, W: number, dp: number): TubeDesign {
+  const t = sys.kase.tubes!;
+  const ba = bundleAlpha(sys, molarMasses, N);
   let FT = 0;
   for (let j = 0; j < sys.nS; j++) FT += sys.kase.feed[j];
-  const W = fin.res.size;
   return {
-    status: 'sized',
-    sizing: fin.res,
-    design: {
-      count: hi,
-      innerDiameter: t.innerDiameter,
-      length: W / hi / (t.bulkDensity * Ac),
-      catalystPerTube: W / hi,
-      flowPerTube: FT / hi,
-      superficialMassFlux: ba.G,
-      alphaPerTube: ba.alphaPerTube,
-      pressureDrop: { pa: fin.dp, bar: fin.dp / 1e5 },
-      allowedPressureDrop: t.allowedPressureDrop,
-    },
+    count: N,
+    innerDiameter: t.innerDiameter,
+    length: tubeLength(sys, N, W),
+    catalystPerTube: W / N,
+    flowPerTube: FT / N,
+    superficialMassFlux: ba.G,
+    alphaPerTube: ba.alphaPerTube,
+    pressureDrop: { pa: dp, bar: dp / 1e5 },
+    allowedPressureDrop: t.allowedPressureDrop,
+    designedFor: { level: null, basis: 'nominal fit' },
+    nominalCount: N,
   };
+}
+
+/** Bed length per tube (m) for total catalyst W (kg) in N tubes: L = W / (N rho_b A_c). */
+export function tubeLength(sys: DesignSystem, N: number, W: number): number {
+  const t = sys.kase.tubes!;
+  return W / N / (t.bulkDensity * ((Math.PI * t.innerDiameter ** 2) / 4));
 }

@@ -8,6 +8,9 @@
  * Delta method (first-order propagation): g_k = d size / d z_k by central differences with steps
  * of 1e-3 standard deviations, sd = sqrt(g' Cov g), percentiles size_hat + z_p sd (normal
  * approximation); the sensitivities reported are d ln(size)/d z_k = g_k / size_hat.
+ * Bands: the first `profileDraws` parameter vectors are rated along the size (conversion of the key
+ * species, P5/median/P95 per position) and at the band size itself (outlet state per species,
+ * P5/P95), all with the same type-7 percentiles.
  */
 import { SeededRandom, cholesky, normalQuantile } from './random';
 import { applyInternal, type ParameterMap } from './handoff-load';
@@ -26,6 +29,13 @@ export interface UncertaintyOptions {
   profileGrid?: number[];
   /** Called as draws finish (done, total); no output of its own. */
   onProgress?: (done: number, total: number) => void;
+  /**
+   * Size (kg, m3 or s) the bands are normalised to and the outlet band is taken at; default
+   * `nominal` (right when the propagated quantity is the size; give the rated size otherwise).
+   */
+  bandSize?: number;
+  /** Called after each Monte Carlo draw (not the delta-method evaluations) with its index, value and status. */
+  onDraw?: (index: number, value: number, status: string) => void;
 }
 
 export interface Percentile {
@@ -58,6 +68,11 @@ export interface UncertaintyResult {
   sensitivities: Sensitivity[];
   /** Conversion of the key species along the normalised size: median and P5/P95 over draws. */
   band?: { x: number[]; median: number[]; p5: number[]; p95: number[]; draws: number; key: string };
+  /**
+   * Outlet state at the band size over the band draws: P5 and P95 per species (kinetics order), in
+   * the state's unit (mol/s for flow reactors, mol/m3 for batch); `draws` counts those that reached it.
+   */
+  outletBand?: { at: number; p5: number[]; p95: number[]; draws: number };
   /** Distribution of the successful draws: 40 equal bins from the smallest to the largest value. */
   histogram: { start: number; end: number; count: number }[];
   seed: number;
@@ -130,6 +145,7 @@ export function propagate(
     const q = quantity(sizer);
     if (Number.isFinite(q.value)) values[nOk++] = q.value;
     else fail(q.status);
+    if (opts.onDraw) opts.onDraw(d, q.value, q.status);
     if (opts.onProgress && ((d + 1) % 100 === 0 || d + 1 === draws)) opts.onProgress(d + 1, draws);
   }
   const ok = values.subarray(0, nOk).sort();
@@ -157,12 +173,23 @@ export function propagate(
   for (let i = 0; i < n; i++) for (let k = 0; k < n; k++) varQ += g[i] * map.covariance[i * n + k] * g[k];
   const sdQ = deltaOk ? Math.sqrt(Math.max(varQ, 0)) : NaN;
 
-  // Conversion band along the normalised size.
+  // Conversion band along the normalised size, and the outlet band at the band size.
   let band: UncertaintyResult['band'];
-  if (key !== undefined && nBand > 0 && Number.isFinite(nominal) && L) {
+  let outletBand: UncertaintyResult['outletBand'];
+  const S = opts.bandSize ?? nominal;
+  if (key !== undefined && nBand > 0 && Number.isFinite(S) && S > 0 && L) {
+    const nS = sizer.sys.nS;
     const grid = opts.profileGrid ?? Array.from({ length: 31 }, (_, i) => i * 0.05);
-    const pos = grid.map((f) => f * nominal);
+    const pos = grid.map((f) => f * S);
+    // Positions evaluated in one integration per draw: the grid and the band size, ascending.
+    const evalPos = Array.from(new Set([...pos, S])).sort((a, b) => a - b);
+    const gridAt = pos.map((p) => evalPos.indexOf(p));
+    const atS = evalPos.indexOf(S);
     const conv: number[][] = grid.map(() => []);
+    const outs: number[][] = Array.from({ length: nS }, () => []);
+    const pushOutlet = (y: ArrayLike<number>) => {
+      for (let j = 0; j < nS; j++) outs[j].push(Math.max(y[j], 0));
+    };
     for (let d = 0; d < nBand; d++) {
       applyInternal(map, zBand.subarray(d * n, (d + 1) * n), theta);
       if (sizer.sys.kase.reactor.kind === 'stirred-tank') {
@@ -170,9 +197,15 @@ export function propagate(
           const r = p > 0 ? sizer.rate(p) : { status: 'sized', y: sizer.sys.y0 };
           if (r.status === 'sized') conv[i].push(sizer.conversion(r.y, key));
         });
+        const r = sizer.rate(S);
+        if (r.status === 'sized') pushOutlet(r.y);
       } else {
-        const r = sizer.rate(pos[pos.length - 1], pos) as SizeOnce & { profile?: { x: number[]; y: Float64Array[] } };
-        r.profile?.y.forEach((y, i) => conv[i].push(sizer.conversion(y, key)));
+        const r = sizer.rate(evalPos[evalPos.length - 1], evalPos) as SizeOnce & { profile?: { x: number[]; y: Float64Array[] } };
+        const ys = r.profile?.y ?? [];
+        gridAt.forEach((k, i) => {
+          if (k < ys.length) conv[i].push(sizer.conversion(ys[k], key));
+        });
+        if (atS < ys.length) pushOutlet(ys[atS]);
       }
     }
     const q = (a: number[], p: number) => quantileSorted(a.sort((x, y) => x - y), p);
@@ -184,6 +217,9 @@ export function propagate(
       draws: nBand,
       key: sizer.sys.kase.species[key],
     };
+    if (outs[0].length > 0) {
+      outletBand = { at: S, p5: outs.map((a) => q(a, 0.05)), p95: outs.map((a) => q(a, 0.95)), draws: outs[0].length };
+    }
   }
   theta.set(map.theta);
   return {
@@ -198,6 +234,7 @@ export function propagate(
     deltaMethod: { sd: sdQ, percentiles: levels.map((level) => ({ level, value: nominal + normalQuantile(level) * sdQ })) },
     sensitivities: map.free.map((name, k) => ({ name, transform: map.transform[k], dLnQuantity: g[k] / nominal })),
     ...(band ? { band } : {}),
+    ...(outletBand ? { outletBand } : {}),
     histogram: histogramSorted(ok),
     seed,
   };

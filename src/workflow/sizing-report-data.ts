@@ -38,7 +38,12 @@ export function sizingReportData(r: SizingResult): SizingReportData {
     },
     reactor: `${r.reactor.kind.replace('-', ' ')}, ${r.reactor.phase} phase, isothermal`,
     outlet: r.outlet
-      ? Object.entries(r.outlet.amounts).map(([species, value]) => ({ species, value, unit: r.outlet!.amountUnit }))
+      ? Object.entries(r.outlet.amounts).map(([species, value]) => ({
+          species,
+          value,
+          unit: r.outlet!.amountUnit,
+          ...(r.outlet!.lo && r.outlet!.hi ? { lo: r.outlet!.lo[species] ?? null, hi: r.outlet!.hi[species] ?? null } : {}),
+        }))
       : [],
     pressureDrop: r.pressure ? { value: r.pressure.drop, fractionOfInlet: r.pressure.drop / r.pressure.inlet } : null,
     tubes: r.tubes

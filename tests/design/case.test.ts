@@ -27,7 +27,16 @@ describe('case file loader', () => {
     expect(c.pressure).toBe(5e5);
     expect(c.tubes!.innerDiameter).toBeCloseTo(0.025, 15);
     expect(c.heat!.reactionEnthalpy.r1).toBe(-90000);
-    expect(c.uncertainty).toEqual({ draws: 2000, seed: 11, levels: [0.9, 0.95] });
+    expect(c.uncertainty).toEqual({ draws: 2000, seed: 11, levels: [0.9, 0.95], designLevel: 0.95 });
+  });
+  it('reads the design level of the tubes and rejects one outside [0.5, 1)', () => {
+    const raw = base();
+    raw.uncertainty.designLevel = 0.9;
+    expect(loadCase(raw, sp, ['r1']).uncertainty.designLevel).toBe(0.9);
+    raw.uncertainty.designLevel = 1;
+    const e = err(() => loadCase(raw, sp, ['r1']));
+    expect(e.code).toBe('E_VALUE');
+    expect(e.path).toEqual(['uncertainty', 'designLevel']);
   });
   it('names the closest field for a misspelt one', () => {
     const raw = base();
