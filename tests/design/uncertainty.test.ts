@@ -80,3 +80,34 @@ describe('Monte Carlo sizing', () => {
     expect(band.median[0]).toBe(0);
   });
 });
+
+describe('rating a given size', () => {
+  it('bands along the rated size (not the conversion) and an outlet band that brackets the nominal outlet', () => {
+    const { h, dk } = setup(0.1, 3000);
+    const kase = loadCase(
+      {
+        name: 'liquid tube rated',
+        reactor: { kind: 'plug-flow', phase: 'liquid' },
+        feed: { flows: { A: '5 mol/s' }, volumetricFlow: '1e-3 m3/s' },
+        temperature: '360 K',
+        target: { size: '0.4 m3' },
+      },
+      ['A', 'B'],
+      ['r1'],
+    );
+    const r = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase, options: { draws: 300, profileDraws: 60 } });
+    expect(r.status).toBe('rated');
+    const u = r.uncertainty!;
+    const X = r.outlet!.conversion!.value;
+    // At x = 1 the band is at the rated size itself, so its median is near the nominal conversion.
+    expect(u.band!.median[u.band!.x.indexOf(1)]).toBeCloseTo(X, 1);
+    expect(u.outletBand!.at).toBe(0.4);
+    const o = r.outlet!;
+    for (const s of ['A', 'B']) {
+      expect(o.lo![s]).toBeLessThan(o.amounts[s]);
+      expect(o.hi![s]).toBeGreaterThan(o.amounts[s]);
+    }
+    // Mole balance A + B = F_A0 holds for every draw, so the bands mirror each other.
+    expect(o.lo!.A + o.hi!.B).toBeCloseTo(5, 6);
+  });
+});
