@@ -159,11 +159,17 @@ export interface ElementData {
  * unmeasured inert species is taken to leave as it came in.
  * Rejects when |out_e - in_e| > tolerance * in_e for any element e with in_e > 0.
  */
+/** Outlet flows of the row being balanced (reused between calls; the checks are synchronous). */
+let balanceScratch = new Float64Array(8);
+
 export function checkElementBalance(run: MappedRun, rowObs: readonly MappedObservation[], chem: ElementData, ctx: Pick<InletCheckContext, 'kind' | 'phase' | 'settings'>): Rejection | undefined {
   const nS = chem.hasFormula.length;
   const nE = chem.elements.length;
-  if (nE === 0 || !chem.hasFormula.every(Boolean) || !run.feed || ctx.kind === 'batch' || ctx.kind === 'semibatch') return undefined;
-  const out = new Float64Array(nS).fill(NaN);
+  if (nE === 0 || !run.feed || ctx.kind === 'batch' || ctx.kind === 'semibatch') return undefined;
+  for (let j = 0; j < nS; j++) if (!chem.hasFormula[j]) return undefined;
+  if (balanceScratch.length < nS) balanceScratch = new Float64Array(nS);
+  const out = balanceScratch;
+  out.fill(NaN, 0, nS);
   for (const o of rowObs) {
     if (o.speciesIndex === undefined || o.position !== undefined) continue;
     if (o.response === 'outlet-flow') out[o.speciesIndex] = o.value;
@@ -172,7 +178,7 @@ export function checkElementBalance(run: MappedRun, rowObs: readonly MappedObser
     }
   }
   for (let j = 0; j < nS; j++) if (Number.isNaN(out[j]) && chem.inert[j]) out[j] = run.feed[j];
-  if (out.some((x) => Number.isNaN(x))) return undefined;
+  for (let j = 0; j < nS; j++) if (Number.isNaN(out[j])) return undefined;
   const tol = ctx.settings.elementBalanceTolerance;
   for (let e = 0; e < nE; e++) {
     let fin = 0;
@@ -253,9 +259,14 @@ export function findReplicates(runs: readonly MappedRun[], tol: number): Replica
       }
     }
   }
+  // Groups in order of their first run; single runs are no group (no list made for them).
+  const size = new Int32Array(runs.length);
+  const rootOf = new Int32Array(runs.length);
+  for (let i = 0; i < runs.length; i++) size[(rootOf[i] = find(i))]++;
   const byRoot = new Map<number, string[]>();
   for (let i = 0; i < runs.length; i++) {
-    const root = find(i);
+    const root = rootOf[i];
+    if (size[root] < 2) continue;
     const g = byRoot.get(root);
     if (g) g.push(runs[i].id);
     else byRoot.set(root, [runs[i].id]);
@@ -273,47 +284,59 @@ export function pureErrors(observations: readonly MappedObservation[], groups: r
   const groupOf = new Map<string, string>();
   for (const g of groups) for (const id of g.runIds) groupOf.set(id, g.id);
   // A cell is (group or 'run:<id>', response, species, position). Species names hold no '|'
-  // (schema pattern), so the nested keys below match the former flat key
-  // `${group}|${response}|${species}|${position}` exactly; cells keep their order of first use.
-  type Cell = { key: string; o: MappedObservation; values: number[] };
+  // (schema pattern), so these keys match the former flat key `${group}|${response}|${species}|${position}`
+  // exactly; cells keep their order of first use (which fixes the order of the sums).
+  // A cell holds its first value inline and makes a list only for a second one.
+  type Cell = { key: string; o: MappedObservation; first: number; values: number[] | undefined };
   const cellList: Cell[] = [];
-  const cells = new Map<string, Map<string, Cell>>();
-  const groupKey = new Map<string, string>();
-  const respKeys = new Map<string, Map<string, string>>();
+  const respIndex = new Map<string, Map<string, number>>(); // response -> species -> index
+  const respKeys: string[] = [];
+  const outlet = new Map<string, (Cell | undefined)[]>(); // group -> cells (no position) by response index
+  const profile = new Map<string, Cell>(); // `${group}|${respKey}|${position}` -> cell
+  // Neighbouring observations usually share a run: its group and cells are looked up once.
+  let lastRun: string | undefined;
+  let g = '';
+  let slots: (Cell | undefined)[] = [];
   for (const o of observations) {
-    let g = groupKey.get(o.runId);
-    if (g === undefined) {
+    if (o.runId !== lastRun) {
+      lastRun = o.runId;
       g = groupOf.get(o.runId) ?? `run:${o.runId}`;
-      groupKey.set(o.runId, g);
+      const found = outlet.get(g);
+      if (found) slots = found;
+      else outlet.set(g, (slots = []));
     }
     const sp = o.species ?? '';
-    let bySpecies = respKeys.get(o.response);
+    let bySpecies = respIndex.get(o.response);
     if (!bySpecies) {
       bySpecies = new Map();
-      respKeys.set(o.response, bySpecies);
+      respIndex.set(o.response, bySpecies);
     }
-    let respKey = bySpecies.get(sp);
-    if (respKey === undefined) {
-      respKey = `${o.response}|${sp}`;
-      bySpecies.set(sp, respKey);
+    let ri = bySpecies.get(sp);
+    if (ri === undefined) {
+      ri = respKeys.length;
+      respKeys.push(`${o.response}|${sp}`);
+      bySpecies.set(sp, ri);
     }
-    const inner = o.position === undefined ? respKey : `${respKey}|${o.position.toPrecision(9)}`;
-    let byResp = cells.get(g);
-    if (!byResp) {
-      byResp = new Map();
-      cells.set(g, byResp);
+    let profileKey = '';
+    let c: Cell | undefined;
+    if (o.position === undefined) c = slots[ri];
+    else {
+      profileKey = `${g}|${respKeys[ri]}|${o.position.toPrecision(9)}`;
+      c = profile.get(profileKey);
     }
-    let c = byResp.get(inner);
     if (!c) {
-      c = { key: respKey, o, values: [] };
-      byResp.set(inner, c);
+      c = { key: respKeys[ri], o, first: o.value, values: undefined };
+      if (o.position === undefined) {
+        while (slots.length < ri) slots.push(undefined);
+        slots[ri] = c;
+      } else profile.set(profileKey, c);
       cellList.push(c);
-    }
-    c.values.push(o.value);
+    } else if (c.values) c.values.push(o.value);
+    else c.values = [c.first, o.value];
   }
   const pooled = new Map<string, PureError>();
   for (const c of cellList) {
-    if (c.values.length < 2) continue;
+    if (!c.values) continue;
     const mean = c.values.reduce((a, b) => a + b, 0) / c.values.length;
     const ss = c.values.reduce((a, y) => a + (y - mean) ** 2, 0);
     const p = pooled.get(c.key) ?? { response: c.o.response, ...(c.o.species !== undefined ? { species: c.o.species } : {}), unit: c.o.unit, sumSquares: 0, dof: 0, sigma: 0 };
