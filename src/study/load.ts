@@ -241,7 +241,10 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   for (const m of perRun) ledger.reject(...m.rejections);
   if (!perRun.length) throw new RateloomError('E_MISSING_FIELD', 'the data need at least one per-run source (run conditions)', { path: ['data'] });
 
-  let runs = mergeDuplicateRuns(perRun.flatMap((m) => m.runs), ledger, settings.replicateTolerance);
+  // Plain loops instead of flatMap and map-to-pairs: these run over every row and observation.
+  const allRuns: MappedRun[] = [];
+  for (const m of perRun) for (const r of m.runs) allRuns.push(r);
+  let runs = mergeDuplicateRuns(allRuns, ledger, settings.replicateTolerance);
   // An absolute sigma must be in a unit of the responses that use it.
   const checkModelUnits = (list: readonly MappedObservation[]) => {
     for (const o of list) {
@@ -261,10 +264,12 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     return m && m.kind !== 'replicates' ? sigmaFromModel(m, o.value) : undefined;
   };
   const inletCtx = { kind: reactor.kind, phase: reactor.phase, reactant, sigmaOf, settings };
-  const runById = new Map(runs.map((r) => [r.id, r]));
+  const runById = new Map<string, MappedRun>();
+  for (const r of runs) runById.set(r.id, r);
 
   // Per-run observations: drop those of rejected rows, then physical checks row by row.
-  let observations = perRun.flatMap((m) => m.observations).filter((o) => !ledger.isRejected(o.location));
+  let observations: MappedObservation[] = [];
+  for (const m of perRun) for (const o of m.observations) if (!ledger.isRejected(o.location)) observations.push(o);
   for (const list of rowGroups(observations, new Set(perRun.map((m) => m.file)).size === perRun.length)) {
     const run = runById.get(list[0].runId) as MappedRun;
     const rowRun = run.location.line === list[0].location.line && run.location.file === list[0].location.file ? run : { ...run, location: { file: list[0].location.file, line: list[0].location.line } };
@@ -282,14 +287,15 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     return false;
   });
   // Other rows of a rejected run (repeated rows with equal conditions) go with it.
-  for (const r of perRun.flatMap((m) => m.runs)) {
+  for (const r of allRuns) {
     const at = rejectedRuns.get(r.id);
     if (at && !ledger.isRejected(r.location)) ledger.reject({ file: r.location.file, line: r.location.line, reason: 'run-rejected', message: `run '${r.id}' was rejected (${at.file}:${at.line})` });
   }
   observations = observations.filter((o) => !ledger.isRejected(o.location) && !rejectedRuns.has(o.runId));
 
   // Long sources, against the surviving runs.
-  const known = new Set(runs.map((r) => r.id));
+  const known = new Set<string>();
+  for (const r of runs) known.add(r.id);
   raw.data.forEach((s, i) => {
     if (s.layout !== 'long') return;
     const m = mapLongSource(tables[i], s as LongSourceSpec, ctxFor(i), known, rejectedRuns);
@@ -311,7 +317,8 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     for (const o of observations) if (o.runId === r.id) ledger.reject({ file: o.location.file, line: o.location.line, reason: 'run-rejected', message: `run '${r.id}' was rejected (${r.location.file}:${r.location.line})` });
   }
   runs = runs.filter((r) => r.size !== undefined);
-  const runIndex = new Map(runs.map((r, i) => [r.id, i]));
+  const runIndex = new Map<string, number>();
+  for (let i = 0; i < runs.length; i++) runIndex.set(runs[i].id, i);
   observations = observations.filter((o) => runIndex.has(o.runId) && !ledger.isRejected(o.location));
 
   checkModelUnits(observations);
