@@ -17,7 +17,7 @@ const dk = kineticsFromHandoff(h);
 const kase = loadCase(JSON.parse(readFileSync(new URL('bed.case.json', root), 'utf8')), dk.kinetics.speciesNames, dk.kinetics.reactionIds);
 
 /** Run the sizing benchmark; returns the timings (ms) and prints nothing. */
-export function runMcSizing(draws = 10000): { lines: string[]; nominalMs: number; drawsMs: number; draws: number; failed: number; medianKg: number; p90Kg: number; p95Kg: number } {
+export function runMcSizing(draws = 10000): { lines: string[]; nominalMs: number; drawsMs: number; draws: number; failed: number; medianKg: number; p90Kg: number; p95Kg: number; tubeCount?: number } {
   const t0 = performance.now();
   const nominal = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase, molarMasses: dk.molarMasses!, options: { draws: 0, profileDraws: 0 } });
   const t1 = performance.now();
@@ -29,7 +29,7 @@ export function runMcSizing(draws = 10000): { lines: string[]; nominalMs: number
   `nominal sizing with tube search: ${(t1 - t0).toFixed(0)} ms`,
   `${draws} Monte Carlo draws (+200-draw band, delta method): ${((t2 - t1) / 1000).toFixed(2)} s (${(((t2 - t1) * 1000) / draws).toFixed(0)} us per draw)`,
   `median ${u.median.toFixed(3)} kg, P90 ${u.percentiles[0].value.toFixed(3)} kg, P95 ${u.percentiles[1].value.toFixed(3)} kg, failed ${u.failed.count}`];
-  return { lines, nominalMs: t1 - t0, drawsMs: t2 - t1, draws, failed: u.failed.count, medianKg: u.median, p90Kg: u.percentiles[0].value, p95Kg: u.percentiles[1].value };
+  return { lines, nominalMs: t1 - t0, drawsMs: t2 - t1, draws, failed: u.failed.count, medianKg: u.median, p90Kg: u.percentiles[0].value, p95Kg: u.percentiles[1].value, ...(r.tubes ? { tubeCount: r.tubes.count } : {}) };
 }
 
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {

@@ -195,7 +195,7 @@ section('(f) exact Jacobian (forward sensitivities) vs central differences, 50-r
 
 // ---------------------------------------------------------------- (g) parallel
 section('(g) worker-thread pool: serial vs 2 workers');
-const par = await runParallelBench(quick, { drawsMs: mc.drawsMs, medianKg: mc.medianKg, p90Kg: mc.p90Kg, p95Kg: mc.p95Kg, draws });
+const par = await runParallelBench(quick, { drawsMs: mc.drawsMs, medianKg: mc.medianKg, p90Kg: mc.p90Kg, p95Kg: mc.p95Kg, draws, ...(mc.tubeCount !== undefined ? { tubeCount: mc.tubeCount } : {}) });
 for (const l of par.lines) console.log(`  ${l}`);
 report.parallel = par.results;
 

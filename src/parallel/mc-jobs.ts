@@ -1,7 +1,7 @@
 /**
  * Job module (see pool.ts) for Monte Carlo sizing draws: every worker rebuilds the design case
  * once (setup: hand-off, compiled kinetics, case, sizer and, for a tube bundle, the tube search of
- * sizeReactor), then sizes a chunk of parameter vectors z (estimation space, drawn by the caller in
+ * sizeReactor, or the tube count given), then sizes a chunk of parameter vectors z (estimation space, drawn by the caller in
  * the order of design/uncertainty.ts propagate). Sizing targets (conversion) only; a rating case
  * (target kind 'size') is refused by setup.
  */
@@ -11,13 +11,18 @@ import { applyInternal, parameterMap, parseHandoff, type ParameterMap } from '..
 import { kineticsFromHandoff } from '../design/kinetics';
 import { Sizer } from '../design/sizer';
 import { buildSystem } from '../design/system';
-import { designTubes } from '../design/tubes';
+import { bundleAlpha, designTubes } from '../design/tubes';
 
 export interface McContext {
   /** The fitted-kinetics hand-off as read from its JSON file. */
   handoff: unknown;
   /** The design case as read from its JSON file. */
   case: unknown;
+  /**
+   * Tube count of the bundle to size the draws with (the count sizeReactor settled on, which may
+   * be raised for a design percentile); default: the nominal tube search (designTubes).
+   */
+  tubeCount?: number;
 }
 
 export interface McJob {
@@ -49,7 +54,8 @@ export function setup(ctx: McContext): McState {
   const sizer = new Sizer(buildSystem(dk.kinetics, kase, map.theta));
   if (kase.tubes) {
     if (!dk.molarMasses) throw new RateloomError('E_VALUE', 'the tube design needs the molar masses of all species', { path: ['species'] });
-    designTubes(sizer, dk.molarMasses);
+    if (ctx.tubeCount !== undefined) sizer.sys.alpha = bundleAlpha(sizer.sys, dk.molarMasses, ctx.tubeCount).alpha;
+    else designTubes(sizer, dk.molarMasses);
   }
   return { sizer, map };
 }

@@ -58,8 +58,10 @@ describe('parallel Monte Carlo draws', () => {
     const dk = kineticsFromHandoff(h);
     const kase = loadCase(caseRaw, dk.kinetics.speciesNames, dk.kinetics.reactionIds);
     const serial = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase, molarMasses: dk.molarMasses!, options: { draws, profileDraws: 0 } });
-    const one = await parallelDraws({ handoff: handoffRaw, case: caseRaw }, { draws, workers: 1, chunks: 3 });
-    const two = await parallelDraws({ handoff: handoffRaw, case: caseRaw }, { draws, workers: 2, chunks: 5 });
+    // the draws are sized with the tube bundle sizeReactor settled on (its count may be raised for a percentile)
+    const ctx = { handoff: handoffRaw, case: caseRaw, tubeCount: serial.tubes!.count };
+    const one = await parallelDraws(ctx, { draws, workers: 1, chunks: 3 });
+    const two = await parallelDraws(ctx, { draws, workers: 2, chunks: 5 });
     expect(one.status).toBe('ok');
     expect(Array.from(two.values)).toEqual(Array.from(one.values));
     const ok = Float64Array.from(two.values.filter((v) => Number.isFinite(v))).sort();
