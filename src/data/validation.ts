@@ -209,30 +209,68 @@ const KEYS: ((r: MappedRun) => number)[] = [
 ];
 
 /**
- * Split `idx` into chains of runs whose key k differs by at most tol (relative) between sorted
- * neighbours, then recurse on the next key. Any two runs within tol in every key end up in the
- * same leaf, so comparing pairs only inside leaves finds every replicate pair.
- * `keys[k][i]` is KEYS[k] of run i, computed once.
+ * Stable sort of order[lo, hi) by key (ascending), merge sort with insertion sort below 16
+ * elements; `tmp` is scratch of at least hi - lo. For keys without NaN this is exactly the order
+ * Array.prototype.sort (stable) gives with the comparator key[a] - key[b]; with a NaN key the
+ * range goes through Array.prototype.sort itself so the result stays the same as before.
  */
-function leaves(keys: readonly Float64Array[], idx: number[], k: number, tol: number, out: number[][]): void {
-  if (idx.length < 2) return;
+function sortRange(order: Int32Array, lo: number, hi: number, key: Float64Array, tmp: Int32Array, anyNaN: boolean): void {
+  if (anyNaN) {
+    const sorted = Array.from(order.subarray(lo, hi)).sort((a, b) => key[a] - key[b]);
+    order.set(sorted, lo);
+    return;
+  }
+  if (hi - lo <= 16) {
+    for (let i = lo + 1; i < hi; i++) {
+      const v = order[i];
+      const kv = key[v];
+      let j = i - 1;
+      while (j >= lo && key[order[j]] > kv) {
+        order[j + 1] = order[j];
+        j--;
+      }
+      order[j + 1] = v;
+    }
+    return;
+  }
+  const mid = (lo + hi) >>> 1;
+  sortRange(order, lo, mid, key, tmp, false);
+  sortRange(order, mid, hi, key, tmp, false);
+  if (key[order[mid - 1]] <= key[order[mid]]) return; // already in order
+  // Merge: left half to tmp, then take the smaller head (left on ties: stable).
+  const n = mid - lo;
+  for (let i = 0; i < n; i++) tmp[i] = order[lo + i];
+  let i = 0;
+  let j = mid;
+  let o = lo;
+  while (i < n && j < hi) order[o++] = key[order[j]] < key[tmp[i]] ? order[j++] : tmp[i++];
+  while (i < n) order[o++] = tmp[i++];
+}
+
+/**
+ * Split order[lo, hi) into chains of runs whose key k differs by at most tol (relative) between
+ * sorted neighbours, then recurse on the next key within each chain. Any two runs within tol in
+ * every key end up in the same leaf, so comparing pairs only inside leaves finds every replicate
+ * pair. `keys[k][i]` is KEYS[k] of run i, computed once; ranges are sorted in place.
+ */
+function leaves(keys: readonly Float64Array[], nan: readonly boolean[], order: Int32Array, tmp: Int32Array, lo: number, hi: number, k: number, tol: number, out: number[][]): void {
+  if (hi - lo < 2) return;
   if (k === keys.length) {
-    out.push(idx);
+    out.push(Array.from(order.subarray(lo, hi)));
     return;
   }
   const key = keys[k];
-  const sorted = idx.slice().sort((a, b) => key[a] - key[b]);
-  let chain = [sorted[0]];
-  for (let i = 1; i < sorted.length; i++) {
-    const a = key[sorted[i - 1]];
-    const b = key[sorted[i]];
-    if (Math.abs(b - a) <= tol * Math.max(Math.abs(a), Math.abs(b))) chain.push(sorted[i]);
-    else {
-      leaves(keys, chain, k + 1, tol, out);
-      chain = [sorted[i]];
+  sortRange(order, lo, hi, key, tmp, nan[k]);
+  let start = lo;
+  for (let i = lo + 1; i < hi; i++) {
+    const a = key[order[i - 1]];
+    const b = key[order[i]];
+    if (!(Math.abs(b - a) <= tol * Math.max(Math.abs(a), Math.abs(b)))) {
+      leaves(keys, nan, order, tmp, start, i, k + 1, tol, out);
+      start = i;
     }
   }
-  leaves(keys, chain, k + 1, tol, out);
+  leaves(keys, nan, order, tmp, start, hi, k + 1, tol, out);
 }
 
 /** Replicate groups: runs with equal conditions within the relative tolerance (two or more runs each). */
@@ -246,12 +284,18 @@ export function findReplicates(runs: readonly MappedRun[], tol: number): Replica
     return i;
   };
   const groups: number[][] = [];
+  const n = runs.length;
+  const nan: boolean[] = [];
   const keys = KEYS.map((key) => {
-    const v = new Float64Array(runs.length);
-    for (let i = 0; i < runs.length; i++) v[i] = key(runs[i]);
+    const v = new Float64Array(n);
+    let anyNaN = false;
+    for (let i = 0; i < n; i++) if (Number.isNaN((v[i] = key(runs[i])))) anyNaN = true;
+    nan.push(anyNaN);
     return v;
   });
-  leaves(keys, runs.map((_, i) => i), 0, tol, groups);
+  const order = new Int32Array(n);
+  for (let i = 0; i < n; i++) order[i] = i;
+  leaves(keys, nan, order, new Int32Array(n), 0, n, 0, tol, groups);
   for (const leaf of groups) {
     for (let a = 0; a < leaf.length; a++) {
       for (let b = a + 1; b < leaf.length; b++) {
