@@ -295,7 +295,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
 
   // Long sources, against the surviving runs.
   const known = new Set<string>();
-  for (const r of runs) known.add(r.id);
+  if (raw.data.some((s) => s.layout === 'long')) for (const r of runs) known.add(r.id);
   raw.data.forEach((s, i) => {
     if (s.layout !== 'long') return;
     const m = mapLongSource(tables[i], s as LongSourceSpec, ctxFor(i), known, rejectedRuns);
