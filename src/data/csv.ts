@@ -36,7 +36,8 @@ function startLine(r: ParsedRecord): number {
 
 /** True when no cell can be quoted and every line ends with '\n' (and no lone surrogate). */
 function isPlain(text: string): boolean {
-  if (text.indexOf('"') >= 0 || text.indexOf('\r') >= 0) return false;
+  // Anything but a string (a reader returning something else) keeps csv-parse's handling.
+  if (typeof text !== 'string' || text.indexOf('"') >= 0 || text.indexOf('\r') >= 0) return false;
   const wf = (text as { isWellFormed?: () => boolean }).isWellFormed;
   return typeof wf === 'function' ? wf.call(text) : !/[\uD800-\uDFFF]/.test(text);
 }
