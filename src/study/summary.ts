@@ -49,9 +49,18 @@ export interface StudySummary {
 }
 
 function range(values: number[], unit: string): Range | undefined {
-  const v = values.filter((x) => Number.isFinite(x));
-  if (!v.length) return undefined;
-  return { min: Math.min(...v), max: Math.max(...v), unit, n: v.length };
+  // A loop, not Math.min(...v): spreading a very large list of runs overflows the call stack.
+  let min = Infinity;
+  let max = -Infinity;
+  let n = 0;
+  for (const x of values) {
+    if (!Number.isFinite(x)) continue;
+    n++;
+    if (x < min || (x === 0 && min === 0 && Object.is(x, -0))) min = x;
+    if (x > max || (x === 0 && max === 0 && Object.is(max, -0))) max = x;
+  }
+  if (!n) return undefined;
+  return { min, max, unit, n };
 }
 
 /** Space time of one run in SI, or undefined where it cannot be formed. */
