@@ -12,7 +12,7 @@ import type { Phase, ReactorKind } from '../reactors/types';
 import { unitFor, type Quantity, type UnitConversion } from '../units';
 import { columnIndex, type CsvRow, type CsvTable } from './csv';
 import type { Rejection } from './report';
-import type { FieldSpec, LongSourceSpec, MeasureSpec, PerRunSourceSpec, ResponseKind } from './spec';
+import type { FieldSpec, LongSourceSpec, MeasureSpec, MeasuredSpec, PerRunSourceSpec, ResponseKind } from './spec';
 
 /** Molar gas constant, J/(mol K): exact (SI Brochure 9th ed., k_B N_A). */
 export const GAS_CONSTANT = 8.314462618;
@@ -201,6 +201,30 @@ class RowReader {
   }
 }
 
+/**
+ * A per-run observation with its keys in the documented order and optional keys only when
+ * defined. One object literal per shape (instead of spreads or keys added one by one) keeps every
+ * property inside the object: no extra property store per observation.
+ */
+function newObservation(runId: string, m: MeasuredSpec, j: number | undefined, value: number, sigma: number | undefined, unit: string, location: RowLocation): MappedObservation {
+  const response = m.response;
+  const species = m.species;
+  const errorModel = m.errorModel;
+  if (species !== undefined) {
+    const speciesIndex = j;
+    if (errorModel !== undefined) {
+      return sigma !== undefined
+        ? { runId, response, species, speciesIndex, value, sigma, errorModel, unit, location }
+        : { runId, response, species, speciesIndex, value, errorModel, unit, location };
+    }
+    return sigma !== undefined ? { runId, response, species, speciesIndex, value, sigma, unit, location } : { runId, response, species, speciesIndex, value, unit, location };
+  }
+  if (errorModel !== undefined) {
+    return sigma !== undefined ? { runId, response, value, sigma, errorModel, unit, location } : { runId, response, value, errorModel, unit, location };
+  }
+  return sigma !== undefined ? { runId, response, value, sigma, unit, location } : { runId, response, value, unit, location };
+}
+
 function prepareSpecies(table: CsvTable, ctx: MappingContext, map: Record<string, FieldSpec> | undefined, label: string, q: Quantity, path: FieldPath) {
   if (!map) return undefined;
   return Object.entries(map).map(([sp, f]) => ({ j: speciesIdx(ctx, sp, [...path, sp]), p: prepare(table, `${label} of ${sp}`, f, q, [...path, sp]) }));
@@ -318,18 +342,7 @@ export function mapPerRunSource(table: CsvTable, spec: PerRunSourceSpec, ctx: Ma
       const value = r.num(p, false, measuredMin[k]);
       if (value === undefined) continue; // an empty measured cell is simply not measured
       const s = sigma ? r.num(sigma, false, 'positive') : undefined;
-      // Built key by key in the order of the documented shape (no spreads in this loop).
-      const o = { runId: id, response: m.response } as MappedObservation;
-      if (m.species !== undefined) {
-        o.species = m.species;
-        o.speciesIndex = j;
-      }
-      o.value = value;
-      if (s !== undefined) o.sigma = s;
-      if (m.errorModel !== undefined) o.errorModel = m.errorModel;
-      o.unit = p.conv.si;
-      o.location = { file, line, column: m.column };
-      obs.push(o);
+      obs.push(newObservation(id, m, j, value, s, p.conv.si, { file, line, column: m.column }));
     }
     if (r.problems.length) return;
     const run = { id } as MappedRun;
