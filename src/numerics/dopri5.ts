@@ -7,7 +7,11 @@
  * the stiffness test of sec. IV.2 of vol. II: h*|lambda| is estimated from the last two stages,
  * which share the abscissa t+h, and compared with the boundary of the stability region (3.25).
  *
- * All stage arrays are allocated once in the constructor; a step allocates nothing.
+ * All stage arrays are allocated once in the constructor; a step allocates nothing. One object can
+ * be reused for any number of solves of the same dimension (`reset` rebinds it to new settings), so
+ * a caller that solves the same system many times (a fit, a Monte Carlo loop) pays no set-up. The
+ * step keeps its scalars and arrays in locals; the last stage and the state are swapped, not
+ * copied (FSAL), and the dense-output coefficients are formed only when dense output is asked for.
  */
 import type { OdeRhs } from './ode-types';
 import {
@@ -61,126 +65,154 @@ export interface Dopri5Options {
 
 /** Dormand-Prince 5(4) stepper (see file header). */
 export class Dopri5 implements Stepper {
-  /** Scalars updated every step live in a typed array so that storing them never boxes a double. */
-  private readonly sc = new Float64Array(6); // t, tOld, h, hLambda, hStep, facold
-  get t(): number {
-    return this.sc[0];
-  }
-  get tOld(): number {
-    return this.sc[1];
-  }
+  /** Time after the last accepted step. */
+  t = 0;
+  /** Start of the last accepted step. */
+  tOld = 0;
   /** Proposed size of the next step (signed). */
-  get h(): number {
-    return this.sc[2];
-  }
+  h = 0;
   /** Last estimate of h*|lambda| from the stiffness test (0 until tested). */
-  get hLambda(): number {
-    return this.sc[3];
-  }
-  private get hStep(): number {
-    return this.sc[4];
-  }
-  private get facold(): number {
-    return this.sc[5];
-  }
+  hLambda = 0;
   stiff = false;
-  readonly y: Float64Array;
+  /** State after the last accepted step (the buffer changes between steps; read it after each). */
+  y: Float64Array;
 
-  private readonly f: OdeRhs;
-  private readonly n: number;
-  private readonly s: StepperSettings;
-  private readonly k1: Float64Array;
-  private readonly k2: Float64Array;
-  private readonly k3: Float64Array;
-  private readonly k4: Float64Array;
-  private readonly k5: Float64Array;
-  private readonly k6: Float64Array;
-  private readonly k7: Float64Array;
-  private readonly y1: Float64Array;
-  private readonly ysti: Float64Array;
-  private readonly rc1: Float64Array;
-  private readonly rc2: Float64Array;
-  private readonly rc3: Float64Array;
-  private readonly rc4: Float64Array;
-  private readonly rc5: Float64Array;
+  private hStep = 0;
+  private facold = 1e-4;
+  private f: OdeRhs;
+  private n: number;
+  private s: StepperSettings;
+  private k1: Float64Array;
+  private k2: Float64Array;
+  private k3: Float64Array;
+  private k4: Float64Array;
+  private k5: Float64Array;
+  private k6: Float64Array;
+  private k7: Float64Array;
+  private y1: Float64Array;
+  private ysti: Float64Array;
+  private rc1: Float64Array;
+  private rc2: Float64Array;
+  private rc3: Float64Array;
+  private rc4: Float64Array;
+  private rc5: Float64Array;
+  /** True once rc1..rc5 hold the dense-output coefficients of the last accepted step. */
+  private denseReady = true;
   private direction = 1;
   private reject = false;
   private accepted = 0;
   private iasti = 0;
   private nonsti = 0;
-  private readonly stiffnessInterval: number;
-  private readonly stiffnessThreshold: number;
-  private readonly h0?: number;
+  private stiffnessInterval = 1;
+  private stiffnessThreshold = STIFF_HLAMBDA;
+  private h0 = 0;
 
   constructor(settings: StepperSettings, options: Dopri5Options = {}) {
     this.s = settings;
     this.f = settings.f;
     const n = (this.n = settings.n);
-    const mk = () => new Float64Array(n);
-    this.y = mk();
-    this.k1 = mk();
-    this.k2 = mk();
-    this.k3 = mk();
-    this.k4 = mk();
-    this.k5 = mk();
-    this.k6 = mk();
-    this.k7 = mk();
-    this.y1 = mk();
-    this.ysti = mk();
-    this.rc1 = mk();
-    this.rc2 = mk();
-    this.rc3 = mk();
-    this.rc4 = mk();
-    this.rc5 = mk();
+    this.y = new Float64Array(n);
+    this.k1 = new Float64Array(n);
+    this.k2 = new Float64Array(n);
+    this.k3 = new Float64Array(n);
+    this.k4 = new Float64Array(n);
+    this.k5 = new Float64Array(n);
+    this.k6 = new Float64Array(n);
+    this.k7 = new Float64Array(n);
+    this.y1 = new Float64Array(n);
+    this.ysti = new Float64Array(n);
+    this.rc1 = new Float64Array(n);
+    this.rc2 = new Float64Array(n);
+    this.rc3 = new Float64Array(n);
+    this.rc4 = new Float64Array(n);
+    this.rc5 = new Float64Array(n);
+    this.reset(settings, options);
+  }
+
+  /**
+   * Rebind the stepper to new settings and options (same dimension n as at construction) so that
+   * one object serves many solves without allocating; call start() next.
+   */
+  reset(settings: StepperSettings, options: Dopri5Options = {}): void {
+    if (settings.n !== this.n) throw new RangeError(`Dopri5.reset: dimension ${settings.n} differs from ${this.n}`);
+    this.s = settings;
+    this.f = settings.f;
     this.stiffnessInterval = Math.max(1, Math.floor(options.stiffnessInterval ?? 1));
     this.stiffnessThreshold = options.stiffnessThreshold ?? STIFF_HLAMBDA;
-    if (options.initialStep !== undefined) this.h0 = Math.abs(options.initialStep);
+    this.h0 = options.initialStep !== undefined ? Math.abs(options.initialStep) : 0;
+  }
+
+  /** Dimension of the state. */
+  get dimension(): number {
+    return this.n;
   }
 
   /** Set the initial point; evaluates f(t0, y0). Returns 'ok' or a failure status. */
   start(t0: number, y0: ArrayLike<number>, tEnd: number): StepCode {
-    const { n, s } = this;
+    const n = this.n;
+    const s = this.s;
+    const y = this.y;
+    const k1 = this.k1;
     this.direction = tEnd >= t0 ? 1 : -1;
-    this.sc[0] = this.sc[1] = t0;
-    for (let i = 0; i < n; i++) this.y[i] = y0[i];
+    this.t = this.tOld = t0;
+    this.hLambda = 0;
+    this.stiff = false;
+    this.accepted = this.iasti = this.nonsti = 0;
+    for (let i = 0; i < n; i++) y[i] = y0[i];
     if (s.counters.rhs + 2 > s.maxEvaluations) return 'max-evaluations';
-    this.f(t0, this.y, this.k1);
+    this.f(t0, y, k1);
     s.counters.rhs++;
-    if (!allFinite(this.k1, n)) return 'non-finite';
-    this.sc[2] =
-      this.h0 !== undefined && this.h0 > 0
+    if (!allFinite(k1, n)) return 'non-finite';
+    let h =
+      this.h0 > 0
         ? this.direction * Math.min(this.h0, s.hmax)
-        : initialStep(this.f, t0, this.y, this.k1, this.direction, 5, s, this.y1, this.k2);
+        : initialStep(this.f, t0, y, k1, this.direction, 5, s, this.y1, this.k2);
     // a rejected HINIT probe is harmless; start from a tiny step if it overflowed
-    if (!Number.isFinite(this.h) || this.h === 0) this.sc[2] = this.direction * 1e-6;
-    this.sc[4] = 0;
-    for (let i = 0; i < n; i++) {
-      this.rc1[i] = this.y[i];
-      this.rc2[i] = this.rc3[i] = this.rc4[i] = this.rc5[i] = 0;
-    }
+    if (!Number.isFinite(h) || h === 0) h = this.direction * 1e-6;
+    this.h = h;
+    this.hStep = 0;
+    this.denseReady = true;
     this.reject = false;
-    this.sc[5] = 1e-4;
+    this.facold = 1e-4;
     return 'ok';
   }
 
   step(tEnd: number): StepCode {
-    const { n, s, f, y, k1, k2, k3, k4, k5, k6, k7, y1, ysti } = this;
+    const n = this.n;
+    const s = this.s;
+    const f = this.f;
     const c = s.counters;
+    const atol = s.atol;
+    const rtol = s.rtol;
+    const hmax = s.hmax;
+    const maxSteps = s.maxSteps;
+    const maxEvaluations = s.maxEvaluations;
+    const y = this.y;
+    const y1 = this.y1;
+    const k1 = this.k1;
+    const k2 = this.k2;
+    const k3 = this.k3;
+    const k4 = this.k4;
+    const k5 = this.k5;
+    const k6 = this.k6;
+    const k7 = this.k7;
+    const ysti = this.ysti;
     const dir = this.direction;
+    const t = this.t;
+    let hProp = this.h;
+    let reject = this.reject;
     let nonFinite = 0;
     for (;;) {
-      if (c.steps >= s.maxSteps) return 'max-steps';
-      if (c.rhs + 6 > s.maxEvaluations) return 'max-evaluations';
-      const t = this.t;
-      let h = this.h;
-      if (Math.abs(h) > s.hmax) h = dir * s.hmax;
-      const remaining = tEnd - t;
+      if (c.steps >= maxSteps) return this.stop('max-steps', hProp, reject);
+      if (c.rhs + 6 > maxEvaluations) return this.stop('max-evaluations', hProp, reject);
+      let h = hProp;
+      if (Math.abs(h) > hmax) h = dir * hmax;
       let last = false;
       if (dir * (t + 1.01 * h - tEnd) >= 0) {
-        h = remaining;
+        h = tEnd - t;
         last = true;
       }
-      if (Math.abs(h) < minStep(t, h)) return nonFinite > 0 ? 'non-finite' : 'step-size-too-small';
+      if (Math.abs(h) < minStep(t, h)) return this.stop(nonFinite > 0 ? 'non-finite' : 'step-size-too-small', hProp, reject);
       c.steps++;
       c.rhs += 6;
 
@@ -200,20 +232,24 @@ export class Dopri5 implements Stepper {
         y1[i] = y[i] + h * (A71 * k1[i] + A73 * k3[i] + A74 * k4[i] + A75 * k5[i] + A76 * k6[i]);
       f(tph, y1, k7);
 
-      // error estimate (weighted RMS of the difference of the 5th and 4th order solutions)
+      // error estimate (weighted RMS of the difference of the 5th and 4th order solutions);
+      // a non-finite k7 makes the sum non-finite too unless h is 0, which minStep excludes
       let err = 0;
+      let k7finite = true;
       for (let i = 0; i < n; i++) {
-        const e = h * (E1 * k1[i] + E3 * k3[i] + E4 * k4[i] + E5 * k5[i] + E6 * k6[i] + E7 * k7[i]);
-        const sk = s.atol[i] + s.rtol * Math.max(Math.abs(y[i]), Math.abs(y1[i]));
+        const k7i = k7[i];
+        if (k7i - k7i !== 0) k7finite = false;
+        const e = h * (E1 * k1[i] + E3 * k3[i] + E4 * k4[i] + E5 * k5[i] + E6 * k6[i] + E7 * k7i);
+        const sk = atol[i] + rtol * Math.max(Math.abs(y[i]), Math.abs(y1[i]));
         err += (e / sk) * (e / sk);
       }
       err = Math.sqrt(err / n);
-      if (!Number.isFinite(err) || !allFinite(k7, n)) {
+      if (!(err - err === 0) || !k7finite) {
         // non-finite trial: reject and shrink hard
         c.rejected++;
-        if (++nonFinite > MAX_NONFINITE_RETRIES) return 'non-finite';
-        this.sc[2] = h * 0.1;
-        this.reject = true;
+        if (++nonFinite > MAX_NONFINITE_RETRIES) return this.stop('non-finite', hProp, reject);
+        hProp = h * 0.1;
+        reject = true;
         continue;
       }
 
@@ -222,42 +258,40 @@ export class Dopri5 implements Stepper {
       fac = Math.max(FACC2, Math.min(FACC1, fac / SAFE));
       let hnew = h / fac;
       if (err <= 1) {
-        this.sc[5] = Math.max(err, 1e-4);
+        this.facold = Math.max(err, 1e-4);
         this.accepted++;
-        this.stiffnessTest(h);
-        // dense output coefficients on [t, t+h]
-        const { rc1, rc2, rc3, rc4, rc5 } = this;
-        for (let i = 0; i < n; i++) {
-          const ydiff = y1[i] - y[i];
-          const bspl = h * k1[i] - ydiff;
-          rc1[i] = y[i];
-          rc2[i] = ydiff;
-          rc3[i] = bspl;
-          rc4[i] = ydiff - h * k7[i] - bspl;
-          rc5[i] = h * (D1 * k1[i] + D3 * k3[i] + D4 * k4[i] + D5 * k5[i] + D6 * k6[i] + D7 * k7[i]);
-          y[i] = y1[i];
-          k1[i] = k7[i];
-        }
-        this.sc[1] = t;
-        this.sc[0] = tph;
-        this.sc[4] = h;
-        if (Math.abs(hnew) > s.hmax) hnew = dir * s.hmax;
-        if (this.reject) hnew = dir * Math.min(Math.abs(hnew), Math.abs(h));
+        if (this.iasti !== 0 || this.accepted % this.stiffnessInterval === 0) this.stiffnessTest(h);
+        // FSAL: the new state and its derivative are y1 and k7; swap the buffers instead of copying
+        this.y = y1;
+        this.y1 = y;
+        this.k1 = k7;
+        this.k7 = k1;
+        this.denseReady = false;
+        this.tOld = t;
+        this.t = tph;
+        this.hStep = h;
+        if (Math.abs(hnew) > hmax) hnew = dir * hmax;
+        if (reject) hnew = dir * Math.min(Math.abs(hnew), Math.abs(h));
         this.reject = false;
         // keep the unclipped step proposal when the last step was shortened to hit tEnd
-        this.sc[2] = last && Math.abs(hnew) < Math.abs(this.h) ? this.h : hnew;
+        this.h = last && Math.abs(hnew) < Math.abs(hProp) ? hProp : hnew;
         return 'ok';
       }
-      hnew = h / Math.min(FACC1, fac11 / SAFE);
-      this.reject = true;
+      hProp = h / Math.min(FACC1, fac11 / SAFE);
+      reject = true;
       c.rejected++;
-      this.sc[2] = hnew;
     }
   }
 
-  /** Hairer's stiffness detection: h*lambda from the two stages at t+h. */
+  /** Leave step() without an accepted step: keep the step proposal for a later call. */
+  private stop(code: StepCode, hProp: number, reject: boolean): StepCode {
+    this.h = hProp;
+    this.reject = reject;
+    return code;
+  }
+
+  /** Hairer's stiffness detection: h*lambda from the two stages at t+h (before the FSAL swap). */
   private stiffnessTest(h: number): void {
-    if (this.accepted % this.stiffnessInterval !== 0 && this.iasti === 0) return;
     const { n, k6, k7, y1, ysti } = this;
     let stnum = 0;
     let stden = 0;
@@ -265,7 +299,7 @@ export class Dopri5 implements Stepper {
       stnum += (k7[i] - k6[i]) ** 2;
       stden += (y1[i] - ysti[i]) ** 2;
     }
-    if (stden > 0) this.sc[3] = Math.abs(h) * Math.sqrt(stnum / stden);
+    if (stden > 0) this.hLambda = Math.abs(h) * Math.sqrt(stnum / stden);
     if (this.hLambda > this.stiffnessThreshold) {
       this.nonsti = 0;
       this.iasti++;
@@ -276,13 +310,39 @@ export class Dopri5 implements Stepper {
     }
   }
 
-  /** Continuous output of order 4 on the last accepted step. */
+  /**
+   * Dense-output coefficients on the last accepted step [tOld, t]. After the FSAL swap y1 holds
+   * the state at tOld, k7 the derivative there and k1 the derivative at t; k3..k6 are the stages.
+   */
+  private formDense(): void {
+    const { n, rc1, rc2, rc3, rc4, rc5, y, y1, k3, k4, k5, k6 } = this;
+    const k1o = this.k7;
+    const k7n = this.k1;
+    const h = this.hStep;
+    for (let i = 0; i < n; i++) {
+      const ydiff = y[i] - y1[i];
+      const bspl = h * k1o[i] - ydiff;
+      rc1[i] = y1[i];
+      rc2[i] = ydiff;
+      rc3[i] = bspl;
+      rc4[i] = ydiff - h * k7n[i] - bspl;
+      rc5[i] = h * (D1 * k1o[i] + D3 * k3[i] + D4 * k4[i] + D5 * k5[i] + D6 * k6[i] + D7 * k7n[i]);
+    }
+    this.denseReady = true;
+  }
+
+  /**
+   * Continuous output of order 4 on the last accepted step, for tOld <= s <= t. Valid until the
+   * next call of step().
+   */
   dense(s: number, out: Float64Array): void {
-    const { n, rc1, rc2, rc3, rc4, rc5 } = this;
+    const n = this.n;
     if (this.hStep === 0) {
       for (let i = 0; i < n; i++) out[i] = this.y[i];
       return;
     }
+    if (!this.denseReady) this.formDense();
+    const { rc1, rc2, rc3, rc4, rc5 } = this;
     const theta = (s - this.tOld) / this.hStep;
     const theta1 = 1 - theta;
     for (let i = 0; i < n; i++) {
