@@ -234,37 +234,20 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
   const profiles: ParameterProfile[] = [];
   if (withProfile && FIT_STATUS[status].success && covInt && dof > 0) {
     free.forEach((j, k) => {
-      const fp = fitted[j];
-      const prof = profileParameter({
-        prep,
-        thetaHat,
-        index: j,
-        ssrMin: ssr,
-        internalStdError: Math.sqrt(covInt[k * p + k]),
-        linear: fp.ci.linear,
-      });
-      profiles.push(prof);
-      fitted[j] = { ...fp, ci: { ...fp.ci, profile: prof.interval } };
-      if (prof.disagreesWithLinear) {
-        const open = prof.interval[0] === null || prof.interval[1] === null;
-        const why = prof.ends.filter((e) => e !== 'crossed');
-        const reason = why.includes('refit-failed')
-          ? 'a refit with the parameter held failed'
-          : why.includes('bound')
-            ? 'the profile reaches a bound first'
-            : 'the search range (8 linear half-widths) ends first';
-        warnings.push({
-          code: open ? 'profile-open' : 'profile-disagrees',
-          message: open
-            ? `the profile interval of ${fp.name} is open on one side (${reason}): the linear interval understates the uncertainty or cannot be checked`
-            : `the profile interval of ${fp.name} differs from the linear one by more than 10% of its width: the linear interval is unreliable`,
-          path: [fp.name],
-        });
-      }
+      profiles.push(
+        profileParameter({
+          prep,
+          thetaHat,
+          index: j,
+          ssrMin: ssr,
+          internalStdError: Math.sqrt(covInt[k * p + k]),
+          linear: fitted[j].ci.linear,
+        }),
+      );
     });
   }
 
-  return {
+  const result: FitResult = {
     ...outcome(FIT_STATUS, status, warnings, detail),
     parameters: fitted,
     correlation: { names, matrix: corr },
@@ -290,8 +273,43 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
     },
     observations,
     influential,
-    profiles,
+    profiles: [],
   };
+  return profiles.length ? applyProfiles(result, profiles) : result;
+}
+
+/**
+ * Attach profile-likelihood intervals to a fit (computed here or on worker threads): each profile's
+ * interval goes into ci.profile of the parameter of that name, the profiles into `profiles` (after
+ * any already there), and a warning is added where the profile disagrees with the linear interval.
+ * Returns a new result; the input is not changed.
+ */
+export function applyProfiles(fit: FitResult, profiles: readonly ParameterProfile[]): FitResult {
+  const parameters = fit.parameters.slice();
+  const warnings = fit.warnings.slice();
+  for (const prof of profiles) {
+    const j = parameters.findIndex((q) => q.name === prof.name);
+    if (j < 0) continue;
+    const fp = parameters[j];
+    parameters[j] = { ...fp, ci: { ...fp.ci, profile: prof.interval } };
+    if (prof.disagreesWithLinear) {
+      const open = prof.interval[0] === null || prof.interval[1] === null;
+      const why = prof.ends.filter((e) => e !== 'crossed');
+      const reason = why.includes('refit-failed')
+        ? 'a refit with the parameter held failed'
+        : why.includes('bound')
+          ? 'the profile reaches a bound first'
+          : 'the search range (8 linear half-widths) ends first';
+      warnings.push({
+        code: open ? 'profile-open' : 'profile-disagrees',
+        message: open
+          ? `the profile interval of ${fp.name} is open on one side (${reason}): the linear interval understates the uncertainty or cannot be checked`
+          : `the profile interval of ${fp.name} differs from the linear one by more than 10% of its width: the linear interval is unreliable`,
+        path: [fp.name],
+      });
+    }
+  }
+  return { ...fit, warnings, parameters, profiles: [...fit.profiles, ...profiles] };
 }
 
 function chiSquareSurvival(x: number, k: number): number {

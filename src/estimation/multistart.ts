@@ -10,7 +10,7 @@
  * `distanceTolerance` x max(1, |x|)), best (lowest SSR) first. The best minimum is returned as a full
  * FitResult. No console output: progress goes through the optional callback.
  */
-import { outcome, type Outcome } from '../core/outcome';
+import { outcome, type Outcome, type Warning } from '../core/outcome';
 import { toExternal } from '../core/parameter';
 import type { Parameter } from '../core/parameter';
 import { assembleFit } from './fit';
@@ -18,7 +18,7 @@ import type { FitData, FitOptions, FitResult } from './fit-types';
 import type { LmResult } from './lm';
 import type { RegressionModel } from './model';
 import { mulberry32 } from './random';
-import { prepareFit, solveFree } from './solve';
+import { prepareFit, solveFree, type PreparedFit } from './solve';
 import { FIT_STATUS, type FitStatus } from './status';
 import { RateloomError } from '../core/errors';
 
@@ -80,18 +80,15 @@ export function latinHypercube(lo: number[], hi: number[], count: number, seed: 
   return pts;
 }
 
-/** Fit from many starts; see the file header. Bad input throws; the outcome is the best fit's. */
-export function multistartFit(
-  model: RegressionModel,
-  parameters: readonly Parameter[],
-  data: FitData,
-  options: MultistartOptions = {},
-): MultistartResult {
+/**
+ * The starting points of a multistart (estimation space, free parameters): the given start, then
+ * `options.starts` Latin-hypercube points (see the file header for the spans); seeded.
+ */
+export function multistartDesign(prep: PreparedFit, options: MultistartOptions = {}): number[][] {
   const count = options.starts ?? 20;
   if (!Number.isInteger(count) || count < 0) {
     throw new RateloomError('E_VALUE', `starts must be a non-negative integer, got ${count}`, { path: ['starts'] });
   }
-  const prep = prepareFit(model, parameters, data, options);
   const free = prep.freeIndex;
   const span10 = (options.logSpanDecades ?? 2) * Math.LN10;
   const linSpan = options.linearSpan ?? 1;
@@ -104,17 +101,35 @@ export function multistartFit(
     lo.push(Number.isFinite(prep.lowerFull[j]) ? prep.lowerFull[j] : c - half);
     hi.push(Number.isFinite(prep.upperFull[j]) ? prep.upperFull[j] : c + half);
   }
-  const design = [Array.from(free, (j) => prep.thetaFull[j]), ...latinHypercube(lo, hi, count, options.seed ?? 1)];
-  const total = design.length;
-  const runs: { lm: LmResult; start: number }[] = [];
-  design.forEach((x0, s) => {
-    const theta = Float64Array.from(prep.thetaFull);
-    free.forEach((j, k) => (theta[j] = x0[k]));
-    const { result } = solveFree(prep, theta);
-    runs.push({ lm: result, start: s });
-    options.progress?.(s + 1, total);
-  });
+  return [Array.from(free, (j) => prep.thetaFull[j]), ...latinHypercube(lo, hi, count, options.seed ?? 1)];
+}
 
+/** Run the solver from one design point (estimation space, free parameters). */
+export function runStart(prep: PreparedFit, x0: readonly number[]): LmResult {
+  const theta = Float64Array.from(prep.thetaFull);
+  prep.freeIndex.forEach((j, k) => (theta[j] = x0[k]));
+  return solveFree(prep, theta).result;
+}
+
+/** The grouping of the starts' results into distinct minima (see the file header). */
+export interface StartGroups {
+  /** Distinct minima from converged runs, lowest SSR first. */
+  minima: Minimum[];
+  /** Solver result of the best converged run, or of the lowest-SSR run when none converged. */
+  bestLm: LmResult;
+  /** Warnings on the multistart (several minima, best found once). */
+  warnings: Warning[];
+  convergedStarts: number;
+}
+
+/**
+ * Group the solver results of the design's starts (`results[s]` from `design[s]`) into distinct
+ * minima and pick the best; pure, so the starts may have run anywhere (worker threads included).
+ */
+export function groupStarts(prep: PreparedFit, design: readonly number[][], results: readonly LmResult[], options: MultistartOptions = {}): StartGroups {
+  const free = prep.freeIndex;
+  const total = design.length;
+  const runs = results.map((lm, start) => ({ lm, start }));
   const ssrTol = options.ssrTolerance ?? 1e-6;
   const distTol = options.distanceTolerance ?? 1e-4;
   const ok = runs.filter((r) => r.lm.success).sort((a, b) => a.lm.ssr - b.lm.ssr);
@@ -140,8 +155,7 @@ export function multistartFit(
   }));
   // Best converged run, or the lowest-SSR run of all when none converged (its status says so).
   const bestLm = groups.length ? groups[0].lm : runs.slice().sort((a, b) => a.lm.ssr - b.lm.ssr)[0].lm;
-  const best = assembleFit(prep, bestLm);
-  const warnings = [...best.warnings];
+  const warnings: Warning[] = [];
   if (groups.length > 1) {
     warnings.push({
       code: 'multiple-minima',
@@ -151,12 +165,41 @@ export function multistartFit(
   if (groups.length && groups[0].starts.length === 1 && total > 1) {
     warnings.push({ code: 'best-found-once', message: 'the best minimum was reached from only one start; more starts may find a better one' });
   }
+  return { minima, bestLm, warnings, convergedStarts: ok.length };
+}
+
+/** The MultistartResult from the grouped starts and the full fit at the best minimum. */
+export function multistartResult(design: number[][], groups: StartGroups, best: FitResult): MultistartResult {
+  const total = design.length;
   return {
-    ...outcome(FIT_STATUS, best.status, warnings, `best of ${total} starts (${ok.length} converged)`),
+    ...outcome(FIT_STATUS, best.status, [...best.warnings, ...groups.warnings], `best of ${total} starts (${groups.convergedStarts} converged)`),
     best,
-    minima,
+    minima: groups.minima,
     starts: total,
-    convergedStarts: ok.length,
+    convergedStarts: groups.convergedStarts,
     design,
   };
+}
+
+/** Fit from many starts; see the file header. Bad input throws; the outcome is the best fit's. */
+export function multistartFit(
+  model: RegressionModel,
+  parameters: readonly Parameter[],
+  data: FitData,
+  options: MultistartOptions = {},
+): MultistartResult {
+  const count = options.starts ?? 20;
+  if (!Number.isInteger(count) || count < 0) {
+    throw new RateloomError('E_VALUE', `starts must be a non-negative integer, got ${count}`, { path: ['starts'] });
+  }
+  const prep = prepareFit(model, parameters, data, options);
+  const design = multistartDesign(prep, options);
+  const total = design.length;
+  const results: LmResult[] = [];
+  design.forEach((x0, s) => {
+    results.push(runStart(prep, x0));
+    options.progress?.(s + 1, total);
+  });
+  const groups = groupStarts(prep, design, results, options);
+  return multistartResult(design, groups, assembleFit(prep, groups.bestLm));
 }

@@ -25,6 +25,9 @@ export interface PoolOptions {
   workers?: number;
 }
 
+/** Called as jobs of a batch finish, with (jobs done, jobs in the batch); no output of its own. */
+export type JobProgress = (done: number, total: number) => void;
+
 /** The shape a job module must export. */
 export interface JobModule<C, S, J, R> {
   setup?: (context: C) => S | Promise<S>;
@@ -65,8 +68,8 @@ const message = (e: unknown): string => (e instanceof Error ? e.message : String
 export interface JobPool<J, R> {
   /** Worker threads running (0: jobs run in this thread). */
   readonly workers: number;
-  /** Run a batch; outcomes in job order. One batch at a time. */
-  run(jobs: readonly J[]): Promise<JobOutcome<R>[]>;
+  /** Run a batch; outcomes in job order. One batch at a time. `onDone` is called as jobs finish. */
+  run(jobs: readonly J[], onDone?: JobProgress): Promise<JobOutcome<R>[]>;
   /** Stop the workers. */
   close(): Promise<void>;
 }
@@ -91,7 +94,7 @@ export async function startPool<C, J, R>(moduleUrl: string, context: C, options:
     const state = mod.setup ? await mod.setup(context) : context;
     return {
       workers: 0,
-      async run(jobs) {
+      async run(jobs, onDone) {
         const out: JobOutcome<R>[] = [];
         for (const job of jobs) {
           try {
@@ -99,6 +102,7 @@ export async function startPool<C, J, R>(moduleUrl: string, context: C, options:
           } catch (e) {
             out.push({ ok: false, message: message(e) });
           }
+          onDone?.(out.length, jobs.length);
         }
         return out;
       },
@@ -136,7 +140,7 @@ export async function startPool<C, J, R>(moduleUrl: string, context: C, options:
   );
   return {
     workers: slots.length,
-    run(jobs) {
+    run(jobs, onDone) {
       const results: JobOutcome<R>[] = new Array(jobs.length);
       let next = 0;
       let pending = jobs.length;
@@ -145,7 +149,9 @@ export async function startPool<C, J, R>(moduleUrl: string, context: C, options:
         const finish = (index: number, o: JobOutcome<R>) => {
           if (results[index] !== undefined) return;
           results[index] = o;
-          if (--pending === 0) resolve(results);
+          pending--;
+          onDone?.(jobs.length - pending, jobs.length);
+          if (pending === 0) resolve(results);
         };
         const failRest = () => {
           // no live worker left: report the jobs never handed out, never drop them
@@ -190,12 +196,12 @@ export async function runJobs<C, J, R>(
   moduleUrl: string,
   context: C,
   jobs: readonly J[],
-  options: PoolOptions = {},
+  options: PoolOptions & { onDone?: JobProgress } = {},
 ): Promise<JobOutcome<R>[]> {
   const workers = Math.min(options.workers ?? availableParallelism(), jobs.length);
   const pool = await startPool<C, J, R>(moduleUrl, context, { workers });
   try {
-    return await pool.run(jobs);
+    return await pool.run(jobs, options.onDone);
   } finally {
     await pool.close();
   }

@@ -2,14 +2,17 @@
  * Job module (see pool.ts) for a study fit: every worker rebuilds the study model and the prepared
  * fit once (setup), then runs
  *   { kind: 'start', x }        one multistart start: the solver from x (free parameters,
- *                               estimation space), as multistartFit does for each design point
+ *                               estimation space), as multistartFit does for each design point (runStart)
  *   { kind: 'profile', ... }    the profile-likelihood interval of one parameter, as fitModel does
  * The code path is the serial one (solveFree, profileParameter), so results are identical to a
  * serial run whatever the number of workers.
  */
 import type { FitOptions, ParameterProfile } from '../estimation/fit-types';
 import { profileParameter } from '../estimation/profile';
-import { prepareFit, solveFree, type PreparedFit } from '../estimation/solve';
+import type { LmResult } from '../estimation/lm';
+import { runStart } from '../estimation/multistart';
+import { prepareFit, type PreparedFit } from '../estimation/solve';
+import type { Parameter } from '../core/parameter';
 import type { Study } from '../study/types';
 import { studyFitData } from '../workflow/fit-data';
 import { findVariant } from '../workflow/fit-study';
@@ -19,6 +22,11 @@ export interface StudyJobContext {
   study: Study;
   /** Rate-law set; default 'base'. */
   variant?: string;
+  /**
+   * Parameters of the rate-law set as the caller fits them (with any estimated starting values,
+   * see planStudyFit); default the set's own.
+   */
+  parameters?: Parameter[];
   model?: StudyModelOptions;
   fit?: FitOptions;
 }
@@ -50,6 +58,8 @@ export interface StartResult {
   x: number[];
   iterations: number;
   evaluations: number;
+  /** The solver's full result (for grouping the starts and assembling the best fit). */
+  lm: LmResult;
 }
 
 export type StudyJobResult = StartResult | { kind: 'profile'; profile: ParameterProfile };
@@ -57,17 +67,15 @@ export type StudyJobResult = StartResult | { kind: 'profile'; profile: Parameter
 export function setup(ctx: StudyJobContext): PreparedFit {
   const variant = findVariant(ctx.study, ctx.variant ?? 'base');
   const model = new StudyModel(ctx.study, variant, ctx.model);
-  return prepareFit(model, variant.parameters, studyFitData(ctx.study), ctx.fit ?? {});
+  return prepareFit(model, ctx.parameters ?? variant.parameters, studyFitData(ctx.study), ctx.fit ?? {});
 }
 
 export function runJob(prep: PreparedFit, job: StudyJob): StudyJobResult {
   if (job.kind === 'start') {
-    const theta = Float64Array.from(prep.thetaFull);
-    prep.freeIndex.forEach((j, k) => (theta[j] = job.x[k]));
-    const { result } = solveFree(prep, theta);
+    const result = runStart(prep, job.x);
     return {
       kind: 'start', status: result.status, success: result.success, ssr: result.ssr,
-      x: Array.from(result.x), iterations: result.iterations, evaluations: result.evaluations,
+      x: Array.from(result.x), iterations: result.iterations, evaluations: result.evaluations, lm: result,
     };
   }
   const profile = profileParameter({

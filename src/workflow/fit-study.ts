@@ -92,24 +92,52 @@ function nameObservations(fit: FitResult, study: Study): FitResult {
   return { ...fit, warnings };
 }
 
-/** Fit one rate-law set of a study. Bad input throws; convergence trouble is the fit's status. */
-export function fitStudy(study: Study, options: StudyFitOptions = {}): StudyFit {
+/** What fitStudy fits: the rate-law set (with any estimated starts), its model and data, the starts. */
+export interface StudyFitPlan {
+  variant: ModelVariant;
+  model: StudyModel;
+  data: StudyFitData;
+  startValues?: StartValues;
+  /** Latin-hypercube starts of the multistart (0 = a single fit). */
+  starts: number;
+}
+
+/** Resolve the rate-law set, estimate open starting values and build the model and fit data. */
+export function planStudyFit(study: Study, options: StudyFitOptions = {}): StudyFitPlan {
   const given = findVariant(study, options.variant ?? 'base');
   const open = openStarts(study, given.name).filter((n) => given.parameters.some((p) => p.name === n && !p.fixed));
   const startValues = open.length ? estimateStartValues(study, given, open, options.startValues) : undefined;
   const variant: ModelVariant = startValues ? { ...given, parameters: startValues.parameters } : given;
-  const sv = startValues ? { startValues } : {};
   const model = new StudyModel(study, variant, options.model);
-  const derivedOf = (fit: FitResult) => derivedQuantities(fit, variant.reactions.map((r) => r.rate), study.referenceTemperature);
   const data = studyFitData(study);
   const starts = options.starts ?? (startValues ? 20 : 0);
+  return { variant, model, data, starts, ...(startValues ? { startValues } : {}) };
+}
+
+/** The StudyFit of a plan from its finished fit (observations named by run, derived quantities). */
+export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult, minima?: Minimum[]): StudyFit {
+  const named = nameObservations(fit, study);
+  const derived = derivedQuantities(named, plan.variant.reactions.map((r) => r.rate), study.referenceTemperature);
+  return {
+    variant: plan.variant.name,
+    fit: named,
+    model: plan.model,
+    data: plan.data,
+    ...(minima ? { minima } : {}),
+    derived,
+    ...(plan.startValues ? { startValues: plan.startValues } : {}),
+  };
+}
+
+/** Fit one rate-law set of a study. Bad input throws; convergence trouble is the fit's status. */
+export function fitStudy(study: Study, options: StudyFitOptions = {}): StudyFit {
+  const plan = planStudyFit(study, options);
+  const { model, variant, data, starts } = plan;
   if (starts > 0) {
     const ms = multistartFit(model, variant.parameters, data, { ...options, starts, seed: options.seed ?? 1 });
-    const best = nameObservations(ms.best, study);
-    return { variant: variant.name, fit: best, model, data, minima: ms.minima, derived: derivedOf(best), ...sv };
+    return finishStudyFit(study, plan, ms.best, ms.minima);
   }
-  const fit = nameObservations(fitModel(model, variant.parameters, data, options), study);
-  return { variant: variant.name, fit, model, data, derived: derivedOf(fit), ...sv };
+  return finishStudyFit(study, plan, fitModel(model, variant.parameters, data, options));
 }
 
 /**
