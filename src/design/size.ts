@@ -14,7 +14,7 @@ import { buildSystem, GAS_CONSTANT, type DesignSystem } from './system';
 import { Sizer, fmt, type SizeOnce } from './sizer';
 import { equilibriumConversion, type EquilibriumLimit } from './feasibility';
 import { designTubes, type TubeDesign } from './tubes';
-import { designTubesForPercentile, type PercentileTubeResult, type TubePass } from './tube-percentile';
+import { designTubesForPercentileSteps, type PercentileTubeResult, type TubePass } from './tube-percentile';
 import { DEFAULT_DESIGN_LEVEL } from './case';
 import { parameterMap } from './handoff-load';
 import { propagate, type UncertaintyResult } from './uncertainty';
@@ -105,8 +105,88 @@ export interface SizingResult extends Outcome<SizingStatus> {
 
 const QUANTITY = { kg: 'catalyst mass', m3: 'volume', s: 'batch time' } as const;
 
+/** A Monte Carlo pass the sizing needs: `draws` draws from `seed`, sized with `tubeCount` tubes (a bundle). */
+export interface DrawRequest {
+  draws: number;
+  seed: number;
+  /** Tube count of the bundle for this pass (absent: no bundle). */
+  tubeCount?: number;
+}
+
+/** Precomputed Monte Carlo draws (worker threads), in draw order; see drawEvaluator. */
+export interface DrawValues {
+  /** Propagated quantity per draw (size, or conversion for a rating); NaN when the draw failed. */
+  values: ArrayLike<number>;
+  /** Status per draw ('sized' or the failure). */
+  statuses: readonly string[];
+  /** Size each draw needs (NaN failed, Infinity pressure exhausted; NaN for a rating). */
+  sizes: ArrayLike<number>;
+  /** Pressure drop at that size, Pa (same conventions). */
+  drops: ArrayLike<number>;
+}
+
+/** What one Monte Carlo draw gives (see DrawValues). */
+export interface DrawEval {
+  value: number;
+  status: string;
+  size: number;
+  drop: number;
+}
+
+/** Computes Monte Carlo draws for a request, or undefined to let the sizing draw them itself. */
+export type DrawProvider = (request: DrawRequest) => Promise<DrawValues | undefined>;
+
+/**
+ * The evaluation of one Monte Carlo draw for the sizer's current theta: for a sizing target the
+ * size and the pressure drop it needs, for a rating (target size) the conversion of the key species.
+ */
+export function drawEvaluator(sizer: Sizer): (s: Sizer) => DrawEval {
+  const sys = sizer.sys;
+  const kase = sys.kase;
+  const t = kase.target;
+  const keyName = t.kind === 'conversion' ? t.species : firstReactant(sys);
+  const key = keyName !== undefined ? kase.species.indexOf(keyName) : -1;
+  const P0 = kase.pressure ?? NaN;
+  if (t.kind === 'size') {
+    return (s) => {
+      const r = s.rate(t.value);
+      return { value: r.status === 'sized' && key >= 0 ? s.conversion(r.y, key) : NaN, status: r.status, size: NaN, drop: NaN };
+    };
+  }
+  return (s) => {
+    const r = s.size();
+    const exhausted = r.status === 'pressure-exhausted';
+    return {
+      value: r.status === 'sized' ? r.size : NaN,
+      status: r.status,
+      size: r.status === 'sized' ? r.size : exhausted ? Infinity : NaN,
+      drop: r.status === 'sized' && sys.hasPressure ? P0 * (1 - Math.sqrt(Math.max(r.y[sys.nS], 0))) : exhausted ? Infinity : NaN,
+    };
+  };
+}
+
 /** Size (or rate) the production reactor of a case. */
 export function sizeReactor(input: SizingInput): SizingResult {
+  const steps = sizingSteps(input);
+  let next = steps.next();
+  while (!next.done) next = steps.next(undefined);
+  return next.value;
+}
+
+/**
+ * sizeReactor with the Monte Carlo draws computed by `provider` (worker threads, see
+ * src/parallel/size-parallel.ts); the same result as sizeReactor when the provider's draws equal
+ * the serial ones. A pass the provider leaves undefined is drawn here.
+ */
+export async function sizeReactorWith(input: SizingInput, provider: DrawProvider): Promise<SizingResult> {
+  const steps = sizingSteps(input);
+  let next = steps.next();
+  while (!next.done) next = steps.next(await provider(next.value));
+  return next.value;
+}
+
+/** The sizing, yielding each Monte Carlo pass it needs (answered with precomputed draws or undefined). */
+function* sizingSteps(input: SizingInput): Generator<DrawRequest, SizingResult, DrawValues | undefined> {
   const { handoff, kinetics, kase } = input;
   const opts = input.options ?? {};
   const map = parameterMap(handoff, kinetics.parameterNames);
@@ -174,59 +254,60 @@ export function sizeReactor(input: SizingInput): SizingResult {
   // Uncertainty; for a tube bundle also the tube count designed for the design percentile.
   const draws = opts.draws ?? kase.uncertainty.draws;
   const level = opts.designLevel ?? kase.uncertainty.designLevel ?? DEFAULT_DESIGN_LEVEL;
-  const P0 = kase.pressure ?? NaN;
+  const seed = opts.seed ?? kase.uncertainty.seed;
   let lastSize = NaN;
   let lastDrop = NaN;
-  const quantityFn =
-    t.kind === 'size'
-      ? (s: Sizer) => {
-          const r = s.rate(t.value);
-          return { value: r.status === 'sized' && key >= 0 ? s.conversion(r.y, key) : NaN, status: r.status };
-        }
-      : (s: Sizer) => {
-          const r = s.size();
-          const exhausted = r.status === 'pressure-exhausted';
-          lastSize = r.status === 'sized' ? r.size : exhausted ? Infinity : NaN;
-          lastDrop = r.status === 'sized' && sys.hasPressure ? P0 * (1 - Math.sqrt(Math.max(r.y[sys.nS], 0))) : exhausted ? Infinity : NaN;
-          return { value: r.status === 'sized' ? r.size : NaN, status: r.status };
-        };
-  const monteCarlo = (nominalQuantity: number, bandSize: number): TubePass => {
-    const sizes = new Float64Array(draws).fill(NaN);
-    const drops = new Float64Array(draws).fill(NaN);
+  const evalDraw = drawEvaluator(sizer);
+  const quantityFn = (s: Sizer) => {
+    const e = evalDraw(s);
+    lastSize = e.size;
+    lastDrop = e.drop;
+    return { value: e.value, status: e.status };
+  };
+  /** One Monte Carlo pass; asks for precomputed draws first (tubeCount: the bundle's current count). */
+  const monteCarlo = function* (nominalQuantity: number, bandSize: number, tubeCount?: number): Generator<DrawRequest, TubePass, DrawValues | undefined> {
+    const given = draws > 0 ? yield { draws, seed, ...(tubeCount !== undefined ? { tubeCount } : {}) } : undefined;
+    const pre = given && given.values.length === draws && given.statuses.length === draws ? given : undefined;
+    const sizes = pre ? Float64Array.from(pre.sizes) : new Float64Array(draws).fill(NaN);
+    const drops = pre ? Float64Array.from(pre.drops) : new Float64Array(draws).fill(NaN);
     const unc = propagate(sizer, map, quantityFn, nominalQuantity, t.kind === 'size' ? 'conversion' : 'size', t.kind === 'size' ? '1' : sys.unit, key >= 0 ? key : undefined, {
       draws,
-      seed: opts.seed ?? kase.uncertainty.seed,
+      seed,
       levels: opts.levels ?? kase.uncertainty.levels,
       bandSize,
-      onDraw: (d) => {
-        sizes[d] = lastSize;
-        drops[d] = lastDrop;
-      },
       ...(opts.profileDraws !== undefined ? { profileDraws: opts.profileDraws } : {}),
-      ...(opts.onProgress ? { onProgress: opts.onProgress } : {}),
+      ...(pre
+        ? { precomputed: { values: pre.values, statuses: pre.statuses } }
+        : {
+            onDraw: (d: number) => {
+              sizes[d] = lastSize;
+              drops[d] = lastDrop;
+            },
+            ...(opts.onProgress ? { onProgress: opts.onProgress } : {}),
+          }),
     });
     return { unc, sizes, drops };
   };
   let pass: TubePass;
   let designed: PercentileTubeResult | undefined;
   if (tubes && draws > 0) {
-    designed = designTubesForPercentile({
+    designed = yield* designTubesForPercentileSteps({
       sizer,
       molarMasses: input.molarMasses!,
       start: tubes,
       startSizing: res,
       level,
       draws,
-      monteCarlo: () => {
+      monteCarlo: function* (count: number) {
         const r0 = sizer.size();
-        return monteCarlo(r0.size, r0.size);
+        return yield* monteCarlo(r0.size, r0.size, count);
       },
     });
     pass = designed.pass;
     res = designed.sizing;
     tubes = designed.tubes;
   } else {
-    pass = t.kind === 'size' ? monteCarlo(NaN, t.value) : monteCarlo(res.size, res.size);
+    pass = t.kind === 'size' ? yield* monteCarlo(NaN, t.value) : yield* monteCarlo(res.size, res.size);
     if (tubes) tubes = { ...tubes, designedFor: { level: null, basis: 'nominal fit (no Monte Carlo draws to design for a percentile)' } };
   }
   const unc = pass.unc;

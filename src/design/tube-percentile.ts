@@ -115,6 +115,25 @@ export function raiseTubeCount(
 
 /** Design the tube count for the percentile `level` of the required catalyst mass; see the header. */
 export function designTubesForPercentile(input: PercentileTubeInput): PercentileTubeResult {
+  const steps = designTubesForPercentileSteps({
+    ...input,
+    monteCarlo: function* () {
+      return input.monteCarlo();
+    },
+  });
+  let next = steps.next();
+  while (!next.done) next = steps.next(undefined as never);
+  return next.value;
+}
+
+/**
+ * designTubesForPercentile with the Monte Carlo pass as a generator (it may yield to have its
+ * draws computed elsewhere, e.g. on worker threads); `monteCarlo(count)` runs with the sizer's alpha
+ * set for `count` tubes. Same iteration, same result.
+ */
+export function* designTubesForPercentileSteps<Y, N>(
+  input: Omit<PercentileTubeInput, 'monteCarlo'> & { monteCarlo: (count: number) => Generator<Y, TubePass, N> },
+): Generator<Y, PercentileTubeResult, N> {
   const { sizer, molarMasses, level } = input;
   const sys = sizer.sys;
   const allowed = sys.kase.tubes!.allowedPressureDrop;
@@ -129,7 +148,7 @@ export function designTubesForPercentile(input: PercentileTubeInput): Percentile
   let over = { count: 0, of: 0, dropAtLevel: NaN };
   for (;;) {
     sys.alpha = bundleAlpha(sys, molarMasses, N).alpha;
-    pass = input.monteCarlo();
+    pass = yield* input.monteCarlo(N);
     passes++;
     const Wp = levelOf(pass.sizes, level);
     const dp = levelOf(pass.drops, level);

@@ -36,6 +36,13 @@ export interface UncertaintyOptions {
   bandSize?: number;
   /** Called after each Monte Carlo draw (not the delta-method evaluations) with its index, value and status. */
   onDraw?: (index: number, value: number, status: string) => void;
+  /**
+   * The Monte Carlo quantity and status per draw, computed elsewhere (worker threads) from the same
+   * parameter vectors in the same order; when given (and of length `draws`) the draws are not
+   * evaluated here (only the first `profileDraws` vectors are drawn, for the bands) and onProgress
+   * is not called. Default: evaluate every draw here.
+   */
+  precomputed?: { values: ArrayLike<number>; statuses: readonly string[] };
 }
 
 export interface Percentile {
@@ -132,21 +139,29 @@ export function propagate(
   const z = new Float64Array(n);
   const e = new Float64Array(n);
   const rng = new SeededRandom(seed);
+  const pre = opts.precomputed && opts.precomputed.values.length === draws && opts.precomputed.statuses.length === draws ? opts.precomputed : undefined;
   if (!L) fail('covariance-not-positive-semidefinite');
   for (let d = 0; d < draws && L; d++) {
-    for (let i = 0; i < n; i++) e[i] = rng.normal();
-    for (let i = 0; i < n; i++) {
-      let v = map.internal[i];
-      for (let k = 0; k <= i; k++) v += L[i * n + k] * e[k];
-      z[i] = v;
+    // with precomputed draws only the band's vectors are needed (same stream, same order)
+    if (!pre || d < nBand) {
+      for (let i = 0; i < n; i++) e[i] = rng.normal();
+      for (let i = 0; i < n; i++) {
+        let v = map.internal[i];
+        for (let k = 0; k <= i; k++) v += L[i * n + k] * e[k];
+        z[i] = v;
+      }
+      if (d < nBand) zBand.set(z, d * n);
     }
-    if (d < nBand) zBand.set(z, d * n);
-    applyInternal(map, z, theta);
-    const q = quantity(sizer);
+    let q: { value: number; status: string };
+    if (pre) q = { value: pre.values[d], status: pre.statuses[d] };
+    else {
+      applyInternal(map, z, theta);
+      q = quantity(sizer);
+    }
     if (Number.isFinite(q.value)) values[nOk++] = q.value;
     else fail(q.status);
     if (opts.onDraw) opts.onDraw(d, q.value, q.status);
-    if (opts.onProgress && ((d + 1) % 100 === 0 || d + 1 === draws)) opts.onProgress(d + 1, draws);
+    if (!pre && opts.onProgress && ((d + 1) % 100 === 0 || d + 1 === draws)) opts.onProgress(d + 1, draws);
   }
   const ok = values.subarray(0, nOk).sort();
   let mean = 0;

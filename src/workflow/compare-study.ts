@@ -32,6 +32,11 @@ export function compareStudy(study: Study, options: StudyCompareOptions = {}): S
     fits.push(fitStudy(study, { ...options, variant: v.name }));
     options.progress?.(i + 1, variants.length);
   });
+  return rankStudyFits(study, fits);
+}
+
+/** Rank the fits of a study's rate-law sets (in studyVariants order) against each other. */
+export function rankStudyFits(study: Study, fits: StudyFit[]): StudyComparison {
   const comparison = compareModels(
     fits.map((f) => ({ name: f.variant, fit: f.fit })),
     { nested: nestedPairs(study) },

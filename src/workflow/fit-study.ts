@@ -131,7 +131,11 @@ export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult,
 
 /** Fit one rate-law set of a study. Bad input throws; convergence trouble is the fit's status. */
 export function fitStudy(study: Study, options: StudyFitOptions = {}): StudyFit {
-  const plan = planStudyFit(study, options);
+  return fitPlannedStudy(study, planStudyFit(study, options), options);
+}
+
+/** fitStudy for a plan made by planStudyFit(study, options) (same options). */
+export function fitPlannedStudy(study: Study, plan: StudyFitPlan, options: StudyFitOptions = {}): StudyFit {
   const { model, variant, data, starts } = plan;
   if (starts > 0) {
     const ms = multistartFit(model, variant.parameters, data, { ...options, starts, seed: options.seed ?? 1 });
