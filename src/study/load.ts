@@ -96,6 +96,31 @@ function rowGroups(observations: readonly MappedObservation[], distinctFiles: bo
   return out;
 }
 
+/**
+ * A study observation with its keys in the documented order and optional keys only when defined:
+ * one object literal per shape (no spreads, no keys added one by one), so every property stays
+ * inside the object.
+ */
+function studyObservation(o: MappedObservation, index: number, runIndex: number, sigma: number | undefined, errorModel: string): Observation {
+  const { runId, response, species, speciesIndex, position, value, unit, location } = o;
+  if (species !== undefined) {
+    if (position !== undefined) {
+      return sigma !== undefined
+        ? { index, runId, runIndex, response, species, speciesIndex, position, value, unit, sigma, errorModel, location }
+        : { index, runId, runIndex, response, species, speciesIndex, position, value, unit, errorModel, location };
+    }
+    return sigma !== undefined
+      ? { index, runId, runIndex, response, species, speciesIndex, value, unit, sigma, errorModel, location }
+      : { index, runId, runIndex, response, species, speciesIndex, value, unit, errorModel, location };
+  }
+  if (position !== undefined) {
+    return sigma !== undefined
+      ? { index, runId, runIndex, response, position, value, unit, sigma, errorModel, location }
+      : { index, runId, runIndex, response, position, value, unit, errorModel, location };
+  }
+  return sigma !== undefined ? { index, runId, runIndex, response, value, unit, sigma, errorModel, location } : { index, runId, runIndex, response, value, unit, errorModel, location };
+}
+
 function reactorSpec(raw: RawStudy['reactor'], speciesNames: readonly string[]): ReactorSpec {
   const spec: ReactorSpec = { kind: raw.kind, phase: raw.phase };
   const path = ['reactor'];
@@ -342,19 +367,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
       sigma = pe.sigma;
       models[modelName] = { ...models[modelName], dof: pe.dof };
     }
-    // Built key by key in the documented order (optional keys only when defined; no spreads).
-    const so = { index, runId: o.runId, runIndex: runIndex.get(o.runId) as number, response: o.response } as Observation;
-    if (o.species !== undefined) {
-      so.species = o.species;
-      so.speciesIndex = o.speciesIndex;
-    }
-    if (o.position !== undefined) so.position = o.position;
-    so.value = o.value;
-    so.unit = o.unit;
-    if (sigma !== undefined) so.sigma = sigma;
-    so.errorModel = modelName;
-    so.location = o.location;
-    return so;
+    return studyObservation(o, index, runIndex.get(o.runId) as number, sigma, modelName);
   });
 
   const studyRuns: StudyRun[] = runs.map((r) => {
