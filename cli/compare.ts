@@ -6,7 +6,9 @@
  * Exit 0 ranked, 1 the best-ranked fit did not converge, 2 bad input.
  */
 import type { Command } from 'commander';
-import { compareStudy } from '../src/workflow/compare-study';
+import { compareStudyParallel } from '../src/parallel/fit-parallel';
+import { AUTO_RULE_TEXT } from '../src/parallel/auto';
+import { WORKERS_OPTION, workersFlag } from './fit';
 import { fitReportData } from '../src/workflow/fit-report-data';
 import type { Comparison } from '../src/estimation/compare';
 import { join } from 'node:path';
@@ -23,6 +25,7 @@ Example:
 The study lists rival rate-law sets under "candidates"; each replaces the rate laws of some
 reactions and may bring its own parameters. Akaike weights say how strongly the data prefer each
 set; sets within 2 AICc units of the best cannot be told apart by these data.
+Worker threads (multistart starts of a set whose starting values rateloom estimates): ${AUTO_RULE_TEXT}
 Exit codes: 0 ranked, 1 the best-ranked fit did not converge, 2 bad input.`;
 
 export function formatComparison(c: Comparison): string {
@@ -48,6 +51,7 @@ interface CompareFlags {
   strict?: boolean;
   force?: boolean;
   json?: boolean;
+  workers?: string;
 }
 
 export function registerCompare(program: Command): void {
@@ -61,15 +65,17 @@ export function registerCompare(program: Command): void {
     .option('--strict', 'fail on any rejected data row')
     .option('--force', 'overwrite existing output files')
     .option('--json', 'print one JSON document on stdout')
+    .option(...WORKERS_OPTION)
     .addHelpText('after', EXAMPLE)
     .action(async (studyPath: string, flags: CompareFlags) => {
       await runCommand(!!flags.json, async () => {
+        const workers = workersFlag(flags.workers);
         const stem = flags.name ?? studyStem(studyPath);
         const outDir = flags.out ?? 'reports';
         const { study } = readStudy(studyPath, !!flags.strict);
         if (flags.report !== false) assertWritable([join(outDir, `${stem}-compare.html`), join(outDir, `${stem}-compare.md`)], { force: !!flags.force });
         const progress = progressReporter(!!flags.json, 'fitting rival rate laws');
-        const { fits, comparison } = compareStudy(study, { profile: false, ...(progress ? { progress } : {}) });
+        const { fits, comparison } = await compareStudyParallel(study, { profile: false, workers, ...(progress ? { progress } : {}) });
         const best = fits.find((f) => f.variant === comparison.ranking[0].name)!;
         let reportPaths: { html: string; markdown: string } | undefined;
         if (flags.report !== false) {

@@ -19,18 +19,20 @@ import { summarizeStudy, type StudySummary } from '../src/study/summary';
 import { applyParameterValues } from '../src/study/simulate';
 import type { Study } from '../src/study/types';
 import type { ValidationReport } from '../src/data/report';
-import { buildHandoff, fitStudy, type StudyFit } from '../src/workflow/fit-study';
-import { compareStudy } from '../src/workflow/compare-study';
+import { buildHandoff, type StudyFit } from '../src/workflow/fit-study';
+import { compareStudyParallel, fitStudyParallel } from '../src/parallel/fit-parallel';
+import { sizeReactorParallel } from '../src/parallel/size-parallel';
+import { AUTO_RULE_TEXT, type WorkersSetting } from '../src/parallel/auto';
 import { fitReportData } from '../src/workflow/fit-report-data';
 import { sizingReportData } from '../src/workflow/sizing-report-data';
 import type { Comparison } from '../src/estimation/compare';
 import { parseHandoff } from '../src/design/handoff-load';
 import { kineticsFromHandoff } from '../src/design/kinetics';
 import { loadCase } from '../src/design/case';
-import { sizeReactor, type SizingResult } from '../src/design/size';
+import type { SizingResult } from '../src/design/size';
 import { formatCheck } from './check';
 import { formatComparison } from './compare';
-import { formatFit } from './fit';
+import { formatFit, WORKERS_OPTION, workersFlag } from './fit';
 import { formatSizing } from './size';
 import { g } from './format';
 import { readJson, writeAtomic } from './io';
@@ -55,6 +57,8 @@ export interface DemoOptions {
   draws?: number;
   /** Progress lines (one per step), for the terminal; default none. */
   log?: (line: string) => void;
+  /** Worker threads for profiles, multistart and Monte Carlo (1 = serial); default 'auto' (src/parallel/auto.ts). */
+  workers?: WorkersSetting;
 }
 
 /** A fitted parameter next to the recorded true value of the generator. */
@@ -164,7 +168,8 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
 
   // 2. compare
   log('2/5 compare: fitting the three rival rate-law sets ...');
-  const cmp = compareStudy(study, { profile: false });
+  const workers = options.workers ?? 'auto';
+  const cmp = await compareStudyParallel(study, { profile: false, workers });
   const comparison: Comparison = cmp.comparison;
   const bestName = comparison.ranking[0].name;
   const bestFit = cmp.fits.find((f) => f.variant === bestName)!;
@@ -174,7 +179,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
 
   // 3. fit the best-supported set with profile intervals
   log(`3/5 fit: '${bestName}' with profile-likelihood intervals ...`);
-  const sf = fitStudy(study, { variant: bestName, profile: true });
+  const sf = await fitStudyParallel(study, { variant: bestName, profile: true, workers });
   const handoff = buildHandoff(study, sf);
   const handoffText = toJson(handoff) + '\n';
   const handoffPath = w('pbr-kinetics.json', handoffText);
@@ -190,14 +195,19 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
   const sizing: DemoResult['sizing'] = [];
   for (const name of ['plant', 'hot']) {
     const casePath = join(dataDir, 'pbr', `${name}.case.json`);
-    const kase = loadCase(readJson(casePath, 'case file'), dk.kinetics.speciesNames, dk.kinetics.reactionIds);
-    const result: SizingResult = sizeReactor({
-      handoff: h,
-      kinetics: dk.kinetics,
-      kase,
-      ...(dk.molarMasses ? { molarMasses: dk.molarMasses } : {}),
-      options: options.draws !== undefined ? { draws: options.draws } : {},
-    });
+    const caseRaw = readJson(casePath, 'case file');
+    const kase = loadCase(caseRaw, dk.kinetics.speciesNames, dk.kinetics.reactionIds);
+    const result: SizingResult = await sizeReactorParallel(
+      {
+        handoff: h,
+        kinetics: dk.kinetics,
+        kase,
+        ...(dk.molarMasses ? { molarMasses: dk.molarMasses } : {}),
+        options: options.draws !== undefined ? { draws: options.draws } : {},
+      },
+      { handoff: JSON.parse(handoffText), case: caseRaw },
+      { workers },
+    );
     const json = w(`${name}-sizing.json`, toJson(result) + '\n');
     w(`${name}-sizing.txt`, formatSizing(result) + '\n');
     const sr = await writeSizingReport(sizingReportData(result), { outDir, baseName: `${name}-sizing`, force: true });
@@ -224,7 +234,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
     for (const key of ['batch', 'cstr']) {
       const path = join(dataDir, truth[key].study);
       const ls = readStudy(path).study;
-      const lf = fitStudy(ls, { profile: true });
+      const lf = await fitStudyParallel(ls, { profile: true, workers });
       const lr = await writeFitReport(fitReportData(ls, lf), { outDir, baseName: `${key}-fit`, force: true });
       files.push(lr.html, lr.markdown);
       w(`${key}-fit.txt`, formatFit(ls, lf) + '\n');
@@ -306,6 +316,7 @@ export function registerDemo(program: Command): void {
     .option('--force', 'write into a non-empty folder that the demo did not create')
     .option('--no-liquids', 'skip the batch and stirred-tank fits')
     .option('--json', 'print one JSON document')
+    .option(...WORKERS_OPTION)
     .addHelpText(
       'after',
       `
@@ -315,11 +326,14 @@ Example:
 
 The data are invented (datasets-demo/README.md); the true parameter values are recorded in
 datasets-demo/truth.json, and the demo prints the fitted values beside them.
+Worker threads (profiles, multistart, Monte Carlo): ${AUTO_RULE_TEXT}
 Exit codes: 0 all fits converged and the in-range case was sized, 1 otherwise, 2 bad input.`,
     )
-    .action(async (flags: { out?: string; force?: boolean; liquids?: boolean; json?: boolean }) => {
+    .action(async (flags: { out?: string; force?: boolean; liquids?: boolean; json?: boolean; workers?: string }) => {
       await runCommand(!!flags.json, async () => {
+        const workers = workersFlag(flags.workers);
         const r = await runDemo({
+          workers,
           outDir: flags.out ?? 'reports/demo',
           force: !!flags.force,
           liquids: flags.liquids !== false,

@@ -7,7 +7,9 @@
 import type { Command } from 'commander';
 import { join } from 'node:path';
 import { RateloomError } from '../src/core/errors';
-import { buildHandoff, fitStudy, type StudyFit } from '../src/workflow/fit-study';
+import { buildHandoff, type StudyFit } from '../src/workflow/fit-study';
+import { fitStudyParallel } from '../src/parallel/fit-parallel';
+import { AUTO_RULE_TEXT, type WorkersSetting } from '../src/parallel/auto';
 import { fitReportData } from '../src/workflow/fit-report-data';
 import type { Study } from '../src/study/types';
 import { writeFitReport } from './report-render';
@@ -23,6 +25,7 @@ Example:
 
 Writes <out>/<name>-kinetics.json (the hand-off file for 'rateloom size') and
 <out>/<name>-fit.html + .md (the report). Existing files are kept unless --force.
+Worker threads (multistart starts and profiles): ${AUTO_RULE_TEXT}
 Exit codes: 0 converged, 1 not converged or no usable covariance, 2 bad input.`;
 
 export interface FitFlags {
@@ -37,7 +40,19 @@ export interface FitFlags {
   strict?: boolean;
   force?: boolean;
   json?: boolean;
+  workers?: string;
 }
+
+/** --workers: 'auto' or a whole number >= 1. */
+export function workersFlag(v: string | undefined): WorkersSetting {
+  if (v === undefined || v === 'auto') return 'auto';
+  const n = Number(v);
+  if (!Number.isInteger(n) || n < 1) throw new RateloomError('E_USAGE', `--workers got '${v}'`, { fix: "Give 'auto' or a whole number of worker threads >= 1, e.g. --workers 2 (1 = serial)." });
+  return n;
+}
+
+/** The --workers option line of a command's help. */
+export const WORKERS_OPTION = ['--workers <n>', "worker threads: 'auto' or a number (1 = serial); see below", 'auto'] as const;
 
 export function numberFlag(v: string | undefined, name: string, ok: (n: number) => boolean, hint: string): number | undefined {
   if (v === undefined) return undefined;
@@ -119,19 +134,21 @@ export function registerFit(program: Command): void {
     .option('--strict', 'fail on any rejected data row')
     .option('--force', 'overwrite existing output files')
     .option('--json', 'print one JSON document (the fit result) on stdout')
+    .option(...WORKERS_OPTION)
     .addHelpText('after', EXAMPLE)
     .action(async (studyPath: string, flags: FitFlags) => {
       await runCommand(!!flags.json, async () => {
         const starts = numberFlag(flags.starts, 'starts', (n) => Number.isInteger(n) && n >= 0, 'Give a whole number of starts, e.g. --starts 20.');
         const seed = numberFlag(flags.seed, 'seed', Number.isInteger, 'Give a whole-number seed, e.g. --seed 7.') ?? 1;
         const level = numberFlag(flags.level, 'level', (n) => n > 0 && n < 1, 'Give a level between 0 and 1, e.g. --level 0.95.') ?? 0.95;
+        const workers = workersFlag(flags.workers);
         const stem = flags.name ?? studyStem(studyPath);
         const outDir = flags.out ?? 'reports';
         const planned = [join(outDir, `${stem}-kinetics.json`), ...(flags.report !== false ? [join(outDir, `${stem}-fit.html`), join(outDir, `${stem}-fit.md`)] : [])];
         const { study, report } = readStudy(studyPath, !!flags.strict);
         assertWritable(planned, { force: !!flags.force });
         const progress = progressReporter(!!flags.json, 'multistart');
-        const sf = fitStudy(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, ...(starts !== undefined ? { starts } : {}), seed, level, ...(progress ? { progress } : {}) });
+        const sf = await fitStudyParallel(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, ...(starts !== undefined ? { starts } : {}), seed, level, workers, ...(progress ? { progress } : {}) });
         const handoff = buildHandoff(study, sf);
         const handoffPath = writeAtomic(planned[0], toJson(handoff) + '\n', { force: !!flags.force });
         let reportPaths: { html: string; markdown: string } | undefined;

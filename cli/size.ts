@@ -8,7 +8,10 @@ import { RateloomError } from '../src/core/errors';
 import { parseHandoff } from '../src/design/handoff-load';
 import { kineticsFromHandoff } from '../src/design/kinetics';
 import { loadCase } from '../src/design/case';
-import { sizeReactor, type SizingResult } from '../src/design/size';
+import type { SizingResult } from '../src/design/size';
+import { sizeReactorParallel } from '../src/parallel/size-parallel';
+import { AUTO_RULE_TEXT } from '../src/parallel/auto';
+import { WORKERS_OPTION, workersFlag } from './fit';
 import { assertWritable, readJson, writeAtomic } from './io';
 import { basename, join } from 'node:path';
 import { sizingReportData } from '../src/workflow/sizing-report-data';
@@ -38,6 +41,7 @@ designed for; the tube count is raised until that catalyst (reported as the cata
 stays within tubes.allowedPressureDrop, so only parameter sets beyond it may need more.
 Targets: { "conversion": X, "species": S } | { "production": "2 mol/s", "species": P } | { "size": "150 kg" }.
 Reactor kinds: packed-bed (size in kg catalyst), plug-flow (m3), stirred-tank (m3), batch (s).
+Worker threads (Monte Carlo draws): ${AUTO_RULE_TEXT}
 Exit codes: 0 sized, 1 target unreachable or result not trustworthy, 2 bad input.`;
 
 interface SizeFlags {
@@ -47,6 +51,7 @@ interface SizeFlags {
   out?: string;
   report?: string;
   force?: boolean;
+  workers?: string;
 }
 
 function intFlag(v: string | undefined, name: string, min: number): number | undefined {
@@ -137,19 +142,21 @@ export function registerSize(program: Command): void {
     .option('--out <file>', 'also write the JSON result to this file')
     .option('--report <dir>', 'also write the sizing report (HTML + Markdown) into this folder')
     .option('--force', 'overwrite --out and report files if they exist')
+    .option(...WORKERS_OPTION)
     .addHelpText('after', EXAMPLE)
     .action(async (kineticsPath: string, casePath: string, flags: SizeFlags) => {
       const json = !!flags.json;
       await runCommand(json, async () => {
         const draws = intFlag(flags.draws, 'draws', 0);
         const seed = intFlag(flags.seed, 'seed', 0);
+        const workers = workersFlag(flags.workers);
         const reportStem = `${basename(casePath).replace(/\.json$/i, '').replace(/\.case$/i, '')}-sizing`;
-        const h = parseHandoffAt(kineticsPath);
+        const { raw: handoffRaw, handoff: h } = parseHandoffAt(kineticsPath);
         const dk = kineticsFromHandoff(h);
-        const kase = loadCaseAt(casePath, dk.kinetics.speciesNames, dk.kinetics.reactionIds);
+        const { raw: caseRaw, kase } = loadCaseAt(casePath, dk.kinetics.speciesNames, dk.kinetics.reactionIds);
         assertWritable([...(flags.out ? [flags.out] : []), ...(flags.report ? [join(flags.report, `${reportStem}.html`), join(flags.report, `${reportStem}.md`)] : [])], { force: !!flags.force });
         const onProgress = progressReporter(json, 'Monte Carlo');
-        const result = sizeReactor({
+        const result = await sizeReactorParallel({
           handoff: h,
           kinetics: dk.kinetics,
           kase,
@@ -159,7 +166,7 @@ export function registerSize(program: Command): void {
             ...(seed !== undefined ? { seed } : {}),
             ...(onProgress ? { onProgress } : {}),
           },
-        });
+        }, { handoff: handoffRaw, case: caseRaw }, { workers });
         const outputs: { result?: string; html?: string; markdown?: string } = {};
         if (flags.out) outputs.result = writeAtomic(flags.out, toJson(result) + '\n', { force: !!flags.force });
         if (flags.report) {
@@ -185,10 +192,10 @@ function withFile<T>(file: string, f: () => T): T {
 
 function parseHandoffAt(path: string) {
   const raw = readJson(path, 'fitted-kinetics file');
-  return withFile(path, () => parseHandoff(raw));
+  return { raw, handoff: withFile(path, () => parseHandoff(raw)) };
 }
 
 function loadCaseAt(path: string, species: readonly string[], reactions: readonly string[]) {
   const raw = readJson(path, 'case file');
-  return withFile(path, () => loadCase(raw, species, reactions));
+  return { raw, kase: withFile(path, () => loadCase(raw, species, reactions)) };
 }
