@@ -18,7 +18,6 @@ import {
   MAX_NONFINITE_RETRIES,
   allFinite,
   initialStep,
-  minStep,
   type StepCode,
   type Stepper,
   type StepperSettings,
@@ -212,7 +211,8 @@ export class Dopri5 implements Stepper {
         h = tEnd - t;
         last = true;
       }
-      if (Math.abs(h) < minStep(t, h)) return this.stop(nonFinite > 0 ? 'non-finite' : 'step-size-too-small', hProp, reject);
+      // smallest step at t: the rounding level of t (minStep of ode-common.ts, inlined)
+      if (Math.abs(h) < 16 * Number.EPSILON * Math.max(Math.abs(t), Math.abs(t + h))) return this.stop(nonFinite > 0 ? 'non-finite' : 'step-size-too-small', hProp, reject);
       c.steps++;
       c.rhs += 6;
 
@@ -296,8 +296,10 @@ export class Dopri5 implements Stepper {
     let stnum = 0;
     let stden = 0;
     for (let i = 0; i < n; i++) {
-      stnum += (k7[i] - k6[i]) ** 2;
-      stden += (y1[i] - ysti[i]) ** 2;
+      const a = k7[i] - k6[i];
+      const b = y1[i] - ysti[i];
+      stnum += a * a;
+      stden += b * b;
     }
     if (stden > 0) this.hLambda = Math.abs(h) * Math.sqrt(stnum / stden);
     if (this.hLambda > this.stiffnessThreshold) {

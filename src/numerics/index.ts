@@ -2,7 +2,7 @@
  * Public surface of the numerics layer (pure numerical methods; no chemistry, no I/O).
  */
 export type { OdeRhs, OdeJac, OdeEvent, OdeOptions, OdeStatus, OdeResult } from './ode-types';
-export { integrate, ODE_STATUS, AUTO_STIFFNESS_THRESHOLD } from './integrate';
+export { integrate, ODE_STATUS, AUTO_STIFFNESS_THRESHOLD, OdeWorkspace } from './integrate';
 export { Dopri5, type Dopri5Options } from './dopri5';
 export { Rosenbrock, RODAS4, type RosenbrockOptions } from './rosenbrock';
 export type { Stepper, StepperSettings, StepCode, OdeCounters } from './ode-common';

@@ -30,18 +30,32 @@ export type OdeInputCheck = { ok: true; config: OdeConfig } | { ok: false; messa
 /** Smallest relative tolerance honoured; smaller requests are raised with a warning. */
 export const MIN_RTOL = 1e-14;
 
+/** Shared empty tEval (read only). */
+const NO_TIMES = new Float64Array(0);
+/** Shared empty event list (never modified). */
+const NO_EVENTS: OdeEvent[] = [];
+
+/**
+ * Work arrays a caller may lend to checkOdeInput so that a repeated solve allocates nothing here:
+ * `buffers(n)` returns arrays of length n that become config.y0 and config.atol (and are
+ * overwritten by the next call that borrows them).
+ */
+export type OdeInputBuffers = (n: number) => { y: Float64Array; atol: Float64Array };
+
 export function checkOdeInput(
   f: OdeRhs,
   t0: number,
   y0: ArrayLike<number>,
   t1: number,
   options: OdeOptions,
+  buffers?: OdeInputBuffers,
 ): OdeInputCheck {
   const n = y0 && typeof y0.length === 'number' ? y0.length : 0;
   const bad = (message: string): OdeInputCheck => ({ ok: false, message, n });
   if (typeof f !== 'function') return bad('f must be a function (t, y, out) => void');
   if (n === 0) return bad('y0 must have at least one component');
-  const y = new Float64Array(n);
+  const lent = buffers ? buffers(n) : undefined;
+  const y = lent ? lent.y : new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const v = Number(y0[i]);
     if (!Number.isFinite(v)) return bad(`y0[${i}] is not finite (${y0[i]})`);
@@ -58,7 +72,7 @@ export function checkOdeInput(
     warnings.push({ code: 'rtol-raised', message: `rtol ${rtol} is below ${MIN_RTOL} and was raised to it` });
     rtol = MIN_RTOL;
   }
-  const atol = new Float64Array(n);
+  const atol = lent ? lent.atol : new Float64Array(n);
   const atolIn = options.atol ?? 1e-10;
   if (typeof atolIn === 'number') {
     if (!(atolIn > 0) || !Number.isFinite(atolIn)) return bad(`atol must be a positive finite number (got ${atolIn})`);
@@ -91,8 +105,8 @@ export function checkOdeInput(
   if (!(hmax > 0) || !Number.isFinite(hmax)) return bad(`maxStep must be a positive finite number (got ${hmax})`);
 
   const direction: 1 | -1 = t1 > t0 ? 1 : -1;
-  const tEvalIn = options.tEval ?? [];
-  const tEval = new Float64Array(tEvalIn.length);
+  const tEvalIn = options.tEval ?? NO_TIMES;
+  const tEval = tEvalIn.length === 0 ? NO_TIMES : new Float64Array(tEvalIn.length);
   const lo = Math.min(t0, t1);
   const hi = Math.max(t0, t1);
   for (let i = 0; i < tEvalIn.length; i++) {
@@ -104,7 +118,7 @@ export function checkOdeInput(
     }
     tEval[i] = v;
   }
-  const events = options.events ?? [];
+  const events = options.events ?? NO_EVENTS;
   for (let k = 0; k < events.length; k++) {
     const e = events[k];
     if (!e || typeof e.g !== 'function') return bad(`events[${k}].g must be a function (t, y) => number`);
@@ -113,24 +127,12 @@ export function checkOdeInput(
     }
   }
 
-  return {
-    ok: true,
-    config: {
-      n,
-      y0: y,
-      rtol,
-      atol,
-      method,
-      ...(options.jac ? { jac: options.jac } : {}),
-      maxSteps,
-      maxEvaluations,
-      ...(options.initialStep !== undefined ? { initialStep: Math.abs(options.initialStep) } : {}),
-      hmax,
-      autonomous: options.autonomous ?? false,
-      tEval,
-      events,
-      direction,
-      warnings,
-    },
+  const config: OdeConfig = {
+    n, y0: y, rtol, atol, method, maxSteps, maxEvaluations, hmax,
+    autonomous: options.autonomous ?? false,
+    tEval, events, direction, warnings,
   };
+  if (options.jac) config.jac = options.jac;
+  if (options.initialStep !== undefined) config.initialStep = Math.abs(options.initialStep);
+  return { ok: true, config };
 }

@@ -24,23 +24,23 @@ const EVENT_MAX_ITER = 200;
 
 /** Records tEval rows and events step by step; tells the driver when a terminal event fired. */
 export class OdeRecorder {
-  readonly tOut: number[] = [];
-  readonly yOut: Float64Array[] = [];
-  readonly events: { name: string; t: number; y: Float64Array }[] = [];
+  tOut: number[] = [];
+  yOut: Float64Array[] = [];
+  events: { name: string; t: number; y: Float64Array }[] = [];
   /** Set when a terminal event stopped the integration. */
   stopT = NaN;
-  readonly stopY: Float64Array;
+  stopY: Float64Array;
 
-  private readonly n: number;
-  private readonly tEval: Float64Array;
+  private n: number;
+  private tEval: Float64Array;
   private nextEval = 0;
-  private readonly defs: OdeEvent[];
-  private readonly gPrev: Float64Array;
-  private readonly gNew: Float64Array;
-  private readonly roots: Float64Array;
-  private readonly fired: Uint8Array;
-  private readonly work: Float64Array;
-  private readonly direction: number;
+  private defs: OdeEvent[];
+  private gPrev: Float64Array;
+  private gNew: Float64Array;
+  private roots: Float64Array;
+  private fired: Uint8Array;
+  private work: Float64Array;
+  private direction: number;
 
   constructor(n: number, tEval: Float64Array, events: OdeEvent[], direction: number) {
     this.n = n;
@@ -54,6 +54,33 @@ export class OdeRecorder {
     this.fired = new Uint8Array(m);
     this.work = new Float64Array(n);
     this.stopY = new Float64Array(n);
+  }
+
+  /**
+   * Prepare the recorder for a new integration of the same dimension: fresh output lists (the
+   * previous ones belong to the previous result), work arrays kept when large enough.
+   */
+  reset(tEval: Float64Array, events: OdeEvent[], direction: number): void {
+    this.tEval = tEval;
+    this.defs = events;
+    this.direction = direction;
+    this.nextEval = 0;
+    this.tOut = [];
+    this.yOut = [];
+    this.events = [];
+    this.stopT = NaN;
+    const m = events.length;
+    if (this.gPrev.length < m) {
+      this.gPrev = new Float64Array(m);
+      this.gNew = new Float64Array(m);
+      this.roots = new Float64Array(m);
+      this.fired = new Uint8Array(m);
+    }
+  }
+
+  /** State dimension the recorder was built for. */
+  get dimension(): number {
+    return this.n;
   }
 
   /** Record the initial point: tEval entries equal to t0, and g(t0, y0). */
