@@ -1,10 +1,13 @@
 /**
  * When the worker pool pays off. Starting the pool costs 1-2 s (tsx and the modules load in each
  * worker, then the model is rebuilt there), so 'auto' uses it only for work that takes several
- * seconds serially. Rule of thumb measured with bench/parallel-bench.ts (common practice, no source):
- *   profiles     >= 3 free parameters and >= 20 runs
+ * seconds serially. Thresholds set from bench/parallel-bench.ts and the demo data on a 2-core machine
+ * (common practice, no source): a multistart of 8 starts (50 runs) ran 1.9x faster and 10000
+ * Monte Carlo draws 1.9x faster, while the profiles of 4-6 parameters with 50-55 runs (about 2-3 s
+ * of work) and 4000 draws (about 1 s) ran slower than serially, the pool start outweighing the gain:
+ *   profiles     >= 3 free parameters and >= 100 runs
  *   multistart   >= 8 Latin-hypercube starts
- *   Monte Carlo  >= 2000 draws
+ *   Monte Carlo  >= 8000 draws
  * and only when the machine has at least 2 cores (os.availableParallelism()). The results never
  * depend on this choice: every parallel path gives the serial result, byte for byte.
  */
@@ -18,11 +21,11 @@ export const AUTO_RULE = {
   /** Free parameters for profiles to count as large work. */
   profileParameters: 3,
   /** Runs (lab experiments) for profiles to count as large work. */
-  profileRuns: 20,
+  profileRuns: 100,
   /** Multistart starts (in addition to the given start). */
   starts: 8,
   /** Monte Carlo draws. */
-  draws: 2000,
+  draws: 8000,
   /** Workers used by 'auto' when the work is large. */
   workers: 2,
 } as const;
