@@ -69,22 +69,11 @@ export function incompleteBeta(x: number, a: number, b: number): number {
   return 1 - (bt * betaContinuedFraction(b, a, 1 - x)) / b;
 }
 
-/** Regularised lower incomplete gamma P(a, x), a > 0, x >= 0. */
-export function incompleteGamma(a: number, x: number): number {
-  if (x <= 0) return 0;
-  const gln = logGamma(a);
-  if (x < a + 1) {
-    let ap = a;
-    let sum = 1 / a;
-    let del = sum;
-    for (let n = 0; n < 10000; n++) {
-      ap += 1;
-      del *= x / ap;
-      sum += del;
-      if (Math.abs(del) < Math.abs(sum) * 1e-17) break;
-    }
-    return sum * Math.exp(-x + a * Math.log(x) - gln);
-  }
+/**
+ * Continued fraction of the upper incomplete gamma function for x >= a + 1 (modified Lentz
+ * method): Q(a, x) = exp(-x) x^a / Gamma(a) * h.
+ */
+function gammaContinuedFraction(a: number, x: number): number {
   const tiny = 1e-300;
   let b = x + 1 - a;
   let c = 1 / tiny;
@@ -102,7 +91,26 @@ export function incompleteGamma(a: number, x: number): number {
     h *= del;
     if (Math.abs(del - 1) < 1e-16) break;
   }
-  return 1 - Math.exp(-x + a * Math.log(x) - gln) * h;
+  return h;
+}
+
+/** Regularised lower incomplete gamma P(a, x), a > 0, x >= 0. */
+export function incompleteGamma(a: number, x: number): number {
+  if (x <= 0) return 0;
+  const gln = logGamma(a);
+  if (x < a + 1) {
+    let ap = a;
+    let sum = 1 / a;
+    let del = sum;
+    for (let n = 0; n < 10000; n++) {
+      ap += 1;
+      del *= x / ap;
+      sum += del;
+      if (Math.abs(del) < Math.abs(sum) * 1e-17) break;
+    }
+    return sum * Math.exp(-x + a * Math.log(x) - gln);
+  }
+  return 1 - Math.exp(-x + a * Math.log(x) - gln) * gammaContinuedFraction(a, x);
 }
 
 function checkDof(name: string, v: number): void {
@@ -218,24 +226,7 @@ export function chiSquareQuantile(p: number, k: number): number {
 /** Regularised upper incomplete gamma Q(a, x) = 1 - P(a, x), accurate in the far tail. */
 function upperGamma(a: number, x: number): number {
   if (x < a + 1) return 1 - incompleteGamma(a, x);
-  const tiny = 1e-300;
-  let b = x + 1 - a;
-  let c = 1 / tiny;
-  let d = 1 / b;
-  let h = d;
-  for (let i = 1; i < 10000; i++) {
-    const an = -i * (i - a);
-    b += 2;
-    d = an * d + b;
-    if (Math.abs(d) < tiny) d = tiny;
-    c = b + an / c;
-    if (Math.abs(c) < tiny) c = tiny;
-    d = 1 / d;
-    const del = d * c;
-    h *= del;
-    if (Math.abs(del - 1) < 1e-16) break;
-  }
-  return Math.exp(-x + a * Math.log(x) - logGamma(a)) * h;
+  return Math.exp(-x + a * Math.log(x) - logGamma(a)) * gammaContinuedFraction(a, x);
 }
 
 /** Quantile of the standard normal distribution. */
