@@ -42,6 +42,11 @@ const NO_EVENTS: OdeEvent[] = [];
  */
 export type OdeInputBuffers = (n: number) => { y: Float64Array; atol: Float64Array };
 
+/** A failed check (a plain function: a closure here would be created on every call). */
+function bad(n: number, message: string): OdeInputCheck {
+  return { ok: false, message, n };
+}
+
 export function checkOdeInput(
   f: OdeRhs,
   t0: number,
@@ -51,23 +56,22 @@ export function checkOdeInput(
   buffers?: OdeInputBuffers,
 ): OdeInputCheck {
   const n = y0 && typeof y0.length === 'number' ? y0.length : 0;
-  const bad = (message: string): OdeInputCheck => ({ ok: false, message, n });
-  if (typeof f !== 'function') return bad('f must be a function (t, y, out) => void');
-  if (n === 0) return bad('y0 must have at least one component');
+  if (typeof f !== 'function') return bad(n, 'f must be a function (t, y, out) => void');
+  if (n === 0) return bad(n, 'y0 must have at least one component');
   const lent = buffers ? buffers(n) : undefined;
   const y = lent ? lent.y : new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const v = Number(y0[i]);
-    if (!Number.isFinite(v)) return bad(`y0[${i}] is not finite (${y0[i]})`);
+    if (!Number.isFinite(v)) return bad(n, `y0[${i}] is not finite (${y0[i]})`);
     y[i] = v;
   }
-  if (!Number.isFinite(t0)) return bad(`t0 is not finite (${t0})`);
-  if (!Number.isFinite(t1)) return bad(`t1 is not finite (${t1})`);
-  if (t1 === t0) return bad('t1 equals t0; there is nothing to integrate');
+  if (!Number.isFinite(t0)) return bad(n, `t0 is not finite (${t0})`);
+  if (!Number.isFinite(t1)) return bad(n, `t1 is not finite (${t1})`);
+  if (t1 === t0) return bad(n, 't1 equals t0; there is nothing to integrate');
   const warnings: { code: string; message: string }[] = [];
 
   let rtol = options.rtol ?? 1e-8;
-  if (!(rtol > 0) || !Number.isFinite(rtol)) return bad(`rtol must be a positive finite number (got ${rtol})`);
+  if (!(rtol > 0) || !Number.isFinite(rtol)) return bad(n, `rtol must be a positive finite number (got ${rtol})`);
   if (rtol < MIN_RTOL) {
     warnings.push({ code: 'rtol-raised', message: `rtol ${rtol} is below ${MIN_RTOL} and was raised to it` });
     rtol = MIN_RTOL;
@@ -75,34 +79,34 @@ export function checkOdeInput(
   const atol = lent ? lent.atol : new Float64Array(n);
   const atolIn = options.atol ?? 1e-10;
   if (typeof atolIn === 'number') {
-    if (!(atolIn > 0) || !Number.isFinite(atolIn)) return bad(`atol must be a positive finite number (got ${atolIn})`);
+    if (!(atolIn > 0) || !Number.isFinite(atolIn)) return bad(n, `atol must be a positive finite number (got ${atolIn})`);
     atol.fill(atolIn);
   } else {
-    if (atolIn.length !== n) return bad(`atol has ${atolIn.length} entries but y0 has ${n}`);
+    if (atolIn.length !== n) return bad(n, `atol has ${atolIn.length} entries but y0 has ${n}`);
     for (let i = 0; i < n; i++) {
-      if (!(atolIn[i] > 0) || !Number.isFinite(atolIn[i])) return bad(`atol[${i}] must be a positive finite number (got ${atolIn[i]})`);
+      if (!(atolIn[i] > 0) || !Number.isFinite(atolIn[i])) return bad(n, `atol[${i}] must be a positive finite number (got ${atolIn[i]})`);
       atol[i] = atolIn[i];
     }
   }
 
   const method = options.method ?? 'auto';
   if (method !== 'auto' && method !== 'nonstiff' && method !== 'stiff' && method !== 'odex') {
-    return bad(`method must be 'auto', 'nonstiff', 'stiff' or 'odex' (got '${String(method)}')`);
+    return bad(n, `method must be 'auto', 'nonstiff', 'stiff' or 'odex' (got '${String(method)}')`);
   }
-  if (options.jac !== undefined && typeof options.jac !== 'function') return bad('jac must be a function');
+  if (options.jac !== undefined && typeof options.jac !== 'function') return bad(n, 'jac must be a function');
 
   const maxSteps = options.maxSteps ?? 100000;
-  if (!Number.isInteger(maxSteps) || maxSteps < 1) return bad(`maxSteps must be a positive integer (got ${maxSteps})`);
+  if (!Number.isInteger(maxSteps) || maxSteps < 1) return bad(n, `maxSteps must be a positive integer (got ${maxSteps})`);
   const maxEvaluations = options.maxEvaluations ?? 2000000;
   if (!Number.isInteger(maxEvaluations) || maxEvaluations < 1) {
-    return bad(`maxEvaluations must be a positive integer (got ${maxEvaluations})`);
+    return bad(n, `maxEvaluations must be a positive integer (got ${maxEvaluations})`);
   }
   const span = Math.abs(t1 - t0);
   if (options.initialStep !== undefined && (!(options.initialStep !== 0) || !Number.isFinite(options.initialStep))) {
-    return bad(`initialStep must be a non-zero finite number (got ${options.initialStep})`);
+    return bad(n, `initialStep must be a non-zero finite number (got ${options.initialStep})`);
   }
   const hmax = options.maxStep ?? span;
-  if (!(hmax > 0) || !Number.isFinite(hmax)) return bad(`maxStep must be a positive finite number (got ${hmax})`);
+  if (!(hmax > 0) || !Number.isFinite(hmax)) return bad(n, `maxStep must be a positive finite number (got ${hmax})`);
 
   const direction: 1 | -1 = t1 > t0 ? 1 : -1;
   const tEvalIn = options.tEval ?? NO_TIMES;
@@ -111,19 +115,19 @@ export function checkOdeInput(
   const hi = Math.max(t0, t1);
   for (let i = 0; i < tEvalIn.length; i++) {
     const v = tEvalIn[i];
-    if (!Number.isFinite(v)) return bad(`tEval[${i}] is not finite (${v})`);
-    if (v < lo || v > hi) return bad(`tEval[${i}] = ${v} lies outside the integration interval [${lo}, ${hi}]`);
+    if (!Number.isFinite(v)) return bad(n, `tEval[${i}] is not finite (${v})`);
+    if (v < lo || v > hi) return bad(n, `tEval[${i}] = ${v} lies outside the integration interval [${lo}, ${hi}]`);
     if (i > 0 && direction * (v - tEval[i - 1]) < 0) {
-      return bad(`tEval must be sorted in the direction of integration (${direction > 0 ? 'increasing' : 'decreasing'}); tEval[${i}] = ${v} is out of order`);
+      return bad(n, `tEval must be sorted in the direction of integration (${direction > 0 ? 'increasing' : 'decreasing'}); tEval[${i}] = ${v} is out of order`);
     }
     tEval[i] = v;
   }
   const events = options.events ?? NO_EVENTS;
   for (let k = 0; k < events.length; k++) {
     const e = events[k];
-    if (!e || typeof e.g !== 'function') return bad(`events[${k}].g must be a function (t, y) => number`);
+    if (!e || typeof e.g !== 'function') return bad(n, `events[${k}].g must be a function (t, y) => number`);
     if (e.direction !== undefined && e.direction !== -1 && e.direction !== 0 && e.direction !== 1) {
-      return bad(`events[${k}].direction must be -1, 0 or 1`);
+      return bad(n, `events[${k}].direction must be -1, 0 or 1`);
     }
   }
 

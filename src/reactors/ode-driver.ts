@@ -15,7 +15,7 @@
  * differentiates the discrete solution exactly for a fixed step sequence, so the sensitivities agree
  * with differences of the computed outlet, and a Jacobian solve costs the steps of a plain solve.
  */
-import { integrate } from '../numerics/integrate';
+import { OdeWorkspace } from '../numerics/integrate';
 import type { OdeEvent, OdeJac, OdeOptions, OdeResult, OdeRhs } from '../numerics/ode-types';
 import type { ReactorOptions, ReactorStatus } from './types';
 
@@ -106,11 +106,9 @@ export function runOde(
     f = aug.rhs;
     jac = aug.jac;
   }
-  const events: OdeEvent[] = [];
+  const run = runState(core);
   const pi = core.pressureIndex;
-  if (pi !== undefined) {
-    events.push({ name: 'pressure-exhausted', g: (_x, y) => y[pi] - P_EXHAUSTED, terminal: true, direction: -1 });
-  }
+  const events = pi === undefined ? NO_EVENTS : run.pressureEvents(pi);
   const odeOptions: OdeOptions = {
     rtol,
     atol,
@@ -129,7 +127,7 @@ export function runOde(
       events: [], stats: { rhsEvaluations: 0, jacobianEvaluations: 0, steps: 0, rejectedSteps: 0, method: 'nonstiff', luDecompositions: 0 },
     };
   } else {
-    res = integrate(f, 0, yStart, x1, odeOptions);
+    res = run.workspace.integrate(f, 0, yStart, x1, odeOptions);
   }
   const stats = {
     rhsEvaluations: res.stats.rhsEvaluations,
@@ -137,7 +135,7 @@ export function runOde(
     steps: res.stats.steps,
     method: res.stats.method,
   };
-  const warnings = res.warnings.map((w) => ({ code: w.code, message: w.message }));
+  const warnings = res.warnings.length === 0 ? [] : res.warnings.map((w) => ({ code: w.code, message: w.message }));
   // keep only finite profile rows
   const profX: number[] = [];
   const profY: Float64Array[] = [];
@@ -152,7 +150,7 @@ export function runOde(
   let yEnd = res.y;
   let xEnd = res.t;
   let exhaustedAt: number | undefined;
-  const fired = res.events.find((e) => e.name === 'pressure-exhausted');
+  const fired = res.events.length === 0 ? undefined : res.events.find((e) => e.name === 'pressure-exhausted');
   if (fired && pi !== undefined) {
     yEnd = fired.y;
     xEnd = fired.t;
@@ -184,16 +182,42 @@ export function runOde(
   const out: OdeDriverResult = {
     status,
     message,
-    y: Float64Array.from(yEnd.subarray(0, n)),
+    y: yEnd.slice(0, n),
     x: xEnd,
     profileX: profX,
     profileY: profY,
     stats,
     warnings,
   };
-  if (sens) out.S = Float64Array.from(yEnd.subarray(n, N));
+  if (sens) out.S = yEnd.slice(n, N);
   if (exhaustedAt !== undefined) out.exhaustedAt = exhaustedAt;
   return out;
+}
+
+const NO_EVENTS: OdeEvent[] = [];
+
+/** What a core keeps between solves: its integrator workspace and its pressure event. */
+class CoreRun {
+  /** Reused by every solve of the core (solves of one core never nest). */
+  readonly workspace = new OdeWorkspace();
+  private pi = -1;
+  private events: OdeEvent[] = NO_EVENTS;
+  /** The terminal event p = P_EXHAUSTED (falling) on state component pi. */
+  pressureEvents(pi: number): OdeEvent[] {
+    if (pi !== this.pi) {
+      this.pi = pi;
+      this.events = [{ name: 'pressure-exhausted', g: (_x, y) => y[pi] - P_EXHAUSTED, terminal: true, direction: -1 }];
+    }
+    return this.events;
+  }
+}
+
+const coreRuns = new WeakMap<OdeCore, CoreRun>();
+
+function runState(core: OdeCore): CoreRun {
+  let r = coreRuns.get(core);
+  if (!r) coreRuns.set(core, (r = new CoreRun()));
+  return r;
 }
 
 const augmentedCache = new WeakMap<OdeCore, { rhs: OdeRhs; jac: OdeJac; n: number; nP: number }>();
