@@ -1,81 +1,9 @@
 /**
- * Seeded pseudo-random numbers for the Monte Carlo sizing (reproducible: same seed, same draws).
- *
- * Uniforms: xoshiro128** (D. Blackman, S. Vigna, "Scrambled linear pseudorandom number
- * generators", ACM Trans. Math. Softw. 47 (2021) 36), state seeded from one 32-bit seed through
- * SplitMix32 (the seeding procedure recommended by the authors). Doubles use 53 random bits.
- * Normals: Marsaglia's polar method (G. Marsaglia, T.A. Bray, "A convenient method for generating
- * normal variables", SIAM Review 6 (1964) 260-264), caching the second variate.
+ * Random-number helpers of the Monte Carlo sizing: the seeded generator (SeededRandom, xoshiro128**
+ * with polar normals) lives in numerics/random.ts and is re-exported here; this file keeps the
+ * inverse normal distribution function and the Cholesky factor used to draw correlated parameters.
  */
-
-export class SeededRandom {
-  private s0: number;
-  private s1: number;
-  private s2: number;
-  private s3: number;
-  private spare = 0;
-  private hasSpare = false;
-
-  /** @param seed any integer (taken modulo 2^32) */
-  constructor(seed: number) {
-    let x = seed >>> 0;
-    const next = () => {
-      // SplitMix32
-      x = (x + 0x9e3779b9) >>> 0;
-      let z = x;
-      z = Math.imul(z ^ (z >>> 16), 0x85ebca6b) >>> 0;
-      z = Math.imul(z ^ (z >>> 13), 0xc2b2ae35) >>> 0;
-      return (z ^ (z >>> 16)) >>> 0;
-    };
-    this.s0 = next();
-    this.s1 = next();
-    this.s2 = next();
-    this.s3 = next();
-    if ((this.s0 | this.s1 | this.s2 | this.s3) === 0) this.s0 = 1;
-  }
-
-  /** Next 32-bit unsigned integer (xoshiro128**). */
-  nextUint32(): number {
-    const result = Math.imul(rotl(Math.imul(this.s1, 5) >>> 0, 7), 9) >>> 0;
-    const t = (this.s1 << 9) >>> 0;
-    this.s2 = (this.s2 ^ this.s0) >>> 0;
-    this.s3 = (this.s3 ^ this.s1) >>> 0;
-    this.s1 = (this.s1 ^ this.s2) >>> 0;
-    this.s0 = (this.s0 ^ this.s3) >>> 0;
-    this.s2 = (this.s2 ^ t) >>> 0;
-    this.s3 = rotl(this.s3, 11);
-    return result;
-  }
-
-  /** Uniform double in [0, 1) with 53 random bits. */
-  uniform(): number {
-    const hi = this.nextUint32() >>> 5; // 27 bits
-    const lo = this.nextUint32() >>> 6; // 26 bits
-    return (hi * 67108864 + lo) / 9007199254740992;
-  }
-
-  /** Standard normal variate (polar method). */
-  normal(): number {
-    if (this.hasSpare) {
-      this.hasSpare = false;
-      return this.spare;
-    }
-    let u: number, v: number, s: number;
-    do {
-      u = 2 * this.uniform() - 1;
-      v = 2 * this.uniform() - 1;
-      s = u * u + v * v;
-    } while (s >= 1 || s === 0);
-    const f = Math.sqrt((-2 * Math.log(s)) / s);
-    this.spare = v * f;
-    this.hasSpare = true;
-    return u * f;
-  }
-}
-
-function rotl(x: number, k: number): number {
-  return ((x << k) | (x >>> (32 - k))) >>> 0;
-}
+export { SeededRandom } from '../numerics/random';
 
 /**
  * Inverse of the standard normal distribution function. Acklam's rational approximation
