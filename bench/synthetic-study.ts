@@ -14,6 +14,7 @@ import type { ReactionSpec, SpeciesSpec } from '../src/chemistry/spec';
 import { makeParameter, type Parameter } from '../src/core/parameter';
 import type { Observation, Study, StudyRun } from '../src/study/types';
 import { StudyModel } from '../src/workflow/study-model';
+import { cosineNormals } from '../src/numerics/random';
 
 /** True parameter values (SI): k1 m6/(mol kg s), E1 J/mol, K1 m3/mol, dH1 J/mol. */
 export const TRUTH = { k1: 4e-6, E1: 62_000, K1: 0.05, dH1: -45_000 } as const;
@@ -39,18 +40,8 @@ const reactions: ReactionSpec[] = [
   },
 ];
 
-/** seeded mulberry32 uniform + Box-Muller normal (local to the benchmark). */
-export function normals(seed: number): () => number {
-  let a = seed >>> 0;
-  const u = (): number => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(u() + 1e-300)) * Math.cos(2 * Math.PI * u());
-}
+/** Seeded normal draws (mulberry32 + Box-Muller cosine branch), shared with the tests. */
+export const normals = cosineNormals;
 
 function parameters(values: Record<string, number>): Parameter[] {
   return [

@@ -124,3 +124,13 @@ export class SeededRandom implements Random {
 function rotl(x: number, k: number): number {
   return ((x << k) | (x >>> (32 - k))) >>> 0;
 }
+
+/**
+ * Normal draws from mulberry32 uniforms by the cosine branch of Box-Muller only (two uniforms per
+ * draw, no spare; u is offset by 1e-300 so log(0) cannot occur). Test fixtures and benchmarks whose
+ * committed data were generated this way use it, so their data stay reproducible.
+ */
+export function cosineNormals(seed: number): () => number {
+  const u = mulberry32(seed).next;
+  return () => Math.sqrt(-2 * Math.log(u() + 1e-300)) * Math.cos(2 * Math.PI * u());
+}

@@ -5,23 +5,11 @@ import { loadStudy } from '../../src/study';
 import type { Study } from '../../src/study/types';
 import { StudyModel } from '../../src/workflow/study-model';
 import { fitStudy, buildHandoff } from '../../src/workflow/fit-study';
+import { cosineNormals as normals } from '../../src/numerics/random';
 
 const studyPath = resolve(__dirname, '../data/fixtures/study.json');
 const load = (): Study =>
   loadStudy(readFileSync(studyPath, 'utf8'), studyPath, (p) => readFileSync(resolve(dirname(studyPath), p), 'utf8')).study;
-
-/** A seeded normal generator (mulberry32 + Box-Muller), local to this test. */
-function normals(seed: number): () => number {
-  let a = seed >>> 0;
-  const u = (): number => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(u() + 1e-300)) * Math.cos(2 * Math.PI * u());
-}
 
 describe('StudyModel', () => {
   it('predicts every observation and its exact Jacobian matches central differences', () => {
