@@ -25,6 +25,7 @@ import { runMcSizing } from './mc-sizing';
 import { cases, runPbrSolve } from './pbr-solve';
 import { studyAsJson, syntheticStudy } from './synthetic-study';
 import { runParallelBench } from './parallel-bench';
+import { checkJacobian } from '../src/estimation/jacobian-check';
 
 const quick = process.argv.includes('--quick');
 const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
@@ -167,27 +168,7 @@ section('(f) exact Jacobian (forward sensitivities) vs central differences, 50-r
   const theta = Float64Array.from(model.parameters, (p) => (p.transform === 'log' ? Math.log(p.value) : p.value));
   const n = model.nObservations;
   const nP = theta.length;
-  const pred = new Float64Array(n);
-  const J = new Float64Array(n * nP);
-  model.jacobian!(theta, pred, J);
-  const plus = new Float64Array(n);
-  const minus = new Float64Array(n);
-  let maxRel = 0;
-  for (let k = 0; k < nP; k++) {
-    const h = 1e-5 * Math.max(1, Math.abs(theta[k]));
-    const tp = theta.slice();
-    const tm = theta.slice();
-    tp[k] += h;
-    tm[k] -= h;
-    model.predict(tp, plus);
-    model.predict(tm, minus);
-    let colMax = 0;
-    for (let i = 0; i < n; i++) colMax = Math.max(colMax, Math.abs(J[i * nP + k]));
-    for (let i = 0; i < n; i++) {
-      const fd = (plus[i] - minus[i]) / (2 * h);
-      maxRel = Math.max(maxRel, Math.abs(J[i * nP + k] - fd) / Math.max(Math.abs(fd), 1e-6 * colMax));
-    }
-  }
+  const maxRel = checkJacobian(model, theta).maxRelativeDifference;
   console.log(`  max relative difference ${maxRel.toExponential(2)} over ${n} x ${nP} entries (step 1e-5 max(1, |theta|), floor 1e-6 x column max)`);
   report.sensitivities = { maxRelativeDifference: maxRel };
   target('sensitivities equal central differences within 1e-6 relative', maxRel <= 1e-6, maxRel.toExponential(2));

@@ -26,6 +26,7 @@ export { levenbergMarquardt, type LmOptions, type LmResult } from './lm';
 export { cardLevenbergMarquardt, type CardLmOptions } from './card-lm';
 export { ResidualProblem, type LeastSquaresProblem, type ResidualProblemInit } from './residuals';
 export { profileParameter, type ProfileRequest } from './profile';
+export { checkJacobian, type JacobianCheck, type JacobianCheckOptions } from './jacobian-check';
 export { mulberry32, type Random } from './random';
 export {
   chiSquareCdf,
