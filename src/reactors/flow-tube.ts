@@ -9,8 +9,9 @@
  * Method: mole balances of an ideal plug-flow reactor with the Ergun pressure-drop relation in its
  * differential form (Ergun 1952, common design form); integrated by numerics/integrate with the
  * exact Jacobian by the chain rule df/dy = (dR/dC - diag(k)) dC/dy from CompiledKinetics.ratesJacC.
- * The right-hand side, the Jacobian and the sensitivity right-hand side use buffers allocated once
- * per compiled kinetics (TubeWork, cached) and do not allocate. A run is checked and its constants
+ * The right-hand side (generated per kinetics, tube-rhs.ts), the Jacobian and the sensitivity
+ * right-hand side use buffers allocated once per compiled kinetics (TubeWork, cached) and do not
+ * allocate. A run is checked and its constants
  * (alpha, basis weights, permeation) resolved once by prepareFlowTube; solvePreparedTube then solves
  * it for any theta without re-validating (the study model prepares its runs at construction).
  */
@@ -23,6 +24,7 @@ import { resolveAlpha } from './ergun';
 import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentration } from './gas';
 import { runOde, type OdeCore } from './ode-driver';
 import { buildSolution, type StateReader } from './solution';
+import { makeTubeRhs, type TubeRhsState } from './tube-rhs';
 import type { ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types';
 import { RateloomError } from '../core/errors';
 
@@ -45,6 +47,19 @@ export interface PreparedTube {
   readonly sweep: Float64Array;
   readonly F0: Float64Array;
 }
+
+/** Why a rate basis is refused, per tube kind (built once: basisWeights reads it only to throw). */
+const refusals = (kind: TubeKind): Parameters<typeof basisWeights>[3] => ({
+  volume: [['reactor', 'bulkDensity'], 'a volume-basis rate in a packed bed needs the bed bulk density',
+    'Give reactor.bulkDensity (kg/m3) or write the rate per kg of catalyst (basis: mass).'],
+  mass: [['reactor', 'bulkDensity'], `a mass-basis rate in a ${kind} reactor sized by volume needs the bed bulk density`,
+    'Give reactor.bulkDensity (kg/m3), or model the reactor as a packed bed.'],
+});
+const REFUSALS: Readonly<Record<TubeKind, Parameters<typeof basisWeights>[3]>> = {
+  'packed-bed': refusals('packed-bed'),
+  'plug-flow': refusals('plug-flow'),
+  membrane: refusals('membrane'),
+};
 
 /** Solve one tubular reactor (see the file header). Throws RateloomError only for bad input. */
 export function solveFlowTube(
@@ -86,12 +101,7 @@ export function prepareFlowTube(kind: TubeKind, spec: ReactorSpec, run: RunCondi
 
   const rb = bulkDensity(spec);
   const inMass = kind === 'packed-bed';
-  const weights = basisWeights(kinetics, inMass ? (rb !== undefined ? 1 / rb : undefined) : 1, inMass ? 1 : rb, {
-    volume: [['reactor', 'bulkDensity'], 'a volume-basis rate in a packed bed needs the bed bulk density',
-      'Give reactor.bulkDensity (kg/m3) or write the rate per kg of catalyst (basis: mass).'],
-    mass: [['reactor', 'bulkDensity'], `a mass-basis rate in a ${kind} reactor sized by volume needs the bed bulk density`,
-      'Give reactor.bulkDensity (kg/m3), or model the reactor as a packed bed.'],
-  });
+  const weights = basisWeights(kinetics, inMass ? (rb !== undefined ? 1 / rb : undefined) : 1, inMass ? 1 : rb, REFUSALS[kind]);
 
   // membrane permeation
   const perm = new Float64Array(nS);
@@ -136,35 +146,39 @@ export function prepareFlowTube(kind: TubeKind, spec: ReactorSpec, run: RunCondi
 }
 
 /**
- * Buffers and closures of the tube balances for one compiled kinetics: allocated once and reused
- * by every solve (solves are synchronous, so one workspace per kinetics suffices). The closures
- * read the current run from `p` and the parameters from `theta`.
+ * Buffers and closures of the tube balances for one compiled kinetics and variant (gas or liquid,
+ * with or without permeation): created once and reused by every solve (solves are synchronous, so
+ * one workspace per variant suffices). The closures, the state reader and the pressure slope are
+ * made here, never per solve; a solve only sets the run (`p` and the numeric fields, which the
+ * generated right-hand side of tube-rhs.ts reads) and `theta`.
  */
-class TubeWork {
+class TubeWork implements TubeRhsState {
   p!: PreparedTube;
-  theta!: Float64Array;
+  theta: Float64Array = new Float64Array(0);
+  cT0 = 0;
+  FT0 = 1;
+  alpha = 0;
+  T = 1;
+  invV0 = 0;
+  weights: Float64Array = new Float64Array(0);
+  perm: Float64Array = new Float64Array(0);
+  sweep: Float64Array = new Float64Array(0);
   readonly core: OdeCore;
-  constructor(kinetics: CompiledKinetics, gas: boolean) {
+  readonly reader: TubeReader;
+  /** -d(p^2)/dx at state y (for the extrapolated exhaustion point). */
+  readonly slope: (y: Float64Array) => number;
+  constructor(kinetics: CompiledKinetics, gas: boolean, membrane: boolean) {
     const nS = kinetics.speciesNames.length;
     const nP = kinetics.parameterNames.length;
     const n = gas ? nS + 1 : nS;
-    // Species-level rate terms R = nu^T diag(w) r and their derivatives (as RateTerms, with plain
-    // loops instead of TypedArray.fill, which costs more than the kinetics call at this size).
+    // Derivatives of the species-level rate terms R = nu^T diag(w) r (as RateTerms, with plain
+    // loops instead of TypedArray.fill, which costs more than the kinetics call at this size);
+    // R itself is formed by the generated right-hand side.
     const nR = kinetics.reactionIds.length;
     const nu = kinetics.stoich;
     const r = new Float64Array(nR);
     const jc = new Float64Array(nR * nS);
     const jp = new Float64Array(nR * nP);
-    const net = (C: Float64Array, T: number, theta: Float64Array, w: Float64Array, out: Float64Array): void => {
-      kinetics.rates(C, T, theta, r);
-      for (let j = 0; j < nS; j++) out[j] = 0;
-      for (let i = 0; i < nR; i++) {
-        const wr = w[i] * r[i];
-        if (wr === 0) continue;
-        const row = i * nS;
-        for (let j = 0; j < nS; j++) out[j] += nu[row + j] * wr;
-      }
-    };
     const jacCm = (C: Float64Array, T: number, theta: Float64Array, w: Float64Array, out: Float64Array): void => {
       kinetics.ratesJacC(C, T, theta, jc);
       for (let q = 0; q < nS * nS; q++) out[q] = 0;
@@ -196,7 +210,7 @@ class TubeWork {
         }
       }
     };
-    const rt = { net, jacC: jacCm, jacP: jacPm };
+    const rt = { jacC: jacCm, jacP: jacPm };
     const C = new Float64Array(nS);
     const R = new Float64Array(nS);
     const dCdF = new Float64Array(nS * nS);
@@ -226,38 +240,8 @@ class TubeWork {
       n,
       nP,
       atol: new Float64Array(n),
-      // the hot path: concentrations, rates and balances inlined (no helper calls besides the kinetics)
-      rhs: (_x, y, out) => {
-        const pr = this.p;
-        let FT = 0;
-        if (gas) {
-          for (let j = 0; j < nS; j++) FT += y[j];
-          const f = FT > 0 ? (pr.cT0 * y[nS]) / FT : 0;
-          for (let j = 0; j < nS; j++) C[j] = f * y[j];
-        } else {
-          const invV0 = pr.invV0;
-          for (let j = 0; j < nS; j++) C[j] = y[j] * invV0;
-        }
-        kinetics.rates(C, pr.T, this.theta, r);
-        const w = pr.weights;
-        for (let j = 0; j < nS; j++) out[j] = 0;
-        for (let i = 0; i < nR; i++) {
-          const wr = w[i] * r[i];
-          if (wr === 0) continue;
-          const row = i * nS;
-          for (let j = 0; j < nS; j++) out[j] += nu[row + j] * wr;
-        }
-        if (pr.kind === 'membrane') {
-          const perm = pr.perm;
-          const sweep = pr.sweep;
-          for (let j = 0; j < nS; j++) out[j] -= perm[j] * (C[j] - sweep[j]);
-        }
-        if (gas) {
-          const alpha = pr.alpha;
-          const p = y[nS] > 1e-12 ? y[nS] : 1e-12;
-          out[nS] = alpha === 0 ? 0 : (-alpha / (2 * p)) * (FT / pr.FT0);
-        }
-      },
+      // the hot path: generated per kinetics (tube-rhs.ts), reading the run from this object
+      rhs: makeTubeRhs(kinetics, gas, membrane, this, C, r),
       jac: (_x, y, out) => {
         const { T, weights, perm, alpha, FT0, cT0, invV0 } = this.p;
         conc(y, C);
@@ -355,16 +339,60 @@ class TubeWork {
         }
       },
     };
+    if (gas) this.core.pressureIndex = nS;
+    this.reader = new TubeReader(nS, gas, this);
+    this.slope = (y) => this.alpha * (sumFirst(y, nS) / this.FT0);
+  }
+
+  /** Point the workspace at a prepared run and parameter vector (no allocation). */
+  bind(prep: PreparedTube, theta: Float64Array, atol: number): void {
+    this.p = prep;
+    this.theta = theta;
+    this.cT0 = prep.cT0;
+    this.FT0 = prep.FT0;
+    this.alpha = prep.alpha;
+    this.T = prep.T;
+    this.invV0 = prep.invV0;
+    this.weights = prep.weights;
+    this.perm = prep.perm;
+    this.sweep = prep.sweep;
+    this.reader.coordinate = prep.kind === 'packed-bed' ? 'W' : 'V';
+    const nS = prep.F0.length;
+    const a = this.core.atol;
+    for (let j = 0; j < nS; j++) a[j] = atol * prep.FT0;
+    if (prep.gas) a[nS] = atol;
   }
 }
 
-const workspaces = new WeakMap<CompiledKinetics, { gas?: TubeWork; liquid?: TubeWork }>();
+/** How the tube state reads as concentrations and p/p0 (one per workspace; reads the bound run). */
+class TubeReader implements StateReader {
+  coordinate: 'W' | 'V' = 'W';
+  readonly pressureIndex?: number;
+  constructor(
+    readonly nS: number,
+    private readonly gas: boolean,
+    private readonly run: TubeRhsState,
+  ) {
+    if (gas) this.pressureIndex = nS;
+  }
+  concentrations(y: Float64Array, out: Float64Array): void {
+    const nS = this.nS;
+    if (this.gas) gasConcentrations(y, nS, Math.max(y[nS], 0), this.run.cT0, out);
+    else for (let j = 0; j < nS; j++) out[j] = y[j] * this.run.invV0;
+  }
+  pressureRatio(y: Float64Array): number {
+    return this.gas ? Math.max(y[this.nS], 0) : 1;
+  }
+}
 
-function workspace(kinetics: CompiledKinetics, gas: boolean): TubeWork {
+/** Workspaces of one kinetics, by variant: index (gas ? 1 : 0) + (membrane ? 2 : 0). */
+const workspaces = new WeakMap<CompiledKinetics, (TubeWork | undefined)[]>();
+
+function workspace(kinetics: CompiledKinetics, gas: boolean, membrane: boolean): TubeWork {
   let w = workspaces.get(kinetics);
-  if (!w) workspaces.set(kinetics, (w = {}));
-  const key = gas ? 'gas' : 'liquid';
-  return (w[key] ??= new TubeWork(kinetics, gas));
+  if (!w) workspaces.set(kinetics, (w = [undefined, undefined, undefined, undefined]));
+  const key = (gas ? 1 : 0) + (membrane ? 2 : 0);
+  return (w[key] ??= new TubeWork(kinetics, gas, membrane));
 }
 
 /**
@@ -372,34 +400,15 @@ function workspace(kinetics: CompiledKinetics, gas: boolean): TubeWork {
  * guarantees a finite theta of the right length and valid options (solveFlowTube checks them).
  */
 export function solvePreparedTube(prep: PreparedTube, theta: Float64Array, options: ReactorOptions = {}): ReactorSolution {
-  const { kinetics, gas, size, alpha, FT0, cT0, invV0 } = prep;
+  const { kinetics, gas, size } = prep;
   const nS = kinetics.speciesNames.length;
-  const nP = kinetics.parameterNames.length;
-  const work = workspace(kinetics, gas);
-  work.p = prep;
-  work.theta = theta;
+  const work = workspace(kinetics, gas, prep.kind === 'membrane');
+  work.bind(prep, theta, options.atol ?? 1e-10);
   const core = work.core;
-  const n = core.n;
-  const atol = options.atol ?? 1e-10;
-  for (let j = 0; j < nS; j++) core.atol[j] = atol * FT0;
-  if (gas) {
-    core.atol[nS] = atol;
-    core.pressureIndex = nS;
-  }
-  const y0 = new Float64Array(n);
+  const y0 = new Float64Array(core.n);
   y0.set(prep.F0);
   if (gas) y0[nS] = 1;
   const profileX = options.profile ? profilePositions(options, size) : undefined;
-  const res = runOde(core, y0, size, theta, options, profileX, (y) => alpha * (sumFirst(y, nS) / FT0));
-  const reader: StateReader = {
-    nS,
-    coordinate: prep.kind === 'packed-bed' ? 'W' : 'V',
-    concentrations: (y, out) => {
-      if (gas) gasConcentrations(y, nS, Math.max(y[nS], 0), cT0, out);
-      else for (let j = 0; j < nS; j++) out[j] = y[j] * invV0;
-    },
-    pressureRatio: (y) => (gas ? Math.max(y[nS], 0) : 1),
-    ...(gas ? { pressureIndex: nS } : {}),
-  };
-  return buildSolution(prep.run, res, reader, nP);
+  const res = runOde(core, y0, size, theta, options, profileX, work.slope);
+  return buildSolution(prep.run, res, work.reader, kinetics.parameterNames.length);
 }
