@@ -86,14 +86,17 @@ export function runOde(
   const { n, nP } = core;
   const sens = options.sensitivities === true && nP > 0;
   const N = sens ? n + n * nP : n;
-  const yStart = new Float64Array(N);
-  yStart.set(y0);
-  const atol = new Float64Array(N);
-  atol.set(core.atol);
+  // without sensitivities the state, its tolerances and the core's functions are used as they are
+  // (y0 is only read: integrate copies it into its own buffer)
+  let yStart = y0;
+  let atol = core.atol;
   let f: OdeRhs = core.rhs;
   let jac: OdeJac = core.jac;
   let rtol = options.rtol ?? 1e-8;
   if (sens) {
+    yStart = new Float64Array(N);
+    yStart.set(y0);
+    atol = new Float64Array(N);
     // Sensitivities are left out of the step-size control (see the file header): their atol is
     // so large that they add nothing to the weighted RMS norm sqrt(sum (e_i/sk_i)^2 / N), and the
     // state tolerances are scaled by c = sqrt(n/N) so that the norm over N components equals the
@@ -109,16 +112,15 @@ export function runOde(
   const run = runState(core);
   const pi = core.pressureIndex;
   const events = pi === undefined ? NO_EVENTS : run.pressureEvents(pi);
-  const odeOptions: OdeOptions = {
-    rtol,
-    atol,
-    method: options.method ?? 'auto',
-    jac,
-    maxSteps: options.maxSteps ?? 100000,
-    autonomous: true,
-    events,
-  };
-  if (profileX) odeOptions.tEval = profileX;
+  // one options object per core, refilled (integrate reads it and keeps no reference)
+  const odeOptions = run.options;
+  odeOptions.rtol = rtol;
+  odeOptions.atol = atol;
+  odeOptions.method = options.method ?? 'auto';
+  odeOptions.jac = jac;
+  odeOptions.maxSteps = options.maxSteps ?? 100000;
+  odeOptions.events = events;
+  odeOptions.tEval = profileX ?? NO_TIMES;
   let res: OdeResult;
   if (x1 === 0) {
     res = {
@@ -139,10 +141,12 @@ export function runOde(
   // keep only finite profile rows
   const profX: number[] = [];
   const profY: Float64Array[] = [];
-  for (let i = 0; i < res.tOut.length; i++) {
-    if (allFinite(res.yOut[i], N)) {
-      profX.push(res.tOut[i]);
-      profY.push(res.yOut[i]);
+  if (profileX) {
+    for (let i = 0; i < res.tOut.length; i++) {
+      if (allFinite(res.yOut[i], N)) {
+        profX.push(res.tOut[i]);
+        profY.push(res.yOut[i]);
+      }
     }
   }
   let status: ReactorStatus;
@@ -182,7 +186,8 @@ export function runOde(
   const out: OdeDriverResult = {
     status,
     message,
-    y: yEnd.slice(0, n),
+    // the rows handed out here are owned by the result (buildSolution copies what it keeps)
+    y: N === n ? yEnd : yEnd.slice(0, n),
     x: xEnd,
     profileX: profX,
     profileY: profY,
@@ -195,11 +200,17 @@ export function runOde(
 }
 
 const NO_EVENTS: OdeEvent[] = [];
+const NO_TIMES: number[] = [];
+const NO_ATOL = new Float64Array(0);
 
 /** What a core keeps between solves: its integrator workspace and its pressure event. */
 class CoreRun {
   /** Reused by every solve of the core (solves of one core never nest). */
   readonly workspace = new OdeWorkspace();
+  /** The integrator options of the current solve (refilled by every solve of the core). */
+  readonly options: OdeOptions = {
+    rtol: 1e-8, atol: NO_ATOL, method: 'auto', maxSteps: 100000, autonomous: true, events: NO_EVENTS, tEval: NO_TIMES,
+  };
   private pi = -1;
   private events: OdeEvent[] = NO_EVENTS;
   /** The terminal event p = P_EXHAUSTED (falling) on state component pi. */

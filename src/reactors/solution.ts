@@ -1,6 +1,7 @@
 /**
  * Assembly of a ReactorSolution from an ODE driver result: outlet amounts and concentrations,
  * pressure ratio, profile rows and sensitivities. No numerics here; no external reference.
+ * Allocates only the arrays and objects of the result (no views, no temporaries).
  */
 import type { OdeDriverResult } from './ode-driver';
 import type { ReactorProfile, ReactorSolution, RunConditions } from './types';
@@ -29,8 +30,8 @@ export function buildSolution(run: RunConditions, r: OdeDriverResult, reader: St
     status: r.status,
     success: STATUS_SUCCESS[r.status],
     message: r.message,
-    warnings: r.warnings.map((w) => ({ ...w, path: ['runs', run.id] })),
-    outletAmounts: Float64Array.from(r.y.subarray(0, nS)),
+    warnings: r.warnings.length === 0 ? [] : r.warnings.map((w) => ({ ...w, path: ['runs', run.id] })),
+    outletAmounts: r.y.slice(0, nS),
     outletConcentrations: C,
     pressureRatio: reader.pressureRatio(r.y),
     stats: r.stats,
@@ -44,14 +45,14 @@ export function buildSolution(run: RunConditions, r: OdeDriverResult, reader: St
       const c = new Float64Array(nS);
       reader.concentrations(y, c);
       profile.x.push(r.profileX[i]);
-      profile.amounts.push(Float64Array.from(y.subarray(0, nS)));
+      profile.amounts.push(y.slice(0, nS));
       profile.concentrations.push(c);
       profile.pressureRatio.push(reader.pressureRatio(y));
     }
     sol.profile = profile;
   }
   if (r.S) {
-    const amounts = Float64Array.from(r.S.subarray(0, nS * nP));
+    const amounts = r.S.slice(0, nS * nP);
     const pr = new Float64Array(nP);
     if (reader.pressureSensitivity) reader.pressureSensitivity(r.y, r.S, nP, pr);
     else if (reader.pressureIndex !== undefined) pr.set(r.S.subarray(reader.pressureIndex * nP, (reader.pressureIndex + 1) * nP));
