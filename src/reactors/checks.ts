@@ -106,14 +106,17 @@ export function checkTheta(kinetics: CompiledKinetics, theta: Float64Array): voi
   }
 }
 
+/** A tolerance option, when given: finite and > 0. */
+function checkTolerance(v: number | undefined, key: 'rtol' | 'atol'): void {
+  if (v !== undefined && !(Number.isFinite(v) && v > 0)) {
+    bad(`option ${key} is ${v}; it must be positive`, ['options', key], `Give ${key} as a small positive number.`);
+  }
+}
+
 /** Options: tolerances and profile points inside [0, size], ascending. */
 export function checkOptions(options: ReactorOptions, size: number): void {
-  for (const key of ['rtol', 'atol'] as const) {
-    const v = options[key];
-    if (v !== undefined && !(Number.isFinite(v) && v > 0)) {
-      bad(`option ${key} is ${v}; it must be positive`, ['options', key], `Give ${key} as a small positive number.`);
-    }
-  }
+  checkTolerance(options.rtol, 'rtol');
+  checkTolerance(options.atol, 'atol');
   const pts = options.profilePoints;
   if (pts) {
     let prev = -Infinity;

@@ -72,7 +72,7 @@ export function solveFlowTube(
 ): ReactorSolution {
   checkKinetics(kinetics);
   checkTheta(kinetics, theta);
-  const prep = prepareFlowTube(kind, spec, run, kinetics);
+  const prep = prepareChecked(kind, spec, run, kinetics);
   checkOptions(options, prep.size);
   return solvePreparedTube(prep, theta, options);
 }
@@ -80,6 +80,11 @@ export function solveFlowTube(
 /** Check a run and resolve its constants (throws RateloomError for bad input). */
 export function prepareFlowTube(kind: TubeKind, spec: ReactorSpec, run: RunConditions, kinetics: CompiledKinetics): PreparedTube {
   checkKinetics(kinetics);
+  return prepareChecked(kind, spec, run, kinetics);
+}
+
+/** prepareFlowTube for kinetics already checked by checkKinetics. */
+function prepareChecked(kind: TubeKind, spec: ReactorSpec, run: RunConditions, kinetics: CompiledKinetics): PreparedTube {
   checkTemperature(run);
   const gas = spec.phase === 'gas';
   const P0 = checkPressure(run, gas);
@@ -164,6 +169,8 @@ class TubeWork implements TubeRhsState {
   perm: Float64Array = new Float64Array(0);
   sweep: Float64Array = new Float64Array(0);
   readonly core: OdeCore;
+  /** Inlet state of the current solve. */
+  readonly y0: Float64Array;
   readonly reader: TubeReader;
   /** -d(p^2)/dx at state y (for the extrapolated exhaustion point). */
   readonly slope: (y: Float64Array) => number;
@@ -340,6 +347,7 @@ class TubeWork implements TubeRhsState {
       },
     };
     if (gas) this.core.pressureIndex = nS;
+    this.y0 = new Float64Array(n);
     this.reader = new TubeReader(nS, gas, this);
     this.slope = (y) => this.alpha * (sumFirst(y, nS) / this.FT0);
   }
@@ -405,7 +413,7 @@ export function solvePreparedTube(prep: PreparedTube, theta: Float64Array, optio
   const work = workspace(kinetics, gas, prep.kind === 'membrane');
   work.bind(prep, theta, options.atol ?? 1e-10);
   const core = work.core;
-  const y0 = new Float64Array(core.n);
+  const y0 = work.y0; // read only by the integrator (copied into its own buffer)
   y0.set(prep.F0);
   if (gas) y0[nS] = 1;
   const profileX = options.profile ? profilePositions(options, size) : undefined;

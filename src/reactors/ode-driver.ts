@@ -71,6 +71,7 @@ function allFinite(v: Float64Array, n: number): boolean {
 
 /**
  * Integrate a reactor core from x = 0 to x1 with y(0) = y0.
+ * y0 is only read (the result never refers to it), so a caller may pass a reused buffer.
  * `profileX` (ascending, in [0, x1]) asks for dense output; `theta` scales the sensitivity tolerances.
  * `pressureSlope(y)` gives -d(p^2)/dx at the exhaustion event to extrapolate exhaustedAt.
  */
@@ -124,7 +125,7 @@ export function runOde(
   let res: OdeResult;
   if (x1 === 0) {
     res = {
-      status: 'success', success: true, message: 'zero size', warnings: [], t: 0, y: yStart,
+      status: 'success', success: true, message: 'zero size', warnings: [], t: 0, y: Float64Array.from(yStart),
       tOut: profileX ? profileX.map(() => 0) : [], yOut: profileX ? profileX.map(() => Float64Array.from(yStart)) : [],
       events: [], stats: { rhsEvaluations: 0, jacobianEvaluations: 0, steps: 0, rejectedSteps: 0, method: 'nonstiff', luDecompositions: 0 },
     };
@@ -177,7 +178,7 @@ export function runOde(
   }
   if (!allFinite(yEnd, N)) {
     // never hand out NaN: fall back to the last finite profile row, else the inlet
-    const last = profY.length > 0 ? profY[profY.length - 1] : yStart;
+    const last = profY.length > 0 ? profY[profY.length - 1] : Float64Array.from(yStart);
     xEnd = profX.length > 0 ? profX[profX.length - 1] : 0;
     yEnd = last;
     if (status === 'success' || status === 'pressure-exhausted') status = 'non-finite';
