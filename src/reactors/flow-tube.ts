@@ -25,6 +25,7 @@ import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentrati
 import { runOde, type OdeCore } from './ode-driver';
 import { buildSolution, type StateReader } from './solution';
 import { makeTubeRhs, type TubeRhsState } from './tube-rhs';
+import { speciesFromReactions } from './rate-terms';
 import type { ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types';
 import { RateloomError } from '../core/errors';
 
@@ -178,9 +179,8 @@ class TubeWork implements TubeRhsState {
     const nS = kinetics.speciesNames.length;
     const nP = kinetics.parameterNames.length;
     const n = gas ? nS + 1 : nS;
-    // Derivatives of the species-level rate terms R = nu^T diag(w) r (as RateTerms, with plain
-    // loops instead of TypedArray.fill, which costs more than the kinetics call at this size);
-    // R itself is formed by the generated right-hand side.
+    // Derivatives of the species-level rate terms R = nu^T diag(w) r (rate-terms.ts); R itself is
+    // formed by the generated right-hand side.
     const nR = kinetics.reactionIds.length;
     const nu = kinetics.stoich;
     const r = new Float64Array(nR);
@@ -188,34 +188,11 @@ class TubeWork implements TubeRhsState {
     const jp = new Float64Array(nR * nP);
     const jacCm = (C: Float64Array, T: number, theta: Float64Array, w: Float64Array, out: Float64Array): void => {
       kinetics.ratesJacC(C, T, theta, jc);
-      for (let q = 0; q < nS * nS; q++) out[q] = 0;
-      for (let i = 0; i < nR; i++) {
-        const wi = w[i];
-        if (wi === 0) continue;
-        const row = i * nS;
-        for (let j = 0; j < nS; j++) {
-          const c = nu[row + j] * wi;
-          if (c === 0) continue;
-          const o = j * nS;
-          for (let k = 0; k < nS; k++) out[o + k] += c * jc[row + k];
-        }
-      }
+      speciesFromReactions(nu, w, jc, nR, nS, nS, out);
     };
     const jacPm = (C: Float64Array, T: number, theta: Float64Array, w: Float64Array, out: Float64Array): void => {
       kinetics.ratesJacP(C, T, theta, jp);
-      for (let q = 0; q < nS * nP; q++) out[q] = 0;
-      for (let i = 0; i < nR; i++) {
-        const wi = w[i];
-        if (wi === 0) continue;
-        const rowS = i * nS;
-        const rowP = i * nP;
-        for (let j = 0; j < nS; j++) {
-          const c = nu[rowS + j] * wi;
-          if (c === 0) continue;
-          const o = j * nP;
-          for (let k = 0; k < nP; k++) out[o + k] += c * jp[rowP + k];
-        }
-      }
+      speciesFromReactions(nu, w, jp, nR, nS, nP, out);
     };
     const rt = { jacC: jacCm, jacP: jacPm };
     const C = new Float64Array(nS);

@@ -8,6 +8,27 @@
  */
 import type { CompiledKinetics } from '../kinetics/compiled';
 
+/**
+ * out (nS x ncol) = nu^T diag(w) src, with src a reaction-level matrix (nR x ncol) and nu the
+ * stoichiometric matrix (nR x nS). Plain loops (no TypedArray.fill: at these sizes it costs more
+ * than the product); skips zero weights and zero coefficients.
+ */
+export function speciesFromReactions(nu: Float64Array, w: Float64Array, src: Float64Array, nR: number, nS: number, ncol: number, out: Float64Array): void {
+  for (let q = 0; q < nS * ncol; q++) out[q] = 0;
+  for (let i = 0; i < nR; i++) {
+    const wi = w[i];
+    if (wi === 0) continue;
+    const rowS = i * nS;
+    const rowC = i * ncol;
+    for (let j = 0; j < nS; j++) {
+      const c = nu[rowS + j] * wi;
+      if (c === 0) continue;
+      const o = j * ncol;
+      for (let k = 0; k < ncol; k++) out[o + k] += c * src[rowC + k];
+    }
+  }
+}
+
 export class RateTerms {
   readonly nS: number;
   readonly nR: number;
@@ -55,40 +76,13 @@ export class RateTerms {
 
   /** dR/dC (nS x nS row-major) = nu^T diag(w) dr/dC. */
   jacC(C: Float64Array, T: number, theta: Float64Array, w: Float64Array, out: Float64Array): void {
-    const { nS, nR, jc } = this;
-    const nu = this.kinetics.stoich;
-    this.kinetics.ratesJacC(C, T, theta, jc);
-    out.fill(0, 0, nS * nS);
-    for (let i = 0; i < nR; i++) {
-      const wi = w[i];
-      if (wi === 0) continue;
-      const row = i * nS;
-      for (let j = 0; j < nS; j++) {
-        const c = nu[row + j] * wi;
-        if (c === 0) continue;
-        const o = j * nS;
-        for (let k = 0; k < nS; k++) out[o + k] += c * jc[row + k];
-      }
-    }
+    this.kinetics.ratesJacC(C, T, theta, this.jc);
+    speciesFromReactions(this.kinetics.stoich, w, this.jc, this.nR, this.nS, this.nS, out);
   }
 
   /** dR/dtheta (nS x nP row-major) = nu^T diag(w) dr/dtheta. */
   jacP(C: Float64Array, T: number, theta: Float64Array, w: Float64Array, out: Float64Array): void {
-    const { nS, nR, nP, jp } = this;
-    const nu = this.kinetics.stoich;
-    this.kinetics.ratesJacP(C, T, theta, jp);
-    out.fill(0, 0, nS * nP);
-    for (let i = 0; i < nR; i++) {
-      const wi = w[i];
-      if (wi === 0) continue;
-      const rowS = i * nS;
-      const rowP = i * nP;
-      for (let j = 0; j < nS; j++) {
-        const c = nu[rowS + j] * wi;
-        if (c === 0) continue;
-        const o = j * nP;
-        for (let k = 0; k < nP; k++) out[o + k] += c * jp[rowP + k];
-      }
-    }
+    this.kinetics.ratesJacP(C, T, theta, this.jp);
+    speciesFromReactions(this.kinetics.stoich, w, this.jp, this.nR, this.nS, this.nP, out);
   }
 }
