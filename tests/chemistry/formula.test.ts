@@ -1,16 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { parseFormula } from '../../src/chemistry/formula';
-import { RateloomError } from '../../src/core/errors';
-
-function err(fn: () => unknown): RateloomError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof RateloomError) return e;
-    throw e;
-  }
-  throw new Error('expected a RateloomError');
-}
+import { err } from '../kinetics/helpers';
 
 describe('parseFormula', () => {
   it('counts atoms in simple formulas', () => {

@@ -1,16 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildChemistry, elementBalanceResidual, speciesIndex } from '../../src/chemistry/mechanism';
 import { RateloomError } from '../../src/core/errors';
-
-function err(fn: () => unknown): RateloomError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof RateloomError) return e;
-    throw e;
-  }
-  throw new Error('expected a RateloomError');
-}
+import { err } from '../kinetics/helpers';
 
 const species = [
   { name: 'H2', formula: 'H2' },
