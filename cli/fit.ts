@@ -148,7 +148,8 @@ export function registerFit(program: Command): void {
         const { study, report } = readStudy(studyPath, !!flags.strict);
         assertWritable(planned, { force: !!flags.force });
         const progress = progressReporter(!!flags.json, 'multistart');
-        const sf = await fitStudyParallel(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, ...(starts !== undefined ? { starts } : {}), seed, level, workers, ...(progress ? { progress } : {}) });
+        const profileProgress = progressReporter(!!flags.json, 'profile intervals');
+        const sf = await fitStudyParallel(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, ...(starts !== undefined ? { starts } : {}), seed, level, workers, ...(progress ? { progress } : {}), ...(profileProgress ? { profileProgress } : {}) });
         const handoff = buildHandoff(study, sf);
         const handoffPath = writeAtomic(planned[0], toJson(handoff) + '\n', { force: !!flags.force });
         let reportPaths: { html: string; markdown: string } | undefined;

@@ -42,6 +42,8 @@ export interface FitOptions {
   differences?: 'forward' | 'central';
   /** Compute profile-likelihood intervals for every free parameter; default true. */
   profile?: boolean;
+  /** Called after each parameter's profile with (done, total); default none. */
+  profileProgress?: (done: number, total: number) => void;
   /** Condition number of the column-scaled J'J above which a warning is given; default 1e8. */
   conditionWarning?: number;
   /** |correlation| above which a pair is flagged; default 0.95. */

@@ -244,6 +244,7 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
           linear: fitted[j].ci.linear,
         }),
       );
+      options.profileProgress?.(k + 1, free.length);
     });
   }
 

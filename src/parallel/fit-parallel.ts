@@ -86,7 +86,7 @@ export async function fitStudyParallel(study: Study, options: ParallelFitOptions
     }
     if ((fitOptions.profile ?? true) && fit.success && fit.covariance.internal && fit.statistics.dof > 0) {
       const jobs = profileJobs(fit);
-      const outs = await (await getPool()).run(jobs);
+      const outs = await (await getPool()).run(jobs, (done) => fitOptions.profileProgress?.(done, jobs.length));
       const profiles: ParameterProfile[] = outs.map((o, i) => {
         if (o.ok && o.value.kind === 'profile') return o.value.profile;
         const j = jobs[i];
