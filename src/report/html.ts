@@ -63,6 +63,26 @@ function parameterTable(data: FitReportData): string {
   );
 }
 
+/** Starting values rateloom estimated (study left them open); '' when there are none. */
+function startValuesBlock(data: FitReportData): string {
+  const sv = data.startValues;
+  if (!sv || sv.rows.length === 0) return '';
+  const rows = sv.rows.map((r) => [
+    `<th scope="row"><code>${escapeHtml(r.parameter)}</code></th>`,
+    numCell(r.value, r.unit),
+    textCell(r.method),
+    textCell(r.how),
+  ]);
+  const used = sv.points !== null && sv.points !== undefined ? `<p>${escapeHtml(`The differential method used ${sv.points} rate points.`)}</p>` : '';
+  const notes = sv.notes && sv.notes.length ? `<div class="notes"><ul>${sv.notes.map((n) => `<li>${escapeHtml(n)}</li>`).join('')}</ul></div>` : '';
+  return (
+    '<h3>Starting values estimated by rateloom</h3>' +
+    table(['Parameter', 'Start', 'Method', 'How'], rows, 'The study left these starting values open; the fit began from them.') +
+    used +
+    notes
+  );
+}
+
 function statisticsTable(data: FitReportData): string {
   const s = data.statistics;
   const rows: [string, string][] = [
@@ -144,7 +164,7 @@ export function renderFitHtml(data: FitReportData, charts: RenderedFitCharts): s
   const body = [
     headerBlock(data.title, [`Study: ${data.studyName}`, data.generatedBy, data.generatedAt ?? '']),
     section('summary', 'Summary', statusBlock(data.success, data.status, data.message) + warningsBlock(data.warnings) + kinetics),
-    section('parameters', 'Parameters', parameterTable(data)),
+    section('parameters', 'Parameters', parameterTable(data) + startValuesBlock(data)),
     section('statistics', 'Statistics', statisticsTable(data)),
     section(
       'fit-quality',
@@ -188,8 +208,19 @@ function designTable(data: SizingReportData): string {
   }
   const t = data.tubes;
   if (t) {
-    rows.push(['Tubes', countCell(t.count, 'tubes')], ['Tube inner diameter', numCell(t.diameter * 1000, 'mm', 3)], ['Tube length', numCell(t.length, 'm', 3)]);
-    if (t.sizePerTube !== null && t.sizePerTube !== undefined) rows.push([`Per tube: ${data.size.label}`, numCell(t.sizePerTube, data.size.unit)]);
+    const has = (x: number | null | undefined): x is number => x !== null && x !== undefined;
+    const install = has(t.installCatalyst) || has(t.installLength) || has(t.installPressureDrop);
+    rows.push(
+      ['Tubes', countCell(t.count, 'tubes')],
+      ['Tube inner diameter', numCell(t.diameter * 1000, 'mm', 3)],
+      [install ? 'Tube length (nominal catalyst)' : 'Tube length', numCell(t.length, 'm', 3)],
+    );
+    if (has(t.sizePerTube)) rows.push([`Per tube: ${data.size.label}`, numCell(t.sizePerTube, data.size.unit)]);
+    const p = has(t.designLevel) ? `P${formatNumber(t.designLevel * 100, 3)}` : 'design percentile';
+    if (has(t.designLevel)) rows.push(['Tube count designed for percentile', numCell(t.designLevel * 100, '%', 3)]);
+    if (has(t.installCatalyst)) rows.push([`Catalyst to install (${p})`, numCell(t.installCatalyst, 'kg')]);
+    if (has(t.installLength)) rows.push([`Tube length to install (${p})`, numCell(t.installLength, 'm', 3)]);
+    if (has(t.installPressureDrop)) rows.push([`Pressure drop of the installed bed (${p}, nominal kinetics)`, numCell(paToKPa(t.installPressureDrop), 'kPa')]);
   }
   if (data.draws) {
     rows.push(['Monte Carlo draws', countCell(data.draws.total, 'draws')], ['Failed draws', countCell(data.draws.failed, 'draws')]);

@@ -68,7 +68,17 @@ export function renderFitMarkdown(data: FitReportData): string {
     warningLines(data.warnings),
   ];
   if (data.kinetics && data.kinetics.length) parts.push('Rate laws:', data.kinetics.map((k) => `    ${k.replace(/\r?\n/g, ' ')}`).join('\n'));
-  parts.push('## Parameters', params, '## Statistics', mdTable(['Quantity', 'Value'], statsRows));
+  parts.push('## Parameters', params);
+  const sv = data.startValues;
+  if (sv && sv.rows.length) {
+    parts.push(
+      '## Starting values estimated by rateloom',
+      mdTable(['Parameter', 'Start', 'Method', 'How'], sv.rows.map((r) => [md(r.parameter), q(r.value, r.unit), md(r.method), md(r.how)])),
+    );
+    if (sv.points !== null && sv.points !== undefined) parts.push(`The differential method used ${sv.points} rate points.`);
+    if (sv.notes && sv.notes.length) parts.push(sv.notes.map((n) => `- ${md(n)}`).join('\n'));
+  }
+  parts.push('## Statistics', mdTable(['Quantity', 'Value'], statsRows));
   const models = data.rivalModels ?? [];
   if (models.length) {
     const best = Math.min(...models.map((m) => m.aicc).filter(Number.isFinite));
@@ -114,12 +124,20 @@ export function renderSizingMarkdown(data: SizingReportData): string {
   const dp = data.pressureDrop;
   sizeRows.push(['Pressure drop', dp ? q(paToKPa(dp.value), 'kPa') : 'not modelled']);
   if (dp && dp.fractionOfInlet !== null && dp.fractionOfInlet !== undefined) sizeRows.push(['Pressure drop / inlet pressure', q(dp.fractionOfInlet * 100, '%', 3)]);
-  if (data.tubes) {
+  const t = data.tubes;
+  if (t) {
+    const has = (x: number | null | undefined): x is number => x !== null && x !== undefined;
+    const install = has(t.installCatalyst) || has(t.installLength) || has(t.installPressureDrop);
     sizeRows.push(
-      ['Tubes', q(data.tubes.count, 'tubes', 12)],
-      ['Tube inner diameter', q(data.tubes.diameter * 1000, 'mm', 3)],
-      ['Tube length', q(data.tubes.length, 'm', 3)],
+      ['Tubes', q(t.count, 'tubes', 12)],
+      ['Tube inner diameter', q(t.diameter * 1000, 'mm', 3)],
+      [install ? 'Tube length (nominal catalyst)' : 'Tube length', q(t.length, 'm', 3)],
     );
+    const p = has(t.designLevel) ? `P${formatNumber(t.designLevel * 100, 3)}` : 'design percentile';
+    if (has(t.designLevel)) sizeRows.push(['Tube count designed for percentile', q(t.designLevel * 100, '%', 3)]);
+    if (has(t.installCatalyst)) sizeRows.push([`Catalyst to install (${p})`, q(t.installCatalyst, 'kg')]);
+    if (has(t.installLength)) sizeRows.push([`Tube length to install (${p})`, q(t.installLength, 'm', 3)]);
+    if (has(t.installPressureDrop)) sizeRows.push([`Pressure drop of the installed bed (${p}, nominal kinetics)`, q(paToKPa(t.installPressureDrop), 'kPa')]);
   }
   if (data.draws) sizeRows.push(['Monte Carlo draws (failed)', `${q(data.draws.total, 'draws', 12)} (${q(data.draws.failed, 'draws', 12)})`]);
   const parts = [

@@ -187,6 +187,29 @@ export interface RivalModelData {
   verdict: string;
 }
 
+/** One starting value rateloom estimated (the study left the parameter open). */
+export interface StartValueRowData {
+  /** Parameter name, for example 'k_ref'. */
+  parameter: string;
+  /** The starting value in `unit`. */
+  value: number;
+  /** Unit of value, for example 'mol/(kg s)' or 'J/mol'. */
+  unit: string;
+  /** How it was obtained, for example 'differential' (rate analysis) or 'default'. */
+  method: string;
+  /** One line saying how, for example 'from 12 low-conversion points'. */
+  how: string;
+}
+
+/** Starting values estimated by rateloom, with notes on what the estimate assumed or skipped. */
+export interface StartValuesData {
+  rows: StartValueRowData[];
+  /** Points used by the differential method (0 when it did not run); absent when not known. */
+  points?: number | null;
+  /** Why the estimate was skipped or limited, and what it assumed. */
+  notes?: string[];
+}
+
 /** Everything the fit report shows. */
 export interface FitReportData {
   title: string;
@@ -210,6 +233,8 @@ export interface FitReportData {
   rivalModels?: RivalModelData[];
   /** Rate laws as readable lines, for example 'r1 = k1 K_A p_A / (1 + K_A p_A)^2'. */
   kinetics?: string[];
+  /** Starting values rateloom estimated for parameters the study left open; null or absent when the study gave every value. */
+  startValues?: StartValuesData | null;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -249,6 +274,30 @@ export interface SensitivityRowData {
   effect: number;
 }
 
+/**
+ * Tube layout of a multitubular bed: the nominal layout (count, diameter, length for the nominal
+ * catalyst mass) and, when the count was designed for a percentile of the required size, the
+ * catalyst to install at that percentile. The install fields may be left out or null.
+ */
+export interface TubesData {
+  /** Number of tubes. */
+  count: number;
+  /** Tube inner diameter in m (shown in mm). */
+  diameter: number;
+  /** Bed length per tube for the nominal catalyst mass, in m. */
+  length: number;
+  /** Size per tube in the size unit; null or absent when not computed. */
+  sizePerTube?: number | null;
+  /** Percentile of the required size the count was designed for, as a fraction (0.95 = P95); null for the nominal fit only. */
+  designLevel?: number | null;
+  /** Catalyst to install at the design percentile (all tubes), in kg. */
+  installCatalyst?: number | null;
+  /** Bed length per tube holding the catalyst to install, in m. */
+  installLength?: number | null;
+  /** Pressure drop over the installed bed with the nominal kinetics, in Pa (shown in kPa). */
+  installPressureDrop?: number | null;
+}
+
 /** Everything the sizing report shows. */
 export interface SizingReportData {
   title: string;
@@ -268,7 +317,7 @@ export interface SizingReportData {
   /** Pressure drop over the bed in Pa (shown in kPa); null when not modelled. */
   pressureDrop?: { value: number; lo?: number | null; hi?: number | null; fractionOfInlet?: number | null } | null;
   /** Tube layout when the bed is split into tubes; null otherwise. */
-  tubes?: { count: number; diameter: number; length: number; sizePerTube?: number | null } | null;
+  tubes?: TubesData | null;
   /** Production profile with its uncertainty band. */
   productionProfile?: {
     coordinate: { label: string; unit: string };

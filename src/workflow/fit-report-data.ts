@@ -4,7 +4,7 @@
  * at the fitted parameters for the predicted curves.
  */
 import type { Comparison } from '../estimation/compare';
-import type { FitReportData, ParameterRowData, RunObservationData, RunProfileData, RivalModelData } from '../report/types';
+import type { FitReportData, ParameterRowData, RunObservationData, RunProfileData, RivalModelData, StartValuesData } from '../report/types';
 import type { Study } from '../study/types';
 import type { StudyFit } from './fit-study';
 import { feedRatio, responseLabel, spaceTime } from './labels';
@@ -111,6 +111,21 @@ function rivals(comparison: Comparison): RivalModelData[] {
   }));
 }
 
+const START_METHOD_TEXT: Record<string, string> = {
+  differential: 'differential rate analysis',
+  default: 'documented default',
+};
+
+function startValues(sf: StudyFit): StartValuesData | null {
+  const sv = sf.startValues;
+  if (!sv || sv.estimated.length === 0) return null;
+  return {
+    rows: sv.estimated.map((e) => ({ parameter: e.name, value: e.value, unit: e.unit, method: START_METHOD_TEXT[e.method] ?? e.method, how: e.detail })),
+    points: sv.points,
+    notes: [...sv.notes],
+  };
+}
+
 /** The fit report view model of a study fit. */
 export function fitReportData(study: Study, sf: StudyFit, comparison?: Comparison): FitReportData {
   const { fit } = sf;
@@ -166,5 +181,6 @@ export function fitReportData(study: Study, sf: StudyFit, comparison?: Compariso
     }),
     ...(comparison ? { rivalModels: rivals(comparison) } : {}),
     kinetics: sf.model.kinetics.describe().map((d) => `${d.id}: ${d.equation};  r = ${d.text}  [${d.rateUnit}]`),
+    startValues: startValues(sf),
   };
 }

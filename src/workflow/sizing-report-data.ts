@@ -47,7 +47,16 @@ export function sizingReportData(r: SizingResult): SizingReportData {
       : [],
     pressureDrop: r.pressure ? { value: r.pressure.drop, fractionOfInlet: r.pressure.drop / r.pressure.inlet } : null,
     tubes: r.tubes
-      ? { count: r.tubes.count, diameter: r.tubes.innerDiameter, length: r.tubes.length, sizePerTube: r.tubes.catalystPerTube }
+      ? {
+          count: r.tubes.count,
+          diameter: r.tubes.innerDiameter,
+          length: r.tubes.length,
+          sizePerTube: r.tubes.catalystPerTube,
+          designLevel: r.tubes.install?.level ?? r.tubes.designedFor.level,
+          installCatalyst: r.tubes.install?.catalystMass ?? null,
+          installLength: r.tubes.install?.length ?? null,
+          installPressureDrop: r.tubes.install?.pressureDrop.pa ?? null,
+        }
       : null,
     productionProfile: u?.band
       ? {

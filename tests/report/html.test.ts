@@ -75,6 +75,17 @@ describe('fit report HTML', async () => {
     }
   });
 
+  it('shows the starting values rateloom estimated, with units, and leaves the table out without them', () => {
+    expect(report.html).toContain('<h3>Starting values estimated by rateloom</h3>');
+    expect(report.html).toMatch(/<code>k_ref<\/code><\/th><td class="num">2\.1×10⁻³<span class="unit">mol\/\(kg s\)<\/span><\/td><td>differential rate analysis<\/td>/);
+    expect(report.html).toMatch(/<code>E<\/code><\/th><td class="num">79000<span class="unit">J\/mol<\/span><\/td>/);
+    expect(report.html).toContain('<td class="num">1<span class="unit" title="dimensionless">–</span></td><td>documented default</td>');
+    expect(report.html).toContain('The differential method used 9 rate points.');
+    expect(report.html).toContain('<li>points up to 40% conversion were used: too few below 15%</li>');
+    const none = renderFitHtml({ ...data, startValues: null }, { parity: [], residuals: [], profiles: [], correlation: [], likelihood: [], rivals: [] });
+    expect(none).not.toContain('Starting values estimated by rateloom');
+  });
+
   it('escapes all text', () => {
     expect(report.html).toContain('pilot-hydrogenation-2031 &lt;lab B&gt; &amp; &quot;bench 3&quot;');
     expect(report.html).not.toContain('<lab B>');
@@ -85,11 +96,15 @@ describe('fit report HTML', async () => {
       warnings: [{ code: '<b>', message: '"><svg onload=alert(1)>' }],
       parameters: [{ ...data.parameters[0], name: '<i>k</i>', unit: '<u>', flags: ['<em>x</em>'] }],
       kinetics: ['r < k & K > 0'],
+      startValues: { rows: [{ parameter: '<i>k0</i>', value: 1, unit: '<u>', method: '<b>m</b>', how: 'a < b & c' }], notes: ['<script>n</script>'] },
     };
     const html = renderFitHtml(evil, { parity: [], residuals: [], profiles: [], correlation: [], likelihood: [], rivals: [] });
     expect(html).not.toMatch(/<script|<img|<i>|<u>|<b>|<em>|<svg onload/);
     expect(html).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
     expect(html).toContain('r &lt; k &amp; K &gt; 0');
+    expect(html).toContain('<code>&lt;i&gt;k0&lt;/i&gt;</code>');
+    expect(html).toContain('<td>a &lt; b &amp; c</td>');
+    expect(html).toContain('<li>&lt;script&gt;n&lt;/script&gt;</li>');
   });
 
   it('marks an untrustworthy fit and missing values', async () => {
@@ -153,5 +168,19 @@ describe('sizing report HTML', async () => {
     expect(report.html).toContain('41.2<span class="unit">kPa</span>');
     expect(report.html).toContain('412<span class="unit">tubes</span>');
     expect(report.html).toContain('3 of 800 draws failed');
+  });
+
+  it('shows the catalyst to install at the design percentile with units, and only the nominal layout without it', async () => {
+    const row = (label: string, cell: string) => `<tr><th scope="row">${label}</th><td class="num">${cell}</td></tr>`;
+    expect(report.html).toContain(row('Tube length (nominal catalyst)', '6<span class="unit">m</span>'));
+    expect(report.html).toContain(row('Tube count designed for percentile', '95<span class="unit">%</span>'));
+    expect(report.html).toContain(row('Catalyst to install (P95)', '2150<span class="unit">kg</span>'));
+    expect(report.html).toContain(row('Tube length to install (P95)', '7.02<span class="unit">m</span>'));
+    expect(report.html).toContain(row('Pressure drop of the installed bed (P95, nominal kinetics)', '48.3<span class="unit">kPa</span>'));
+    const { designLevel: _l, installCatalyst: _c, installLength: _n, installPressureDrop: _p, ...nominal } = data.tubes!;
+    const r = await renderSizingReport({ ...data, tubes: nominal });
+    expect(r.html).toContain(row('Tube length', '6<span class="unit">m</span>'));
+    expect(r.html).not.toMatch(/to install|designed for percentile|installed bed/);
+    checkNumberCells(r.html);
   });
 });

@@ -25,6 +25,18 @@ describe('Markdown summaries', () => {
     expect(md).not.toMatch(/NaN|undefined/);
   });
 
+  it('fit summary lists the starting values rateloom estimated, with units, only when there are some', () => {
+    const md = renderFitMarkdown(sampleFitReportData());
+    expect(md).toContain('## Starting values estimated by rateloom');
+    expect(md).toContain('| k\\_ref | 2.1×10⁻³ mol/(kg s) | differential rate analysis | ln r regression over 9 low-conversion points |');
+    expect(md).toContain('| E | 79000 J/mol | differential rate analysis |');
+    expect(md).toContain('| n\\_H2 | 1 – | documented default |');
+    expect(md).toContain('The differential method used 9 rate points.');
+    expect(md).toContain('- points up to 40% conversion were used: too few below 15%');
+    expect(md.indexOf('## Starting values')).toBeGreaterThan(md.indexOf('## Parameters'));
+    expect(renderFitMarkdown({ ...sampleFitReportData(), startValues: undefined })).not.toContain('Starting values');
+  });
+
   it('escapes table-breaking characters', () => {
     const d = sampleFitReportData();
     d.parameters[0].name = 'k|1';
@@ -45,5 +57,13 @@ describe('Markdown summaries', () => {
     expect(caution).toBeLessThan(md.indexOf('## Size'));
     expect(md).toContain('| Pressure drop | 41.2 kPa |');
     expect(md).toContain('| n\\_H2 | 1.2 % |');
+    expect(md).toContain('| Tube length (nominal catalyst) | 6 m |');
+    expect(md).toContain('| Tube count designed for percentile | 95 % |');
+    expect(md).toContain('| Catalyst to install (P95) | 2150 kg |');
+    expect(md).toContain('| Tube length to install (P95) | 7.02 m |');
+    expect(md).toContain('| Pressure drop of the installed bed (P95, nominal kinetics) | 48.3 kPa |');
+    const nominal = renderSizingMarkdown({ ...d, tubes: { count: 412, diameter: 0.0254, length: 6 } });
+    expect(nominal).toContain('| Tube length | 6 m |');
+    expect(nominal).not.toMatch(/to install|installed bed/);
   });
 });

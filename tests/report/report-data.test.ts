@@ -1,0 +1,101 @@
+/**
+ * The view-model builders (src/workflow/*-report-data.ts) carry the new report fields from real
+ * results: the catalyst to install of a tube bundle designed for a percentile, and the starting
+ * values rateloom estimated for a study that left them open. Invented scenarios only.
+ */
+import { readFileSync } from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { loadCase } from '../../src/design/case';
+import { kineticsFromHandoff } from '../../src/design/kinetics';
+import { sizeReactor } from '../../src/design/size';
+import { renderFitMarkdown, renderSizingMarkdown } from '../../src/report/markdown';
+import { loadStudy } from '../../src/study';
+import { fitReportData } from '../../src/workflow/fit-report-data';
+import { fitStudy } from '../../src/workflow/fit-study';
+import { sizingReportData } from '../../src/workflow/sizing-report-data';
+import { handoff, param } from '../design/handoff-fixture';
+
+// Invented gas reaction A + B -> C over a catalyst, 5 % standard error on ln k.
+const h = handoff(
+  ['A', 'B', 'C', 'N2'],
+  [{ id: 'r1', equation: 'A + B -> C', rate: { form: 'power-law', basis: 'mass', rateConstant: { k: 'k', activationEnergy: 'E' } } }],
+  [param('k', 1e-4, 'log', 'm6/(kg mol s)'), param('E', 80000, 'none', 'J/mol')],
+  { names: ['k', 'E'], matrix: [[0.0025, 0], [0, 4e6]] },
+  { temperature: { min: 460, max: 500, unit: 'K' } },
+  480,
+);
+h.species = [
+  { name: 'A', molarMass: 0.028 },
+  { name: 'B', molarMass: 0.032 },
+  { name: 'C', molarMass: 0.06 },
+  { name: 'N2', formula: 'N2' },
+];
+const dk = kineticsFromHandoff(h);
+const kase = (draws: number) =>
+  loadCase(
+    {
+      name: 'tube bundle report',
+      reactor: { kind: 'packed-bed', phase: 'gas' },
+      feed: { totalFlow: '50 mol/s', moleFractions: { A: 0.4, B: 0.4, N2: 0.2 } },
+      temperature: '470 K',
+      pressure: '5 bar',
+      target: { conversion: 0.7, species: 'A' },
+      tubes: {
+        innerDiameter: '25 mm',
+        particleDiameter: '3 mm',
+        voidFraction: 0.4,
+        bulkDensity: '800 kg/m3',
+        particleDensity: '1333 kg/m3',
+        viscosity: '2.5e-5 Pa s',
+        allowedPressureDrop: '0.5 bar',
+      },
+      uncertainty: { draws, seed: 3 },
+    },
+    ['A', 'B', 'C', 'N2'],
+    ['r1'],
+  );
+
+describe('sizingReportData: tube bundle', () => {
+  it('passes the design percentile and the catalyst to install, and nothing for them without draws', () => {
+    const r = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase: kase(200), molarMasses: dk.molarMasses, options: { profileDraws: 0 } });
+    const inst = r.tubes!.install!;
+    const t = sizingReportData(r).tubes!;
+    expect(t).toMatchObject({
+      count: r.tubes!.count,
+      length: r.tubes!.length,
+      designLevel: 0.95,
+      installCatalyst: inst.catalystMass,
+      installLength: inst.length,
+      installPressureDrop: inst.pressureDrop.pa,
+    });
+    expect(t.installLength!).toBeGreaterThanOrEqual(t.length);
+    expect(renderSizingMarkdown(sizingReportData(r))).toMatch(/\| Catalyst to install \(P95\) \| [\d.]+ kg \|/);
+
+    const r0 = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase: kase(0), molarMasses: dk.molarMasses, options: { draws: 0 } });
+    const t0 = sizingReportData(r0).tubes!;
+    expect(t0).toMatchObject({ designLevel: null, installCatalyst: null, installLength: null, installPressureDrop: null });
+    expect(renderSizingMarkdown(sizingReportData(r0))).not.toContain('to install');
+  });
+});
+
+describe('fitReportData: starting values', () => {
+  const FIX = resolve(__dirname, '../data/fixtures');
+  const AUTO = join(FIX, 'auto/study.json');
+  const read = (p: string) => readFileSync(p, 'utf8');
+
+  it('lists the estimated starts with unit and how; none when the study gave every value', () => {
+    const study = loadStudy(read(AUTO), AUTO, (p) => read(resolve(dirname(AUTO), p))).study;
+    const sf = fitStudy(study, { profile: false });
+    const sv = fitReportData(study, sf).startValues!;
+    expect(sv.rows.map((r) => [r.parameter, r.unit, r.method])).toEqual(
+      sf.startValues!.estimated.map((e) => [e.name, e.unit, e.method === 'differential' ? 'differential rate analysis' : 'documented default']),
+    );
+    expect(sv.rows.map((r) => r.value)).toEqual(sf.startValues!.estimated.map((e) => e.value));
+    expect(sv.rows.every((r) => r.how.length > 0)).toBe(true);
+    expect(sv.points).toBe(sf.startValues!.points);
+    expect(renderFitMarkdown(fitReportData(study, sf))).toContain('## Starting values estimated by rateloom');
+
+    expect(fitReportData(study, { ...sf, startValues: undefined }).startValues).toBeNull();
+  });
+});
