@@ -57,7 +57,7 @@ interface CompareFlags {
 export function registerCompare(program: Command): void {
   program
     .command('compare')
-    .description('fit every candidate rate-law set of a study and rank them')
+    .description('Fit every candidate rate-law set of a study and rank them')
     .argument('<study>', 'study file (JSON)')
     .option('--out <dir>', 'folder for the report', 'reports')
     .option('--name <stem>', 'file-name stem of the report (default: from the study file name)')

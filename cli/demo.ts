@@ -311,7 +311,7 @@ function narrate(r: Omit<DemoResult, 'index' | 'files' | 'text' | 'seconds'>, st
 export function registerDemo(program: Command): void {
   program
     .command('demo')
-    .description('run check, compare, fit, size and the reports on the invented demo data (datasets-demo/)')
+    .description('Run check, compare, fit, size and the reports on the invented demo data (datasets-demo/)')
     .option('--out <dir>', 'output folder (the demo replaces its own earlier outputs there)', 'reports/demo')
     .option('--force', 'write into a non-empty folder that the demo did not create')
     .option('--no-liquids', 'skip the batch and stirred-tank fits')

@@ -121,7 +121,7 @@ export function formatFit(study: Study, sf: StudyFit): string {
 export function registerFit(program: Command): void {
   program
     .command('fit')
-    .description('fit the rate laws of a study to its data, with confidence intervals; write the hand-off file and the report')
+    .description('Fit the rate laws of a study to its data, with confidence intervals; write the hand-off file and the report')
     .argument('<study>', 'study file (JSON)')
     .option('--model <name>', "rate-law set to fit: 'base' or a candidate name", 'base')
     .option('--out <dir>', 'folder for the hand-off file and the report', 'reports')
