@@ -179,7 +179,8 @@ export function solveStirredTank(
   const found: Float64Array[] = [];
   if (g <= tol) found.push(Float64Array.from(F));
   // other steady states (and a second chance when Newton from the feed failed)
-  const others = searchSteadyStates(sys, kinetics, F0, tol);
+  const search = options.steadyStateSearch !== 'on-failure' || !(g <= tol);
+  const others = search ? searchSteadyStates(sys, kinetics, F0, tol) : [];
   for (const s of others) addDistinct(found, s, FT0);
   if (!(g <= tol) && found.length > 0) {
     F.set(found[0]);

@@ -94,6 +94,11 @@ export interface ReactorOptions {
   maxSteps?: number;
   /** Force an integrator; default 'auto'. */
   method?: 'auto' | 'nonstiff' | 'stiff';
+  /**
+   * Stirred tank: look for further steady states after Newton converged ('always'), or only when
+   * Newton from the feed failed ('on-failure', which a fit uses for speed); default 'always'.
+   */
+  steadyStateSearch?: 'always' | 'on-failure';
 }
 
 export type ReactorStatus =

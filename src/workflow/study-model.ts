@@ -121,8 +121,10 @@ export class StudyModel implements RegressionModel {
     this.scratchR = new Float64Array(nR);
     this.scratchJP = new Float64Array(nR * kinNames.length);
     this.reactorOptions = { rtol: options.rtol ?? 1e-8, atol: options.atol ?? 1e-12 };
-    this.plainOptions = { ...this.reactorOptions };
-    this.sensOptions = { ...this.reactorOptions, sensitivities: true };
+    // During a fit a stirred tank searches for other steady states only when Newton from the feed
+    // fails; solveRun (reports, simulation) keeps the full search and its warning.
+    this.plainOptions = { ...this.reactorOptions, steadyStateSearch: 'on-failure' };
+    this.sensOptions = { ...this.reactorOptions, steadyStateSearch: 'on-failure', sensitivities: true };
     // Check each tubular run once here; its solves then skip the input checks. A run that fails the
     // checks (or tolerances that do) keeps the checked path, whose error becomes a prediction failure.
     const tolOk = [this.reactorOptions.rtol, this.reactorOptions.atol].every((v) => Number.isFinite(v) && (v as number) > 0);

@@ -129,6 +129,11 @@ describe('stirred tank', () => {
     for (let i = 0; i < 3; i++) expect(rel(found[i], roots[i])).toBeLessThan(1e-5);
     // the reported steady state is one of them
     expect(Math.min(...roots.map((r) => rel(s.outletAmounts[0], r)))).toBeLessThan(1e-8);
+    // A fit skips the search once Newton converged: same steady state, no search, no warning.
+    const quick = solveReactor({ kind: 'stirred-tank', phase: 'liquid' }, run, kin, Float64Array.from([k, K]), { steadyStateSearch: 'on-failure' });
+    expect(quick.status).toBe('success');
+    expect(quick.outletAmounts[0]).toBe(s.outletAmounts[0]);
+    expect(quick.warnings.find((x) => x.code === 'multiple-steady-states')).toBeUndefined();
   });
 
   it('mass-basis rate with a catalyst mass: X = k W C/F form (liquid)', () => {
