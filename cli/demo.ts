@@ -87,7 +87,7 @@ export interface DemoResult {
   check: { rowsIn: number; rowsUsed: number; rowsRejected: number; rejections: { line: number; reason: string; message: string }[]; replicateGroups: number; observations: number; degreesOfFreedom: number };
   comparison: { best: string; ranking: { name: string; delta: number | null; weight: number | null; converged: boolean }[]; verdict: string; report: { html: string; markdown: string } };
   fit: DemoStudyResult & { handoff: string; lackOfFitP: number | null };
-  sizing: { case: string; status: string; success: boolean; size: number | null; unit: string | null; p90: number | null; p95: number | null; warnings: string[]; report: { html: string; markdown: string }; json: string }[];
+  sizing: { case: string; status: string; success: boolean; size: number | null; unit: string | null; p90: number | null; p95: number | null; warnings: string[]; cautions: string[]; report: { html: string; markdown: string }; json: string }[];
   liquids: DemoStudyResult[];
   index: string;
   /** Every file written, absolute. */
@@ -222,6 +222,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
       p90: pct(0.9),
       p95: pct(0.95),
       warnings: result.warnings.map((x) => `[${x.code}] ${x.message}`),
+      cautions: result.cautions,
       report: { html: sr.html, markdown: sr.markdown },
       json,
     });
@@ -298,6 +299,10 @@ function narrate(r: Omit<DemoResult, 'index' | 'files' | 'text' | 'seconds'>, st
   for (const s of r.sizing) {
     L.push(`4. size  ${s.case}: ${s.status}${s.size !== null ? `, ${g(s.size, 4)} ${s.unit} catalyst (nominal), P90 ${g(s.p90 ?? NaN, 4)}, P95 ${g(s.p95 ?? NaN, 4)} ${s.unit}` : ''}`);
     for (const w of s.warnings.filter((x) => x.startsWith('[W_EXTRAPOLATION]'))) L.push(`         ${w}`);
+  }
+  if (r.sizing.length) {
+    L.push('         CAUTIONS for every size above:');
+    for (const c of r.sizing[0].cautions) L.push(`         * ${c}`);
   }
   for (const l of r.liquids) {
     L.push(`5. fit  ${l.study}: ${l.status}`);

@@ -49,6 +49,12 @@ describe('demo pipeline (in-process)', () => {
     expect(r.files.every((f) => existsSync(f))).toBe(true);
   });
 
+  it('prints the sizing cautions in its own summary, not only in the reports', () => {
+    expect(r.text).toMatch(/CAUTIONS/);
+    expect(r.text).toMatch(/licensed engineers/);
+    for (const s of r.sizing) expect(s.cautions.length).toBeGreaterThan(0);
+  });
+
   it('check finds the injected flaws and the replicate set', () => {
     // Source: the flaws injected by datasets-demo/generate.ts (truth.json): one non-numeric cell,
     // one run with an inflated ethanol flow (element balance), four centre-point replicates.
