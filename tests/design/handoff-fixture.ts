@@ -31,3 +31,48 @@ export function handoff(
     coverage,
   };
 }
+
+/**
+ * The invented tube-bundle scenario shared by the design and report tests: gas A + B -> C per kg
+ * catalyst with Arrhenius, 5% standard error on ln k (so the required catalyst mass spreads by
+ * about 5%), molar masses for the Ergun pressure drop.
+ */
+export function tubeBundleHandoff(coverage: FittedKinetics['coverage'] = { temperature: { min: 460, max: 500, unit: 'K' } }): FittedKinetics {
+  const h = handoff(
+    ['A', 'B', 'C', 'N2'],
+    [{ id: 'r1', equation: 'A + B -> C', rate: { form: 'power-law', basis: 'mass', rateConstant: { k: 'k', activationEnergy: 'E' } } }],
+    [param('k', 1e-4, 'log', 'm6/(kg mol s)'), param('E', 80000, 'none', 'J/mol')],
+    { names: ['k', 'E'], matrix: [[0.0025, 0], [0, 4e6]] },
+    coverage,
+    480,
+  );
+  h.species = [
+    { name: 'A', molarMass: 0.028 },
+    { name: 'B', molarMass: 0.032 },
+    { name: 'C', molarMass: 0.06 },
+    { name: 'N2', formula: 'N2' },
+  ];
+  return h;
+}
+
+/** Production case file (raw JSON) of the tube-bundle scenario; `extra` adds or replaces fields. */
+export function tubeBundleCase(name: string, temperature: string, extra: Record<string, unknown> = {}): Record<string, unknown> {
+  return {
+    name,
+    reactor: { kind: 'packed-bed', phase: 'gas' },
+    feed: { totalFlow: '50 mol/s', moleFractions: { A: 0.4, B: 0.4, N2: 0.2 } },
+    temperature,
+    pressure: '5 bar',
+    target: { conversion: 0.7, species: 'A' },
+    tubes: {
+      innerDiameter: '25 mm',
+      particleDiameter: '3 mm',
+      voidFraction: 0.4,
+      bulkDensity: '800 kg/m3',
+      particleDensity: '1333 kg/m3',
+      viscosity: '2.5e-5 Pa s',
+      allowedPressureDrop: '0.5 bar',
+    },
+    ...extra,
+  };
+}

@@ -6,42 +6,12 @@ import { buildSystem } from '../../src/design/system';
 import { Sizer } from '../../src/design/sizer';
 import { bundleAlpha } from '../../src/design/tubes';
 import { CAUTIONS } from '../../src/design/cautions';
-import { handoff, param } from './handoff-fixture';
+import { tubeBundleCase, tubeBundleHandoff } from './handoff-fixture';
 
-// Invented gas reaction A + B -> C with Arrhenius, per kg catalyst.
-const h = handoff(
-  ['A', 'B', 'C', 'N2'],
-  [{ id: 'r1', equation: 'A + B -> C', rate: { form: 'power-law', basis: 'mass', rateConstant: { k: 'k', activationEnergy: 'E' } } }],
-  [param('k', 1e-4, 'log', 'm6/(kg mol s)'), param('E', 80000, 'none', 'J/mol')],
-  { names: ['k', 'E'], matrix: [[0.0025, 0], [0, 4e6]] },
-  { temperature: { min: 460, max: 500, unit: 'K' }, feedMoleFraction: { A: { min: 0.2, max: 0.45, unit: '1' } } },
-  480,
-);
-h.species = [
-  { name: 'A', molarMass: 0.028 },
-  { name: 'B', molarMass: 0.032 },
-  { name: 'C', molarMass: 0.06 },
-  { name: 'N2', formula: 'N2' },
-];
+// The shared invented tube-bundle scenario (handoff-fixture.ts) at 480 K, with a heat of reaction.
+const h = tubeBundleHandoff({ temperature: { min: 460, max: 500, unit: 'K' }, feedMoleFraction: { A: { min: 0.2, max: 0.45, unit: '1' } } });
 const dk = kineticsFromHandoff(h);
-const raw = {
-  name: 'tube bundle',
-  reactor: { kind: 'packed-bed', phase: 'gas' },
-  feed: { totalFlow: '50 mol/s', moleFractions: { A: 0.4, B: 0.4, N2: 0.2 } },
-  temperature: '480 K',
-  pressure: '5 bar',
-  target: { conversion: 0.7, species: 'A' },
-  tubes: {
-    innerDiameter: '25 mm',
-    particleDiameter: '3 mm',
-    voidFraction: 0.4,
-    bulkDensity: '800 kg/m3',
-    particleDensity: '1333 kg/m3',
-    viscosity: '2.5e-5 Pa s',
-    allowedPressureDrop: '0.5 bar',
-  },
-  heat: { reactionEnthalpy: { r1: '-90 kJ/mol' }, heatCapacity: '40 J/(mol K)' },
-};
+const raw = tubeBundleCase('tube bundle', '480 K', { heat: { reactionEnthalpy: { r1: '-90 kJ/mol' }, heatCapacity: '40 J/(mol K)' } });
 const kase = loadCase(raw, ['A', 'B', 'C', 'N2'], ['r1']);
 
 describe('tube bundle', () => {

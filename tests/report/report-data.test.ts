@@ -14,47 +14,12 @@ import { loadStudy } from '../../src/study';
 import { fitReportData } from '../../src/workflow/fit-report-data';
 import { fitStudy } from '../../src/workflow/fit-study';
 import { sizingReportData } from '../../src/workflow/sizing-report-data';
-import { handoff, param } from '../design/handoff-fixture';
+import { tubeBundleCase, tubeBundleHandoff } from '../design/handoff-fixture';
 
-// Invented gas reaction A + B -> C over a catalyst, 5 % standard error on ln k.
-const h = handoff(
-  ['A', 'B', 'C', 'N2'],
-  [{ id: 'r1', equation: 'A + B -> C', rate: { form: 'power-law', basis: 'mass', rateConstant: { k: 'k', activationEnergy: 'E' } } }],
-  [param('k', 1e-4, 'log', 'm6/(kg mol s)'), param('E', 80000, 'none', 'J/mol')],
-  { names: ['k', 'E'], matrix: [[0.0025, 0], [0, 4e6]] },
-  { temperature: { min: 460, max: 500, unit: 'K' } },
-  480,
-);
-h.species = [
-  { name: 'A', molarMass: 0.028 },
-  { name: 'B', molarMass: 0.032 },
-  { name: 'C', molarMass: 0.06 },
-  { name: 'N2', formula: 'N2' },
-];
+// The shared invented tube-bundle scenario (tests/design/handoff-fixture.ts) at 470 K.
+const h = tubeBundleHandoff();
 const dk = kineticsFromHandoff(h);
-const kase = (draws: number) =>
-  loadCase(
-    {
-      name: 'tube bundle report',
-      reactor: { kind: 'packed-bed', phase: 'gas' },
-      feed: { totalFlow: '50 mol/s', moleFractions: { A: 0.4, B: 0.4, N2: 0.2 } },
-      temperature: '470 K',
-      pressure: '5 bar',
-      target: { conversion: 0.7, species: 'A' },
-      tubes: {
-        innerDiameter: '25 mm',
-        particleDiameter: '3 mm',
-        voidFraction: 0.4,
-        bulkDensity: '800 kg/m3',
-        particleDensity: '1333 kg/m3',
-        viscosity: '2.5e-5 Pa s',
-        allowedPressureDrop: '0.5 bar',
-      },
-      uncertainty: { draws, seed: 3 },
-    },
-    ['A', 'B', 'C', 'N2'],
-    ['r1'],
-  );
+const kase = (draws: number) => loadCase(tubeBundleCase('tube bundle report', '470 K', { uncertainty: { draws, seed: 3 } }), ['A', 'B', 'C', 'N2'], ['r1']);
 
 describe('sizingReportData: tube bundle', () => {
   it('passes the design percentile and the catalyst to install, and nothing for them without draws', () => {
