@@ -4,6 +4,7 @@
  */
 import type { FittedKinetics, Range } from '../design/handoff';
 import type { Study } from '../study/types';
+import { measuredConversions } from '../study/summary';
 
 function range(values: number[], unit: string): Range | undefined {
   const v = values.filter(Number.isFinite);
@@ -27,17 +28,7 @@ export function studyCoverage(study: Study): FittedKinetics['coverage'] {
     const rg = range(fractions.map((f) => (f ? f[j] : NaN)), '1');
     if (rg && rg.max > 0) feedMoleFraction[name] = rg;
   });
-  const key = study.keyReactantIndex;
-  const conv: number[] = [];
-  for (const o of study.observations) {
-    if (o.speciesIndex !== key || o.position !== undefined) continue;
-    const run = study.runs[o.runIndex];
-    if (o.response === 'conversion') conv.push(o.value);
-    else if (o.response === 'outlet-flow' && run.feed && run.feed[key] > 0) conv.push(1 - o.value / run.feed[key]);
-    else if (o.response === 'outlet-concentration' && run.initialConcentrations && run.initialConcentrations[key] > 0 && study.reactor.kind === 'batch') {
-      conv.push(1 - o.value / run.initialConcentrations[key]);
-    }
-  }
+  const conv = [...measuredConversions(study).values()];
   const conversion = range(conv, '1');
   return {
     temperature,

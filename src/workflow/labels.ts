@@ -2,7 +2,7 @@
  * Labels and SI units of responses and run conditions, shared by reports and command output.
  */
 import type { Observation, Study, StudyRun } from '../study/types';
-import { R_GAS } from '../reactors/gas';
+import { spaceTime as studySpaceTime } from '../study/summary';
 
 /** Label and SI unit of an observation's response, e.g. { label: 'F_A out', unit: 'mol/s' }. */
 export function responseLabel(o: Pick<Observation, 'response' | 'species'>, study: Pick<Study, 'reactor'>): { label: string; unit: string } {
@@ -28,31 +28,13 @@ function rateUnit(study: Pick<Study, 'reactor'>): string {
   return study.reactor.kind === 'packed-bed' ? 'mol/(kg s)' : 'mol/(m3 s)';
 }
 
-/** Space time of a run: W/F_A0 (kg s/mol), tau = V/v0 (s), or batch time t (s). */
+/** Space time of a run, labelled: W/F_A0 (kg s/mol), tau = V/v0 (s), or batch time t (s). */
 export function spaceTime(run: StudyRun, study: Study): { label: string; unit: string; value: number } | null {
-  const key = study.keyReactantIndex;
-  switch (study.reactor.kind) {
-    case 'packed-bed': {
-      const fa0 = run.feed?.[key] ?? 0;
-      return fa0 > 0 ? { label: `W/F_${study.keyReactant}0`, unit: 'kg s/mol', value: run.size / fa0 } : null;
-    }
-    case 'plug-flow':
-    case 'stirred-tank':
-    case 'membrane': {
-      let v0 = run.volumetricFlow;
-      if (v0 === undefined && study.reactor.phase === 'gas' && run.feed && run.pressure) {
-        let ft = 0;
-        for (const f of run.feed) ft += f;
-        v0 = (ft * R_GAS * run.temperature) / run.pressure;
-      }
-      return v0 && v0 > 0 ? { label: 'tau', unit: 's', value: run.size / v0 } : null;
-    }
-    case 'batch':
-    case 'semibatch':
-      return { label: 't', unit: 's', value: run.size };
-    default:
-      return null;
-  }
+  const kind = study.reactor.kind;
+  if (kind === 'batch' || kind === 'semibatch') return { label: 't', unit: 's', value: run.size };
+  const value = studySpaceTime(study, run);
+  if (value === undefined) return null;
+  return kind === 'packed-bed' ? { label: `W/F_${study.keyReactant}0`, unit: 'kg s/mol', value } : { label: 'tau', unit: 's', value };
 }
 
 /**
