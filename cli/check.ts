@@ -12,6 +12,7 @@ import { formatRejection } from '../src/data/validation';
 import type { ValidationReport } from '../src/data/report';
 import { readText } from './io';
 import { runCommand } from './run';
+import { g } from './format';
 
 const EXAMPLE = `
 Example:
@@ -23,12 +24,6 @@ schema/study.schema.json. Rejected rows are listed as file:line:column with the 
 turns any rejected row into an error (exit 2).
 Exit codes: 0 data usable, 1 nothing left to fit, 2 bad input.`;
 
-/** A number to d significant digits; exponent form below 1e-3 and from 1e6. */
-const g = (x: number, d = 4) => {
-  if (!Number.isFinite(x)) return 'n/a';
-  const a = Math.abs(x);
-  return a !== 0 && (a < 1e-3 || a >= 1e6) ? x.toExponential(d - 1) : Number(x.toPrecision(d)).toString();
-};
 
 function fmtRange(r: Range | undefined, extra?: (x: number) => string): string {
   if (!r) return 'n/a';

@@ -9,6 +9,7 @@ import { loadStudy } from '../src/study/load';
 import { applyParameterValues, simulateStudy, type SimulationResult } from '../src/study/simulate';
 import { readJson, readText } from './io';
 import { runCommand } from './run';
+import { g } from './format';
 
 const EXAMPLE = `
 Example:
@@ -20,12 +21,6 @@ guess.json (SI numbers, or values with units):
 A fit result with "parameters": [{ "name": ..., "value": ... }] (SI) is read as well.
 Exit codes: 0 all runs solved, 1 a run failed numerically, 2 bad input.`;
 
-/** A number to d significant digits; exponent form below 1e-3 and from 1e6. */
-const g = (x: number, d = 4) => {
-  if (!Number.isFinite(x)) return 'n/a';
-  const a = Math.abs(x);
-  return a !== 0 && (a < 1e-3 || a >= 1e6) ? x.toExponential(d - 1) : Number(x.toPrecision(d)).toString();
-};
 
 export function formatSimulation(r: SimulationResult, profile: boolean): string {
   const L: string[] = [];

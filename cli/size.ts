@@ -17,6 +17,7 @@ import { basename, join } from 'node:path';
 import { sizingReportData } from '../src/workflow/sizing-report-data';
 import { writeSizingReport } from './report-render';
 import { progressReporter, runCommand, toJson } from './run';
+import { g } from './format';
 
 const EXAMPLE = `
 Example:
@@ -63,7 +64,6 @@ function intFlag(v: string | undefined, name: string, min: number): number | und
   return n;
 }
 
-const g = (x: number, d = 4) => (Number.isFinite(x) ? Number(x.toPrecision(d)).toString() : 'n/a');
 const pct = (level: number) => `P${g(level * 100, 3)}`;
 
 /** Human-readable report of a sizing result. */
