@@ -17,7 +17,7 @@ import { basename, join } from 'node:path';
 import { sizingReportData } from '../src/workflow/sizing-report-data';
 import { writeSizingReport } from './report-render';
 import { progressReporter, runCommand, toJson } from './run';
-import { g } from './format';
+import { g, withUnit } from './format';
 
 const EXAMPLE = `
 Example:
@@ -93,7 +93,8 @@ export function formatSizing(r: SizingResult): string {
     for (const p of u.percentiles) L.push(`  ${pct(p.level)} ${g(p.value, 5)}${unit}`);
     L.push(`  delta method: sd ${g(u.deltaMethod.sd, 3)}${unit}; ${u.deltaMethod.percentiles.map((p) => `${pct(p.level)} ${g(p.value, 5)}${unit}`).join(', ')}`);
     if (u.failed.count) L.push(`  failed draws: ${u.failed.count} (${Object.entries(u.failed.reasons).map(([k, n]) => `${n} ${k}`).join(', ')})`);
-    L.push(`  sensitivities d ln(${u.quantity})/d theta: ${u.sensitivities.map((s) => `${s.transform === 'log' ? `ln ${s.name}` : s.name} ${g(s.dLnQuantity, 3)}`).join(', ')}`);
+    L.push(`  sensitivities d ln(${u.quantity})/d theta: ${u.sensitivities.map((s) => `${s.transform === 'log' ? `ln ${s.name}` : s.name} ${withUnit(s.dLnQuantity, s.unit, 3)}`).join(', ')}`);
+    L.push(`  change of ln(${u.quantity}) for +1 standard error: ${u.sensitivities.map((s) => `${s.name} ${g(s.perStdError, 3)}`).join(', ')}`);
   }
   if (r.tubes) {
     const t = r.tubes;

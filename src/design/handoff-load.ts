@@ -135,6 +135,8 @@ export interface ParameterMap {
   /** Index of each free parameter in theta. */
   index: Int32Array;
   transform: Transform[];
+  /** SI unit of each free parameter. */
+  units: string[];
   /** Nominal values in the estimation space. */
   internal: Float64Array;
   /** Covariance in the estimation space, n x n row-major. */
@@ -161,6 +163,7 @@ export function parameterMap(h: FittedKinetics, parameterNames: readonly string[
   const free = [...h.covariance.names];
   const index = new Int32Array(free.length);
   const transform: Transform[] = [];
+  const units: string[] = [];
   const internal = new Float64Array(free.length);
   free.forEach((n, i) => {
     const k = parameterNames.indexOf(n);
@@ -168,11 +171,12 @@ export function parameterMap(h: FittedKinetics, parameterNames: readonly string[
     const p = byName.get(n)!;
     index[i] = k;
     transform.push(p.transform);
+    units.push(p.unit);
     internal[i] = p.internalValue;
   });
   const covariance = new Float64Array(free.length * free.length);
   h.covariance.matrix.forEach((row, i) => row.forEach((v, j) => (covariance[i * free.length + j] = v)));
-  return { theta, free, index, transform, internal, covariance };
+  return { theta, free, index, transform, units, internal, covariance };
 }
 
 /** Write theta = nominal with the free parameters at the estimation-space values z (in place). */

@@ -58,6 +58,10 @@ export interface Sensitivity {
   transform: 'log' | 'none';
   /** d ln(quantity) / d z (z = ln value for 'log', the value for 'none'). */
   dLnQuantity: number;
+  /** Unit of dLnQuantity: '1' for 'log' parameters, 1/(parameter unit) otherwise. */
+  unit: string;
+  /** Change of ln(quantity) for +1 standard error of the parameter (dimensionless, comparable across parameters). */
+  perStdError: number;
 }
 
 export interface UncertaintyResult {
@@ -247,7 +251,7 @@ export function propagate(
     mean,
     percentiles: levels.map((level) => ({ level, value: quantileSorted(ok, level) })),
     deltaMethod: { sd: sdQ, percentiles: levels.map((level) => ({ level, value: nominal + normalQuantile(level) * sdQ })) },
-    sensitivities: map.free.map((name, k) => ({ name, transform: map.transform[k], dLnQuantity: g[k] / nominal })),
+    sensitivities: map.free.map((name, k) => ({ name, transform: map.transform[k], dLnQuantity: g[k] / nominal, perStdError: (g[k] / nominal) * Math.sqrt(Math.max(map.covariance[k * n + k], 0)), unit: map.transform[k] === 'log' || map.units[k] === '1' ? '1' : `1/(${map.units[k]})` })),
     ...(band ? { band } : {}),
     ...(outletBand ? { outletBand } : {}),
     histogram: histogramSorted(ok),

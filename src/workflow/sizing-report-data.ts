@@ -72,9 +72,9 @@ export function sizingReportData(r: SizingResult): SizingReportData {
         }
       : null,
     sizeDistribution: u ? { histogram: u.histogram } : null,
-    sensitivityMeasure: `d ln(${u?.quantity ?? 'size'}) / d ln(parameter) for rate and equilibrium constants, per unit of the parameter otherwise`,
+    sensitivityMeasure: `change of ln(${u?.quantity ?? 'size'}) for +1 standard error of the parameter (0.01 = 1 %)`,
     sensitivityUnit: '1',
-    sensitivity: u ? u.sensitivities.map((s) => ({ parameter: s.transform === 'log' ? `ln ${s.name}` : s.name, effect: s.dLnQuantity })) : [],
+    sensitivity: u ? u.sensitivities.map((s) => ({ parameter: s.name, effect: s.perStdError })) : [],
     draws: u ? { total: u.draws, failed: u.failed.count } : null,
     warnings: r.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.path ? { path: w.path } : {}) })),
     cautions: r.cautions,
