@@ -415,7 +415,7 @@ function spaceTime(sys: DesignSystem, size: number, key: number): SizingResult['
   if (k.reactor.kind === 'packed-bed') {
     const FA0 = key >= 0 ? k.feed[key] : k.feed.reduce((a, b) => a + b, 0);
     const name = key >= 0 ? k.species[key] : 'total';
-    return { value: size / FA0, unit: 'kg s/mol', definition: `W/F_${name}0` };
+    return { value: size / FA0, unit: 'kg s/mol', definition: `W/F_${name},0` };
   }
   const FT0 = k.feed.reduce((a, b) => a + b, 0);
   const v0 = k.reactor.phase === 'liquid' ? k.volumetricFlow! : (FT0 * GAS_CONSTANT * k.temperature) / k.pressure!;

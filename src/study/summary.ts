@@ -137,7 +137,7 @@ export function summarizeStudy(study: Study, report: ValidationReport): StudySum
       ...(range(runs.map((r) => r.temperature), 'K') ? { temperature: range(runs.map((r) => r.temperature), 'K') } : {}),
       ...(range(runs.map((r) => r.pressure ?? NaN), 'Pa') ? { pressure: range(runs.map((r) => r.pressure ?? NaN), 'Pa') } : {}),
       ...(size ? { size: { ...size, quantity: sizeQ } } : {}),
-      ...(tau ? { spaceTime: { ...tau, definition: kind === 'packed-bed' ? `W/F_${study.keyReactant}0` : 'V/v0' } } : {}),
+      ...(tau ? { spaceTime: { ...tau, definition: kind === 'packed-bed' ? `W/F_${study.keyReactant},0` : 'V/v0' } } : {}),
       ...(conv ? { conversion: { ...conv, species: study.keyReactant } } : {}),
     },
     referenceTemperature: { value: study.referenceTemperature, unit: 'K', source: study.referenceTemperatureSource },

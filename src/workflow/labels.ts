@@ -34,7 +34,7 @@ export function spaceTime(run: StudyRun, study: Study): { label: string; unit: s
   if (kind === 'batch' || kind === 'semibatch') return { label: 't', unit: 's', value: run.size };
   const value = studySpaceTime(study, run);
   if (value === undefined) return null;
-  return kind === 'packed-bed' ? { label: `W/F_${study.keyReactant}0`, unit: 'kg s/mol', value } : { label: 'tau', unit: 's', value };
+  return kind === 'packed-bed' ? { label: `W/F_${study.keyReactant},0`, unit: 'kg s/mol', value } : { label: 'tau', unit: 's', value };
 }
 
 /**
