@@ -31,3 +31,16 @@ export function cholesky(A: ArrayLike<number>, n: number): Float64Array | null {
   }
   return L;
 }
+
+/**
+ * One correlated normal draw z = mean + L e with e standard normal from `rng` (n draws, in order),
+ * L the Cholesky factor (lower, row-major n x n). `e` is scratch of length n; z is written to `out`.
+ */
+export function correlatedDraw(rng: { normal(): number }, mean: ArrayLike<number>, L: Float64Array, n: number, e: Float64Array, out: Float64Array, offset = 0): void {
+  for (let i = 0; i < n; i++) e[i] = rng.normal();
+  for (let i = 0; i < n; i++) {
+    let v = mean[i];
+    for (let k = 0; k <= i; k++) v += L[i * n + k] * e[k];
+    out[offset + i] = v;
+  }
+}

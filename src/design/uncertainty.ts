@@ -12,7 +12,7 @@
  * species, P5/median/P95 per position) and at the band size itself (outlet state per species,
  * P5/P95), all with the same type-7 percentiles.
  */
-import { SeededRandom, cholesky, normalQuantile } from './random';
+import { SeededRandom, cholesky, correlatedDraw, normalQuantile } from './random';
 import { applyInternal, type ParameterMap } from './handoff-load';
 import type { Sizer, SizeOnce } from './sizer';
 
@@ -148,12 +148,7 @@ export function propagate(
   for (let d = 0; d < draws && L; d++) {
     // with precomputed draws only the band's vectors are needed (same stream, same order)
     if (!pre || d < nBand) {
-      for (let i = 0; i < n; i++) e[i] = rng.normal();
-      for (let i = 0; i < n; i++) {
-        let v = map.internal[i];
-        for (let k = 0; k <= i; k++) v += L[i * n + k] * e[k];
-        z[i] = v;
-      }
+      correlatedDraw(rng, map.internal, L, n, e, z);
       if (d < nBand) zBand.set(z, d * n);
     }
     let q: { value: number; status: string };

@@ -8,7 +8,7 @@
 import { loadCase } from '../design/case';
 import { parameterMap, parseHandoff } from '../design/handoff-load';
 import { kineticsFromHandoff } from '../design/kinetics';
-import { SeededRandom, cholesky } from '../design/random';
+import { SeededRandom, cholesky, correlatedDraw } from '../design/random';
 import { chunkRanges, runJobs, type PoolOptions } from './pool';
 import type { McContext, McJob, McJobResult } from './mc-jobs';
 
@@ -44,14 +44,7 @@ export function monteCarloVectors(handoffRaw: unknown, caseRaw: unknown, draws: 
   const rng = new SeededRandom(seed);
   const z = new Float64Array(draws * n);
   const e = new Float64Array(n);
-  for (let d = 0; d < draws; d++) {
-    for (let i = 0; i < n; i++) e[i] = rng.normal();
-    for (let i = 0; i < n; i++) {
-      let v = map.internal[i];
-      for (let k = 0; k <= i; k++) v += L[i * n + k] * e[k];
-      z[d * n + i] = v;
-    }
-  }
+  for (let d = 0; d < draws; d++) correlatedDraw(rng, map.internal, L, n, e, z, d * n);
   return { z, n };
 }
 
