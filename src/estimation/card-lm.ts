@@ -28,11 +28,10 @@
  * The package is not the default solver; see solve.ts for why.
  */
 import { levenbergMarquardt as cardLm } from 'ml-levenberg-marquardt';
-import { outcome } from '../core/outcome';
 import { svd, svdRank } from '../numerics/svd';
-import type { LmOptions, LmResult } from './lm';
+import { lmResult, type LmOptions, type LmResult } from './lm';
 import type { LeastSquaresProblem } from './residuals';
-import { FIT_STATUS, type FitStatus } from './status';
+import type { FitStatus } from './status';
 
 export interface CardLmOptions extends LmOptions {
   /** Initial damping of the package; default 1e-2 (the package default). */
@@ -60,20 +59,7 @@ export function cardLevenbergMarquardt(problem: LeastSquaresProblem, x0: Float64
   const finish = (x: Float64Array, status: FitStatus, iterations: number, detail?: string): LmResult => {
     const ok = problem.residuals(x, r);
     if (!ok) r.fill(0);
-    let ssr = 0;
-    for (let i = 0; i < m; i++) ssr += r[i] * r[i];
-    const atBound: number[] = [];
-    for (let j = 0; j < n; j++) if (x[j] <= lower[j] || x[j] >= upper[j]) atBound.push(j);
-    return {
-      ...outcome(FIT_STATUS, ok ? status : 'model-failure', [], detail),
-      x: Float64Array.from(x),
-      residuals: Float64Array.from(r),
-      ssr,
-      iterations,
-      evaluations: problem.evaluations - ev0,
-      atBound,
-      failedTrials: failed ? 1 : 0,
-    };
+    return lmResult({ x, r, lower, upper, status: ok ? status : 'model-failure', iterations, evaluations: problem.evaluations - ev0, failedTrials: failed ? 1 : 0, ...(detail !== undefined ? { detail } : {}) });
   };
 
   if (n === 0) return finish(Float64Array.from(x0), 'converged-gtol', 0, 'no free parameters');

@@ -67,6 +67,34 @@ function norm(v: ArrayLike<number>, n = v.length): number {
   return Math.sqrt(s);
 }
 
+/** The solver result at x (copied): status from the table, SSR, parameters on a bound. Shared with card-lm.ts. */
+export function lmResult(a: {
+  x: Float64Array;
+  r: Float64Array;
+  lower: Float64Array;
+  upper: Float64Array;
+  status: FitStatus;
+  iterations: number;
+  evaluations: number;
+  failedTrials: number;
+  detail?: string;
+}): LmResult {
+  const atBound: number[] = [];
+  for (let j = 0; j < a.x.length; j++) if (a.x[j] <= a.lower[j] || a.x[j] >= a.upper[j]) atBound.push(j);
+  let ssr = 0;
+  for (let i = 0; i < a.r.length; i++) ssr += a.r[i] * a.r[i];
+  return {
+    ...outcome(FIT_STATUS, a.status, [], a.detail),
+    x: Float64Array.from(a.x),
+    residuals: Float64Array.from(a.r),
+    ssr,
+    iterations: a.iterations,
+    evaluations: a.evaluations,
+    atBound,
+    failedTrials: a.failedTrials,
+  };
+}
+
 /**
  * Minimise ||r(x)||^2 from x0 (not mutated). Bad input throws; numerical trouble is a status.
  */
@@ -95,22 +123,8 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, x0: Float64Arra
   const pEff = new Float64Array(n);
   const Jp = new Float64Array(m);
 
-  const finish = (status: FitStatus, iterations: number, detail?: string): LmResult => {
-    const atBound: number[] = [];
-    for (let j = 0; j < n; j++) if (x[j] <= lower[j] || x[j] >= upper[j]) atBound.push(j);
-    let ssr = 0;
-    for (let i = 0; i < m; i++) ssr += r[i] * r[i];
-    return {
-      ...outcome(FIT_STATUS, status, [], detail),
-      x: Float64Array.from(x),
-      residuals: Float64Array.from(r),
-      ssr,
-      iterations,
-      evaluations: problem.evaluations - ev0,
-      atBound,
-      failedTrials,
-    };
-  };
+  const finish = (status: FitStatus, iterations: number, detail?: string): LmResult =>
+    lmResult({ x, r, lower, upper, status, iterations, evaluations: problem.evaluations - ev0, failedTrials, ...(detail !== undefined ? { detail } : {}) });
   let failedTrials = 0;
 
   if (!problem.residuals(x, r)) {
