@@ -14,7 +14,7 @@ import { fitReportData } from '../src/workflow/fit-report-data';
 import type { Study } from '../src/study/types';
 import { writeFitReport } from './report-render';
 import { assertWritable, writeAtomic } from './io';
-import { g, table, withUnit } from './format';
+import { g, table } from './format';
 import { progressReporter, runCommand, toJson } from './run';
 import { readStudy, studyStem } from './study-input';
 

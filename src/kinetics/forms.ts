@@ -98,7 +98,6 @@ class FormBuilder {
   constructor(
     private readonly ctx: FormContext,
     private readonly i: number,
-    private readonly path: FieldPath,
   ) {
     this.s = ctx.store;
     this.nS = ctx.chemistry.speciesNames.length;
@@ -268,7 +267,7 @@ export function buildRate(ctx: FormContext, spec: RateLawSpec, i: number, path: 
   if (basis !== 'volume' && basis !== 'mass') {
     throw new RateloomError('E_VALUE', `unknown rate basis '${String(basis)}'`, { path: [...path, 'basis'], fix: "Use 'volume' (per m3) or 'mass' (per kg catalyst)." });
   }
-  const b = new FormBuilder(ctx, i, path);
+  const b = new FormBuilder(ctx, i);
   const s = ctx.store;
   const chem = ctx.chemistry;
 

@@ -196,7 +196,6 @@ class TubeWork implements TubeRhsState {
     };
     const rt = { jacC: jacCm, jacP: jacPm };
     const C = new Float64Array(nS);
-    const R = new Float64Array(nS);
     const dCdF = new Float64Array(nS * nS);
     const dCdp = new Float64Array(nS);
     const dRdC = new Float64Array(nS * nS);

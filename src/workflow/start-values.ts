@@ -96,7 +96,6 @@ export function estimateStartValues(study: Study, variant: ModelVariant, open: r
   const nS = chem.speciesNames.length;
   const nR = chem.reactionIds.length;
   const openSet = new Set(open);
-  const byName = new Map(variant.parameters.map((p) => [p.name, p]));
   const values = new Map(variant.parameters.map((p) => [p.name, p.value]));
   const method = new Map<string, string>();
   const notes: string[] = [];

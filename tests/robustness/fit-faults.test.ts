@@ -7,7 +7,6 @@ import { describe, expect, it } from 'vitest';
 import { FIT_STATUS } from '../../src/estimation/status';
 import type { FitResult } from '../../src/estimation/fit-types';
 import { fitStudy } from '../../src/workflow/fit-study';
-import { toJson } from '../../cli/run';
 import { baseStudy, load } from '../data/helpers';
 
 /**
