@@ -51,6 +51,7 @@ export function formatCheck(s: StudySummary, report: ValidationReport): string {
   if (s.ranges.spaceTime) L.push(`  space time ${s.ranges.spaceTime.definition}: ${fmtRange(s.ranges.spaceTime)}`);
   if (s.ranges.conversion) L.push(`  conversion of ${s.ranges.conversion.species} (measured, ${s.ranges.conversion.n} runs): ${fmtRange(s.ranges.conversion, (x) => `${g(100 * x, 3)} %`)}`);
   else L.push(`  conversion of ${s.keyReactant}: not computable from the measurements`);
+  for (const n of s.rateNotes ?? []) L.push(`  rates: ${n}`);
   L.push(`  reference temperature: ${g(s.referenceTemperature.value)} K (${s.referenceTemperature.source === 'study' ? 'from the study' : 'picked near the middle of the data'})`);
   L.push('');
   if (report.rejections.length) {

@@ -12,7 +12,9 @@ import type { Phase, ReactorKind } from '../reactors/types';
 import { unitFor, type Quantity, type UnitConversion } from '../units';
 import { columnIndex, type CsvRow, type CsvTable } from './csv';
 import type { Rejection } from './report';
-import type { FieldSpec, LongSourceSpec, MeasureSpec, MeasuredSpec, PerRunSourceSpec, ResponseKind } from './spec';
+import type { FieldSpec, LongSourceSpec, MeasureSpec, MeasuredSpec, PerRunColumns, PerRunSourceSpec, ResponseKind } from './spec';
+import type { RunParameterRef } from './run-parameters';
+import { prepareBalanceRates, prepareRateComposition, readBalanceRate, readRateComposition, type MappingTools, type PreparedBalanceRate, type PreparedComposition } from './rate-composition';
 
 /** Molar gas constant, J/(mol K): exact (SI Brochure 9th ed., k_B N_A). */
 export const GAS_CONSTANT = 8.314462618;
@@ -25,6 +27,11 @@ export interface MappingContext {
   errorModelNames: readonly string[];
   /** Path of this source in the study, for example ['data', 0]. */
   path: FieldPath;
+  /**
+   * SI start value of a parameter named by a field ({"parameter": ...}), checked against the
+   * field's SI unit; absent: parameter fields are refused.
+   */
+  parameterStart?: (name: string, siUnit: string, path: FieldPath) => number;
 }
 
 export interface RowLocation {
@@ -46,6 +53,10 @@ export interface MappedRun {
   volumetricFlow?: number;
   initialConcentrations?: Float64Array;
   initialVolume?: number;
+  /** Composition (mol/m3) at which this run's rates were measured, when the source gives it. */
+  rateConcentrations?: Float64Array;
+  /** Feed flows or initial concentrations held by fitted parameters (same array for all rows of a source). */
+  runParameters?: readonly RunParameterRef[];
   location: RowLocation;
 }
 
@@ -75,6 +86,8 @@ export interface MappedSource {
   rejections: Rejection[];
   /** Lines of rejected rows. */
   rejectedLines: Set<number>;
+  /** Sentences for `check`: where this source's measured rates are evaluated, how rates were derived. */
+  rateNotes?: string[];
 }
 
 const RESPONSE_QUANTITY: Record<ResponseKind, Quantity> = {
@@ -98,8 +111,10 @@ export const SIZE_FIELD: Record<ReactorKind, 'catalystMass' | 'volume' | 'time'>
 const NUMBER_RE = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 
 /** A prepared field: its column index (or constant) and unit conversion. */
-interface Prepared {
+export interface Prepared {
   name: string;
+  /** Name of the study parameter holding the value (constant = its start, SI). */
+  parameter?: string;
   column?: number;
   header?: string;
   constant?: number;
@@ -111,9 +126,10 @@ function ambientSI(spec: MeasureSpec | undefined, path: FieldPath): number | und
   return unitFor('pressure', spec.unit, { path: [...path, 'ambientPressure', 'unit'] }).toSI(spec.value);
 }
 
-function prepare(table: CsvTable, name: string, f: FieldSpec, q: Quantity, path: FieldPath, ambient?: number): Prepared {
+function prepare(table: CsvTable, name: string, f: FieldSpec, q: Quantity, path: FieldPath, ambient?: number, parameterStart?: MappingContext['parameterStart']): Prepared {
   const hasColumn = typeof f.column === 'string';
   const hasValue = typeof f.value === 'number';
+  if (typeof f.parameter === 'string') return prepareParameterField(name, f, q, path, parameterStart, hasColumn || hasValue);
   if (hasColumn === hasValue) {
     throw new RateloomError('E_SCHEMA', `give exactly one of 'column' and 'value' for ${name}`, { path, fix: `Write {"column": "<header>", "unit": "..."} or {"value": <number>, "unit": "..."}.` });
   }
@@ -144,7 +160,7 @@ function checkErrorModel(ctx: MappingContext, name: string | undefined, path: Fi
 }
 
 /** Reads cells of one row at a time (reset per row), collecting problems instead of throwing. */
-class RowReader {
+export class RowReader {
   problems: Rejection[] = [];
   private row: CsvRow = { line: 0, cells: [] };
   constructor(private readonly table: CsvTable) {}
@@ -225,48 +241,96 @@ function newObservation(runId: string, m: MeasuredSpec, j: number | undefined, v
   return sigma !== undefined ? { runId, response, value, sigma, unit, location } : { runId, response, value, unit, location };
 }
 
-function prepareSpecies(table: CsvTable, ctx: MappingContext, map: Record<string, FieldSpec> | undefined, label: string, q: Quantity, path: FieldPath) {
+function prepareSpecies(table: CsvTable, ctx: MappingContext, map: Record<string, FieldSpec> | undefined, label: string, q: Quantity, path: FieldPath, allowParameters = false) {
   if (!map) return undefined;
-  return Object.entries(map).map(([sp, f]) => ({ j: speciesIdx(ctx, sp, [...path, sp]), p: prepare(table, `${label} of ${sp}`, f, q, [...path, sp]) }));
+  const start = allowParameters ? ctx.parameterStart : undefined;
+  return Object.entries(map).map(([sp, f]) => ({ j: speciesIdx(ctx, sp, [...path, sp]), p: prepare(table, `${label} of ${sp}`, f, q, [...path, sp], undefined, start) }));
 }
 
-/** Map a per-run source: one run (and its measured outlet values) per row. */
-export function mapPerRunSource(table: CsvTable, spec: PerRunSourceSpec, ctx: MappingContext): MappedSource {
-  const cols = spec.columns;
-  const path = [...ctx.path, 'columns'];
-  const nS = ctx.speciesNames.length;
-  const ambient = ambientSI(spec.ambientPressure, ctx.path);
-  const runCol = columnIndex(table, cols.run, [...path, 'run']);
-  const groupCol = cols.group !== undefined ? columnIndex(table, cols.group, [...path, 'group']) : undefined;
-  const T = prepare(table, 'temperature', cols.temperature, 'temperature', [...path, 'temperature']);
-  const P = cols.pressure ? prepare(table, 'pressure', cols.pressure, 'pressure', [...path, 'pressure'], ambient) : undefined;
-  const sizeField = SIZE_FIELD[ctx.kind];
-  const W = cols.catalystMass ? prepare(table, 'catalyst mass', cols.catalystMass, 'mass', [...path, 'catalystMass']) : undefined;
-  const V = cols.volume ? prepare(table, 'volume', cols.volume, 'volume', [...path, 'volume']) : undefined;
-  const t = cols.time ? prepare(table, 'time', cols.time, 'time', [...path, 'time']) : undefined;
-  const size = sizeField === 'catalystMass' ? W : sizeField === 'volume' ? V : t;
-  if (!size && sizeField !== 'time') {
-    throw new RateloomError('E_MISSING_FIELD', `a ${ctx.kind} reactor needs '${sizeField}' in the column mapping`, { path: [...path, sizeField] });
+/** A field held by a fitted parameter: its start value stands in for the cell until the fit sets it. */
+function prepareParameterField(name: string, f: FieldSpec, q: Quantity, path: FieldPath, parameterStart: MappingContext['parameterStart'], alsoOther: boolean): Prepared {
+  if (alsoOther) throw new RateloomError('E_SCHEMA', `give exactly one of 'column', 'value' and 'parameter' for ${name}`, { path });
+  if (!parameterStart) {
+    throw new RateloomError('E_SCHEMA', `'parameter' is accepted only for feed flows and initial concentrations, not ${name}`, { path: [...path, 'parameter'], fix: "Give a 'column' or a 'value'." });
   }
-  if (ctx.phase === 'gas' && !P) {
+  const conv = unitFor(q, f.unit, { path: [...path, 'unit'] });
+  const parameter = f.parameter as string;
+  return { name, parameter, constant: parameterStart(parameter, conv.si, [...path, 'parameter']), conv };
+}
+
+/** The fields of a plan held by parameters, as references for the model to fill in. */
+function runParameterRefs(plan: Pick<PerRunPlan, 'feed' | 'c0'>): RunParameterRef[] {
+  const refs: RunParameterRef[] = [];
+  for (const { j, p } of plan.feed ?? []) if (p.parameter !== undefined) refs.push({ target: 'feed', speciesIndex: j, parameter: p.parameter });
+  for (const { j, p } of plan.c0 ?? []) if (p.parameter !== undefined) refs.push({ target: 'initialConcentration', speciesIndex: j, parameter: p.parameter });
+  return refs;
+}
+
+/** Everything prepared once for a per-run source: fields, conversions and what each row needs. */
+interface PerRunPlan {
+  cols: PerRunColumns;
+  nS: number;
+  runCol: number;
+  groupCol?: number;
+  T: Prepared;
+  P?: Prepared;
+  W?: Prepared;
+  size?: Prepared;
+  feed?: { j: number; p: Prepared }[];
+  total?: Prepared;
+  fractions?: { j: number; p: Prepared }[];
+  v0?: Prepared;
+  cin?: { j: number; p: Prepared }[];
+  c0?: { j: number; p: Prepared }[];
+  V0?: Prepared;
+  measured: { m: MeasuredSpec; j: number | undefined; p: Prepared; sigma?: Prepared; min: 'nonneg' | 'any' }[];
+  composition?: PreparedComposition<Prepared>;
+  balance: PreparedBalanceRate<Prepared>[];
+  /** Fields held by fitted parameters; undefined when none. */
+  runParameters?: RunParameterRef[];
+  /** Measured rates only, at a measured composition: no reactor size, feed or pressure needed. */
+  atComposition: boolean;
+  isBatch: boolean;
+  isSemi: boolean;
+  needPressure: boolean;
+  needFlow: boolean;
+}
+
+/** True when a source measures only rates and gives the composition they were measured at. */
+function ratesAtComposition(cols: PerRunColumns): boolean {
+  const measured = cols.measured ?? [];
+  return cols.rateComposition !== undefined && !cols.balanceRates?.length && measured.length > 0 && measured.every((m) => m.response === 'rate');
+}
+
+/** Tools the rate-composition reader uses: field preparation, species lookup and the row reader. */
+function mappingTools(table: CsvTable, ctx: MappingContext, r: RowReader, ambient?: number): MappingTools<Prepared> {
+  return {
+    prepare: (name, f, q, path) => prepare(table, name, f, q, path, ambient),
+    speciesIndex: (name, path) => speciesIdx(ctx, name, path),
+    num: (p, required, min) => r.num(p, required, min),
+    reject: (message, column) => r.reject('missing', message, column),
+  };
+}
+
+/** Refuse a per-run mapping that lacks what the reactor kind and phase need. */
+function checkPerRunMapping(plan: PerRunPlan, ctx: MappingContext, path: FieldPath): void {
+  const { cols, isBatch, isSemi, atComposition, feed, total, fractions, v0, cin, c0, V0 } = plan;
+  if (cols.rateComposition && (cols.measured ?? []).every((m) => m.response !== 'rate') && !cols.balanceRates?.length) {
+    throw new RateloomError('E_VALUE', "'rateComposition' is given but this source measures no rate", { path: [...path, 'rateComposition'], fix: "Add a measured 'rate' response or 'balanceRates', or remove 'rateComposition'." });
+  }
+  const sizeField = SIZE_FIELD[ctx.kind];
+  if (!plan.size && sizeField !== 'time' && !atComposition) {
+    throw new RateloomError('E_MISSING_FIELD', `a ${ctx.kind} reactor needs '${sizeField}' in the column mapping (only rates given with their measured composition need no size)`, { path: [...path, sizeField] });
+  }
+  if (ctx.phase === 'gas' && !plan.P && !atComposition) {
     throw new RateloomError('E_MISSING_FIELD', "gas-phase data need 'pressure' in the column mapping", { path: [...path, 'pressure'] });
   }
-  const feed = prepareSpecies(table, ctx, cols.feed, 'feed flow', 'molar-flow', [...path, 'feed']);
-  const total = cols.totalFeed ? prepare(table, 'total feed', cols.totalFeed, 'molar-flow', [...path, 'totalFeed']) : undefined;
-  const fractions = prepareSpecies(table, ctx, cols.feedFractions, 'feed fraction', 'dimensionless', [...path, 'feedFractions']);
-  const v0 = cols.volumetricFlow ? prepare(table, 'volumetric flow', cols.volumetricFlow, 'volumetric-flow', [...path, 'volumetricFlow']) : undefined;
-  const cin = prepareSpecies(table, ctx, cols.inletConcentrations, 'inlet concentration', 'concentration', [...path, 'inletConcentrations']);
-  const c0 = prepareSpecies(table, ctx, cols.initialConcentrations, 'initial concentration', 'concentration', [...path, 'initialConcentrations']);
-  const V0 = cols.initialVolume ? prepare(table, 'initial volume', cols.initialVolume, 'volume', [...path, 'initialVolume']) : undefined;
-
-  const isBatch = ctx.kind === 'batch';
-  const isSemi = ctx.kind === 'semibatch';
   const feedWays = [feed ? 1 : 0, total && fractions ? 1 : 0, v0 && cin ? 1 : 0, v0 && fractions && !total && ctx.phase === 'gas' ? 1 : 0].reduce((a, b) => a + b, 0);
-  if (!isBatch && !isSemi && feedWays === 0) {
+  if (!isBatch && !isSemi && feedWays === 0 && !atComposition) {
     throw new RateloomError('E_MISSING_FIELD', `a ${ctx.kind} reactor needs its feed: 'feed' flows, or 'totalFeed' with 'feedFractions', or 'volumetricFlow' with 'inletConcentrations' (or with 'feedFractions' for a gas)`, { path: [...path, 'feed'] });
   }
   if (total && !fractions) throw new RateloomError('E_MISSING_FIELD', "'totalFeed' needs 'feedFractions'", { path: [...path, 'feedFractions'] });
-  if (ctx.phase === 'liquid' && !isBatch && !v0) {
+  if (ctx.phase === 'liquid' && !isBatch && !v0 && !atComposition) {
     throw new RateloomError('E_MISSING_FIELD', `liquid-phase ${ctx.kind} data need 'volumetricFlow'`, { path: [...path, 'volumetricFlow'] });
   }
   if (isBatch && !c0 && !(fractions && ctx.phase === 'gas')) {
@@ -275,8 +339,19 @@ export function mapPerRunSource(table: CsvTable, spec: PerRunSourceSpec, ctx: Ma
   if (isSemi && (!c0 || !V0)) {
     throw new RateloomError('E_MISSING_FIELD', "semibatch data need 'initialConcentrations' and 'initialVolume'", { path: [...path, c0 ? 'initialVolume' : 'initialConcentrations'] });
   }
+  const comp = plan.composition;
+  const needsP = comp && (comp.basis === 'outlet-flow' ? ctx.phase === 'gas' : comp.basis === 'mole-fraction' && !comp.totalPressure);
+  if (needsP && !plan.P) {
+    throw new RateloomError('E_MISSING_FIELD', `a rate composition from ${comp.basis}s needs 'pressure' in the column mapping`, { path: [...path, 'pressure'] });
+  }
+  if (comp?.basis === 'outlet-flow' && ctx.phase === 'liquid' && !v0) {
+    throw new RateloomError('E_MISSING_FIELD', "a liquid rate composition from outlet flows needs 'volumetricFlow'", { path: [...path, 'volumetricFlow'] });
+  }
+}
 
-  const measured = (cols.measured ?? []).map((m, i) => {
+/** Prepare the measured responses of a per-run source. */
+function prepareMeasured(table: CsvTable, cols: PerRunColumns, ctx: MappingContext, path: FieldPath, ambient?: number): PerRunPlan['measured'] {
+  return (cols.measured ?? []).map((m, i) => {
     const mp = [...path, 'measured', i];
     const needsSpecies = m.response !== 'outlet-pressure';
     if (needsSpecies && m.species === undefined) throw new RateloomError('E_MISSING_FIELD', `response '${m.response}' needs 'species'`, { path: [...mp, 'species'] });
@@ -284,82 +359,185 @@ export function mapPerRunSource(table: CsvTable, spec: PerRunSourceSpec, ctx: Ma
     checkErrorModel(ctx, m.errorModel, [...mp, 'errorModel']);
     const p = prepare(table, `${m.response}${m.species ? ` of ${m.species}` : ''}`, { column: m.column, unit: m.unit, ...(m.gauge ? { gauge: true } : {}) }, RESPONSE_QUANTITY[m.response], mp, ambient);
     const sigma = m.sigmaColumn !== undefined ? { ...p, name: `sigma of ${p.name}`, column: columnIndex(table, m.sigmaColumn, [...mp, 'sigmaColumn']), header: m.sigmaColumn, conv: { ...p.conv, toSI: (x: number) => x * p.conv.factor } } : undefined;
-    return { m, j, p, sigma };
+    const min: 'nonneg' | 'any' = m.response === 'outlet-flow' || m.response === 'outlet-concentration' || m.response === 'outlet-pressure' ? 'nonneg' : 'any';
+    return sigma ? { m, j, p, sigma, min } : { m, j, p, min };
   });
+}
 
-  const out: MappedSource = { file: table.file, layout: 'per-run', rowsIn: table.rows.length, runs: [], observations: [], rejections: [], rejectedLines: new Set() };
-  const r = new RowReader(table);
-  const nCols = table.header.length;
-  const needPressure = ctx.phase === 'gas';
-  const needFlow = ctx.phase === 'liquid' && !isBatch;
-  const measuredMin = measured.map(({ m }) => (m.response === 'outlet-flow' || m.response === 'outlet-concentration' || m.response === 'outlet-pressure' ? 'nonneg' : 'any'));
-  const obs: MappedObservation[] = [];
+/** Prepare every field of a per-run source once, and check the mapping. */
+function preparePerRun(table: CsvTable, spec: PerRunSourceSpec, ctx: MappingContext, r: RowReader): PerRunPlan {
+  const cols = spec.columns;
+  const path = [...ctx.path, 'columns'];
+  const ambient = ambientSI(spec.ambientPressure, ctx.path);
+  const f = (name: string, field: FieldSpec | undefined, q: Quantity, key: string, amb?: number) => (field ? prepare(table, name, field, q, [...path, key], amb) : undefined);
+  const sizeField = SIZE_FIELD[ctx.kind];
+  const W = f('catalyst mass', cols.catalystMass, 'mass', 'catalystMass');
+  const V = f('volume', cols.volume, 'volume', 'volume');
+  const t = f('time', cols.time, 'time', 'time');
+  const isBatch = ctx.kind === 'batch';
+  const atComposition = ratesAtComposition(cols);
+  const tools = mappingTools(table, ctx, r, ambient);
+  const plan: PerRunPlan = {
+    cols,
+    nS: ctx.speciesNames.length,
+    runCol: columnIndex(table, cols.run, [...path, 'run']),
+    ...(cols.group !== undefined ? { groupCol: columnIndex(table, cols.group, [...path, 'group']) } : {}),
+    T: prepare(table, 'temperature', cols.temperature, 'temperature', [...path, 'temperature']),
+    P: f('pressure', cols.pressure, 'pressure', 'pressure', ambient),
+    W,
+    size: sizeField === 'catalystMass' ? W : sizeField === 'volume' ? V : t,
+    feed: prepareSpecies(table, ctx, cols.feed, 'feed flow', 'molar-flow', [...path, 'feed'], true),
+    total: f('total feed', cols.totalFeed, 'molar-flow', 'totalFeed'),
+    fractions: prepareSpecies(table, ctx, cols.feedFractions, 'feed fraction', 'dimensionless', [...path, 'feedFractions']),
+    v0: f('volumetric flow', cols.volumetricFlow, 'volumetric-flow', 'volumetricFlow'),
+    cin: prepareSpecies(table, ctx, cols.inletConcentrations, 'inlet concentration', 'concentration', [...path, 'inletConcentrations']),
+    c0: prepareSpecies(table, ctx, cols.initialConcentrations, 'initial concentration', 'concentration', [...path, 'initialConcentrations'], true),
+    V0: f('initial volume', cols.initialVolume, 'volume', 'initialVolume'),
+    measured: prepareMeasured(table, cols, ctx, path, ambient),
+    ...(cols.rateComposition ? { composition: prepareRateComposition(cols.rateComposition, ctx.phase, tools, [...path, 'rateComposition']) } : {}),
+    balance: prepareBalanceRates(cols.balanceRates ?? [], ctx.kind, tools, [...path, 'balanceRates']),
+    atComposition,
+    isBatch,
+    isSemi: ctx.kind === 'semibatch',
+    needPressure: ctx.phase === 'gas' && !atComposition,
+    needFlow: ctx.phase === 'liquid' && !isBatch && !atComposition,
+  };
+  for (const b of plan.balance) checkErrorModel(ctx, b.spec.errorModel, [...path, 'balanceRates', plan.balance.indexOf(b), 'errorModel']);
+  checkPerRunMapping(plan, ctx, path);
+  const refs = runParameterRefs(plan);
+  if (refs.length) plan.runParameters = refs;
+  return plan;
+}
 
-  /** One row; its observations go to `obs`, its run (when the row has no problem) to out.runs. */
-  function readPerRunRow(row: CsvRow): void {
-    const id = r.text(runCol);
-    if (id === '') r.reject('missing', 'run id is empty', cols.run);
-    const group = groupCol !== undefined ? r.text(groupCol) : undefined;
-    if (groupCol !== undefined && group === '') r.reject('missing', 'run group is empty', cols.group);
-    const temperature = r.num(T, true, 'positive');
-    const pressure = P ? r.num(P, needPressure, 'positive') : undefined;
-    const sz = size ? r.num(size, true, 'nonneg') : undefined;
-    const catalystMass = W && size !== W ? r.num(W, false, 'nonneg') : undefined;
-    let feedVec: Float64Array | undefined;
-    const volumetricFlow = v0 ? r.num(v0, needFlow, 'nonneg') : undefined;
-    if (feed) {
-      feedVec = new Float64Array(nS);
-      for (let k = 0; k < feed.length; k++) feedVec[feed[k].j] = r.num(feed[k].p, true, 'nonneg') ?? 0;
-    } else if (fractions && (total || (volumetricFlow !== undefined && ctx.phase === 'gas' && !isBatch))) {
-      let FT: number | undefined;
-      if (total) FT = r.num(total, true, 'nonneg');
-      else if (volumetricFlow !== undefined && pressure !== undefined && temperature !== undefined) FT = (pressure * volumetricFlow) / (GAS_CONSTANT * temperature);
-      feedVec = new Float64Array(nS);
-      for (const { j, p } of fractions) {
-        const y = r.num(p, true, 'nonneg');
-        if (y !== undefined && y > 1 + 1e-9) r.reject('out-of-range', `feed fraction of ${ctx.speciesNames[j]} is above 1 (${y})`, p.header);
-        feedVec[j] = (y ?? 0) * (FT ?? 0);
-      }
-    } else if (cin && volumetricFlow !== undefined) {
-      feedVec = new Float64Array(nS);
-      for (const { j, p } of cin) feedVec[j] = (r.num(p, true, 'nonneg') ?? 0) * volumetricFlow;
-    }
-    let initial: Float64Array | undefined;
-    if (c0) {
-      initial = new Float64Array(nS);
-      for (const { j, p } of c0) initial[j] = r.num(p, true, 'nonneg') ?? 0;
-    } else if (isBatch && fractions && pressure !== undefined && temperature !== undefined) {
-      initial = new Float64Array(nS);
-      const CT = pressure / (GAS_CONSTANT * temperature);
-      for (const { j, p } of fractions) initial[j] = (r.num(p, true, 'nonneg') ?? 0) * CT;
-    }
-    const initialVolume = V0 ? r.num(V0, isSemi, 'nonneg') : undefined;
-    const file = table.file;
-    const line = row.line;
-    obs.length = 0;
-    for (let k = 0; k < measured.length; k++) {
-      const { m, j, p, sigma } = measured[k];
-      const value = r.num(p, false, measuredMin[k]);
-      if (value === undefined) continue; // an empty measured cell is simply not measured
-      const s = sigma ? r.num(sigma, false, 'positive') : undefined;
-      obs.push(newObservation(id, m, j, value, s, p.conv.si, { file, line, column: m.column }));
-    }
-    if (r.problems.length) return;
-    const run = { id } as MappedRun;
-    if (group !== undefined) run.group = group;
-    run.temperature = temperature as number;
-    if (pressure !== undefined) run.pressure = pressure;
-    if (sz !== undefined) run.size = sz;
-    if (catalystMass !== undefined) run.catalystMass = catalystMass;
-    if (feedVec) run.feed = feedVec;
-    if (volumetricFlow !== undefined) run.volumetricFlow = volumetricFlow;
-    if (initial) run.initialConcentrations = initial;
-    if (initialVolume !== undefined) run.initialVolume = initialVolume;
-    run.location = { file, line };
-    out.runs.push(run);
-    for (let k = 0; k < obs.length; k++) out.observations.push(obs[k]);
+/** Feed molar flows of the current row (mol/s), from whichever feed description the source uses. */
+function readFeed(plan: PerRunPlan, r: RowReader, ctx: MappingContext, temperature?: number, pressure?: number, volumetricFlow?: number): Float64Array | undefined {
+  const { feed, fractions, total, cin, nS } = plan;
+  if (feed) {
+    const out = new Float64Array(nS);
+    for (let k = 0; k < feed.length; k++) out[feed[k].j] = r.num(feed[k].p, true, 'nonneg') ?? 0;
+    return out;
   }
+  if (fractions && (total || (volumetricFlow !== undefined && ctx.phase === 'gas' && !plan.isBatch))) {
+    let FT: number | undefined;
+    if (total) FT = r.num(total, true, 'nonneg');
+    else if (volumetricFlow !== undefined && pressure !== undefined && temperature !== undefined) FT = (pressure * volumetricFlow) / (GAS_CONSTANT * temperature);
+    const out = new Float64Array(nS);
+    for (const { j, p } of fractions) {
+      const y = r.num(p, true, 'nonneg');
+      if (y !== undefined && y > 1 + 1e-9) r.reject('out-of-range', `feed fraction of ${ctx.speciesNames[j]} is above 1 (${y})`, p.header);
+      out[j] = (y ?? 0) * (FT ?? 0);
+    }
+    return out;
+  }
+  if (cin && volumetricFlow !== undefined) {
+    const out = new Float64Array(nS);
+    for (const { j, p } of cin) out[j] = (r.num(p, true, 'nonneg') ?? 0) * volumetricFlow;
+    return out;
+  }
+  return undefined;
+}
 
+/** Initial concentrations of the current row (batch, semibatch), mol/m3. */
+function readInitial(plan: PerRunPlan, r: RowReader, temperature?: number, pressure?: number): Float64Array | undefined {
+  const { c0, fractions, nS } = plan;
+  if (c0) {
+    const out = new Float64Array(nS);
+    for (const { j, p } of c0) out[j] = r.num(p, true, 'nonneg') ?? 0;
+    return out;
+  }
+  if (plan.isBatch && fractions && pressure !== undefined && temperature !== undefined) {
+    const out = new Float64Array(nS);
+    const CT = pressure / (GAS_CONSTANT * temperature);
+    for (const { j, p } of fractions) out[j] = (r.num(p, true, 'nonneg') ?? 0) * CT;
+    return out;
+  }
+  return undefined;
+}
+
+/** Observations of the current row: measured columns, then rates from the mole balance. */
+function readObservations(plan: PerRunPlan, r: RowReader, id: string, run: Pick<MappedRun, 'feed' | 'size' | 'catalystMass'>, location: { file: string; line: number }, obs: MappedObservation[], tools: MappingTools<Prepared>, ctx: MappingContext): void {
+  const { measured } = plan;
+  for (let k = 0; k < measured.length; k++) {
+    const { m, j, p, sigma, min } = measured[k];
+    const value = r.num(p, false, min);
+    if (value === undefined) continue; // an empty measured cell is simply not measured
+    const s = sigma ? r.num(sigma, false, 'positive') : undefined;
+    obs.push(newObservation(id, m, j, value, s, p.conv.si, { file: location.file, line: location.line, column: m.column }));
+  }
+  if (!plan.balance.length) return;
+  // Per kg of catalyst when the run has a catalyst mass, else per m3 of reactor volume.
+  const perMass = ctx.kind === 'packed-bed' || run.catalystMass !== undefined;
+  const divisor = ctx.kind === 'packed-bed' ? run.size : (run.catalystMass ?? run.size);
+  if (divisor === 0) return; // a blank run has no rate to derive
+  for (const b of plan.balance) {
+    const v = readBalanceRate(b, run.feed, divisor, tools);
+    if (!v) continue;
+    const m: MeasuredSpec = { response: 'rate', species: b.spec.species, column: b.spec.outletColumn, unit: b.spec.unit, ...(b.spec.errorModel !== undefined ? { errorModel: b.spec.errorModel } : {}) };
+    obs.push(newObservation(id, m, b.j, v.value, v.sigma, perMass ? 'mol/(kg s)' : 'mol/(m3 s)', { file: location.file, line: location.line, column: b.spec.outletColumn }));
+  }
+}
+
+/** One row of a per-run source: its run (when the row has no problem) and its observations. */
+function readPerRunRow(plan: PerRunPlan, r: RowReader, row: CsvRow, ctx: MappingContext, tools: MappingTools<Prepared>, file: string, out: MappedSource, obs: MappedObservation[]): void {
+  const { cols } = plan;
+  const id = r.text(plan.runCol);
+  if (id === '') r.reject('missing', 'run id is empty', cols.run);
+  const group = plan.groupCol !== undefined ? r.text(plan.groupCol) : undefined;
+  if (plan.groupCol !== undefined && group === '') r.reject('missing', 'run group is empty', cols.group);
+  const temperature = r.num(plan.T, true, 'positive');
+  const pressure = plan.P ? r.num(plan.P, plan.needPressure, 'positive') : undefined;
+  const sz = plan.size ? r.num(plan.size, true, 'nonneg') : undefined;
+  const catalystMass = plan.W && plan.size !== plan.W ? r.num(plan.W, false, 'nonneg') : undefined;
+  const volumetricFlow = plan.v0 ? r.num(plan.v0, plan.needFlow, 'nonneg') : undefined;
+  const feed = readFeed(plan, r, ctx, temperature, pressure, volumetricFlow);
+  const initial = readInitial(plan, r, temperature, pressure);
+  const initialVolume = plan.V0 ? r.num(plan.V0, plan.isSemi, 'nonneg') : undefined;
+  const rateC = plan.composition ? readRateComposition(plan.composition, plan.nS, { temperature, pressure, volumetricFlow }, tools, ctx.phase === 'gas') : undefined;
+  const line = row.line;
+  obs.length = 0;
+  readObservations(plan, r, id, { feed, size: sz, catalystMass }, { file, line }, obs, tools, ctx);
+  if (r.problems.length) return;
+  const run = { id } as MappedRun;
+  if (group !== undefined) run.group = group;
+  run.temperature = temperature as number;
+  if (pressure !== undefined) run.pressure = pressure;
+  if (sz !== undefined) run.size = sz;
+  if (catalystMass !== undefined) run.catalystMass = catalystMass;
+  if (feed) run.feed = feed;
+  if (volumetricFlow !== undefined) run.volumetricFlow = volumetricFlow;
+  if (initial) run.initialConcentrations = initial;
+  if (initialVolume !== undefined) run.initialVolume = initialVolume;
+  if (rateC) run.rateConcentrations = rateC;
+  if (plan.runParameters) run.runParameters = plan.runParameters;
+  run.location = { file, line };
+  out.runs.push(run);
+  for (let k = 0; k < obs.length; k++) out.observations.push(obs[k]);
+}
+
+/** Sentences for `check` on where this source's rates are evaluated and how derived rates were formed. */
+function rateNotes(plan: PerRunPlan, file: string): string[] {
+  const notes: string[] = [];
+  const hasRates = plan.measured.some(({ m }) => m.response === 'rate') || plan.balance.length > 0;
+  if (!hasRates) return notes;
+  if (plan.composition) notes.push(`${file}: ${plan.composition.description}`);
+  else notes.push(`${file}: measured rates evaluated at the ${plan.isBatch || plan.isSemi ? 'initial' : 'feed'} composition (no 'rateComposition' columns given)`);
+  for (const b of plan.balance) {
+    const sig = [b.spec.outletSigmaColumn, b.spec.feedSigmaColumn].filter((c) => c !== undefined);
+    notes.push(`${file}: rate of ${b.spec.species} from the mole balance r = (F0 - F)/W (or /V), F from column ${b.spec.outletColumn}${sig.length ? `, sigma propagated from ${sig.join(' and ')}` : ''}`);
+  }
+  return notes;
+}
+
+/** Map a per-run source: one run (and its measured outlet values) per row. */
+export function mapPerRunSource(table: CsvTable, spec: PerRunSourceSpec, ctx: MappingContext): MappedSource {
+  const r = new RowReader(table);
+  const plan = preparePerRun(table, spec, ctx, r);
+  const tools = mappingTools(table, ctx, r, ambientSI(spec.ambientPressure, ctx.path));
+  const out: MappedSource = { file: table.file, layout: 'per-run', rowsIn: table.rows.length, runs: [], observations: [], rejections: [], rejectedLines: new Set() };
+  const notes = rateNotes(plan, table.file);
+  if (notes.length) out.rateNotes = notes;
+  const nCols = table.header.length;
+  const obs: MappedObservation[] = [];
   const rows = table.rows;
   for (let i = 0; i < rows.length; i++) {
     const row = rows[i];
@@ -367,7 +545,7 @@ export function mapPerRunSource(table: CsvTable, spec: PerRunSourceSpec, ctx: Ma
     if (row.cells.length !== nCols) {
       r.reject('column-count', `row has ${row.cells.length} cells, the header has ${nCols}`);
     } else {
-      readPerRunRow(row);
+      readPerRunRow(plan, r, row, ctx, tools, table.file, out, obs);
     }
     if (r.problems.length) {
       for (const p of r.problems) out.rejections.push(p);

@@ -3,16 +3,24 @@
  * column mapping. Every number carries its unit; see schema/study.schema.json for descriptions.
  */
 
+import type { BalanceRateSpec, RateCompositionSpec } from './rate-composition';
+
 /** A value and its unit, for example { value: 250, unit: 'degC' }. */
 export interface MeasureSpec {
   value: number;
   unit: string;
 }
 
-/** A quantity read from a CSV column, or one constant for all rows. Exactly one of column/value. */
+/** A quantity read from a CSV column, one constant for all rows, or a fitted parameter. Exactly one of column/value/parameter. */
 export interface FieldSpec {
   column?: string;
   value?: number;
+  /**
+   * Name of a study parameter that holds the value (feed flows and initial concentrations only):
+   * an initial amount or a roughly known feed fitted with the kinetics. Its start is the
+   * parameter's value; its unit must be of the field's kind. See run-parameters.ts.
+   */
+  parameter?: string;
   unit: string;
   /** Pressure only: gauge readings (the source's ambientPressure is added). Default false. */
   gauge?: boolean;
@@ -52,6 +60,10 @@ export interface PerRunColumns {
   initialConcentrations?: Record<string, FieldSpec>;
   initialVolume?: FieldSpec;
   measured?: MeasuredSpec[];
+  /** Composition at which this source's measured rates were measured (see rate-composition.ts). */
+  rateComposition?: RateCompositionSpec;
+  /** Rates derived from feed and outlet flows by the mole balance (see rate-composition.ts). */
+  balanceRates?: BalanceRateSpec[];
 }
 
 export interface PerRunSourceSpec {

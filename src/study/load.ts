@@ -20,6 +20,8 @@ import schemaJson from '../../schema/study.schema.json';
 import { checkSchema, type JsonSchema } from './schema-check';
 import { locatePath } from './locate';
 import { buildParameters, parameterRoles, referencedNames, type ParameterSpec } from './parameters';
+import { ratesOnlyRuns } from './rate-runs';
+import { parameterStartFor, runParameterNames } from './run-parameters';
 import { DEFAULT_ERROR_MODEL, sigmaFromModel, type CandidateSet, type ErrorModel, type LoadedStudy, type Observation, type Study, type StudyRun } from './types';
 
 /** The study-file schema as an object (the same file editors use). */
@@ -257,7 +259,8 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   });
   const ledger = new Ledger();
   raw.data.forEach((s, i) => ledger.addSource(s.file, s.layout, tables[i].rows.length));
-  const ctxFor = (i: number) => ({ speciesNames, kind: reactor.kind, phase: reactor.phase, errorModelNames: modelNames, path: ['data', i] });
+  const parameterStart = parameterStartFor(raw.parameters);
+  const ctxFor = (i: number) => ({ speciesNames, kind: reactor.kind, phase: reactor.phase, errorModelNames: modelNames, path: ['data', i], parameterStart });
 
   const perRun: MappedSource[] = [];
   raw.data.forEach((s, i) => {
@@ -336,12 +339,13 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   const maxPos = new Map<string, number>();
   for (const o of observations) if (o.position !== undefined) maxPos.set(o.runId, Math.max(maxPos.get(o.runId) ?? 0, o.position));
   runs = runs.map((r) => (r.size !== undefined ? r : maxPos.has(r.id) ? { ...r, size: maxPos.get(r.id) as number } : r));
+  const rateOnly = ratesOnlyRuns(observations);
   for (const r of runs) {
-    if (r.size !== undefined) continue;
+    if (r.size !== undefined || rateOnly.has(r.id)) continue;
     ledger.reject({ file: r.location.file, line: r.location.line, reason: 'missing', message: `run '${r.id}' has no reaction time and no profile points to take it from` });
     for (const o of observations) if (o.runId === r.id) ledger.reject({ file: o.location.file, line: o.location.line, reason: 'run-rejected', message: `run '${r.id}' was rejected (${r.location.file}:${r.location.line})` });
   }
-  runs = runs.filter((r) => r.size !== undefined);
+  runs = runs.filter((r) => r.size !== undefined || rateOnly.has(r.id));
   const runIndex = new Map<string, number>();
   for (let i = 0; i < runs.length; i++) runIndex.set(runs[i].id, i);
   observations = observations.filter((o) => runIndex.has(o.runId) && !ledger.isRejected(o.location));
@@ -371,13 +375,16 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   });
 
   const studyRuns: StudyRun[] = runs.map((r) => {
-    const sr = { id: r.id, temperature: r.temperature, size: r.size as number } as StudyRun;
+    // A run with measured rates only needs no size: NaN marks it (no reactor is solved for it).
+    const sr = { id: r.id, temperature: r.temperature, size: r.size ?? NaN } as StudyRun;
     if (r.pressure !== undefined) sr.pressure = r.pressure;
     if (r.feed) sr.feed = r.feed;
     if (r.volumetricFlow !== undefined) sr.volumetricFlow = r.volumetricFlow;
     if (r.initialConcentrations) sr.initialConcentrations = r.initialConcentrations;
     if (r.initialVolume !== undefined) sr.initialVolume = r.initialVolume;
     if (r.catalystMass !== undefined) sr.catalystMass = r.catalystMass;
+    if (r.rateConcentrations) sr.rateConcentrations = r.rateConcentrations;
+    if (r.runParameters) sr.runParameters = r.runParameters;
     if (r.group !== undefined) sr.group = r.group;
     sr.location = r.location;
     return sr;
@@ -397,6 +404,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     referenceTemperature = Ts.length ? Math.round(2 / (1 / Ts.reduce((a, b) => Math.min(a, b), Infinity) + 1 / Ts.reduce((a, b) => Math.max(a, b), -Infinity))) : 298;
   }
 
+  const runValues = runParameterNames(studyRuns);
   const groups = [...new Set(studyRuns.map((r) => r.group).filter((g): g is string => g !== undefined))];
   const hasGroupColumn = studyRuns.some((r) => r.group !== undefined);
   // Default starts of parameters without values: orders default to the species' coefficient.
@@ -424,7 +432,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
         for (const n of [...constants, ...others]) used.add(n);
       }
     }
-    const kept = raw.parameters.filter((p) => used.has(p.name) || p.scope === 'per-run-group');
+    const kept = raw.parameters.filter((p) => used.has(p.name) || p.scope === 'per-run-group' || runValues.has(p.name));
     const own = buildParameters([...kept, ...(c.parameters ?? [])], reactions.map((r) => r.rate), groups, hasGroupColumn, [...path, 'parameters'], parameterRoles(reactions.map((r) => r.rate), coefficient));
     return { name: c.name, ...(c.description !== undefined ? { description: c.description } : {}), ...(c.nests !== undefined ? { nests: c.nests } : {}), reactions, replaced, parameters: own.parameters, scopes: own.scopes, ...(own.autoStart.length ? { autoStart: own.autoStart } : {}) };
   });
@@ -482,5 +490,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     candidates,
     replicateGroups,
   };
+  const notes = perRun.flatMap((m) => m.rateNotes ?? []);
+  if (notes.length) study.rateNotes = notes;
   return { study, report };
 }

@@ -46,6 +46,8 @@ export interface StudySummary {
   rowsIn: number;
   rowsUsed: number;
   rowsRejected: number;
+  /** Where measured rates are evaluated and how derived rates were formed (one sentence per source). */
+  rateNotes?: string[];
 }
 
 function range(values: number[], unit: string): Range | undefined {
@@ -150,5 +152,6 @@ export function summarizeStudy(study: Study, report: ValidationReport): StudySum
     rowsIn: report.rowsIn,
     rowsUsed: report.rowsUsed,
     rowsRejected: report.rowsRejected,
+    ...(study.rateNotes ? { rateNotes: study.rateNotes } : {}),
   };
 }

@@ -8,6 +8,7 @@ import type { Parameter } from '../core/parameter';
 import type { ReactorSpec, RunConditions } from '../reactors/types';
 import type { ReplicateGroup, ValidationReport } from '../data/report';
 import type { ResponseKind } from '../data/spec';
+import type { RunParameterRef } from '../data/run-parameters';
 
 export type { ResponseKind } from '../data/spec';
 
@@ -22,6 +23,10 @@ export interface SourceLocation {
 export interface StudyRun extends RunConditions {
   /** Run group (for example the catalyst charge) for per-run-group parameters. */
   group?: string;
+  /** Composition (mol/m3) at which the run's rates were measured (rateComposition columns). */
+  rateConcentrations?: Float64Array;
+  /** Feed flows or initial concentrations held by fitted parameters (src/data/run-parameters.ts). */
+  runParameters?: readonly RunParameterRef[];
   location: SourceLocation;
 }
 
@@ -128,6 +133,8 @@ export interface Study {
   errorModels: Record<string, ErrorModel>;
   candidates: CandidateSet[];
   replicateGroups: ReplicateGroup[];
+  /** Where measured rates are evaluated and how derived rates were formed, one sentence per source. */
+  rateNotes?: string[];
 }
 
 export interface LoadedStudy {

@@ -33,7 +33,7 @@ import { R_GAS } from '../reactors/gas';
 import { weightedLinearLeastSquares } from '../estimation/linear-regression';
 import { parameterRoles } from '../study/parameters';
 import type { Study, StudyRun } from '../study/types';
-import { inletConcentrations, type ModelVariant } from './study-model';
+import { inletConcentrations, rateConcentrations, type ModelVariant } from './study-model';
 
 /** How one open starting value was obtained. */
 export interface EstimatedStart {
@@ -321,7 +321,7 @@ function ratePoints(study: Study, target: number, basis: 'volume' | 'mass', note
       let other = false;
       for (let i = 0; i < nR; i++) if (i !== target && chem.stoich[i * nS + j] !== 0) other = true;
       const r = nu !== 0 && !other ? o.value / -nu : NaN;
-      if (r > 0 && Number.isFinite(r)) out.push({ run, rate: r, C: inletConcentrations(run, study, new Float64Array(nS)), conversion: 0 });
+      if (r > 0 && Number.isFinite(r)) out.push({ run, rate: r, C: rateConcentrations(run, study, new Float64Array(nS)), conversion: 0 });
       continue;
     }
     if (o.speciesIndex !== key || (o.response !== 'outlet-flow' && o.response !== 'conversion' && o.response !== 'outlet-concentration')) continue;

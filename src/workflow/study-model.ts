@@ -17,6 +17,7 @@ import { R_GAS } from '../reactors/gas';
 import type { ReactorOptions, ReactorSolution, RunConditions } from '../reactors/types';
 import type { PredictionFailure, RegressionModel } from '../estimation/model';
 import type { CandidateSet, Observation, Study, StudyRun } from '../study/types';
+import { RunValues } from './run-values';
 
 /** Options of the study model. */
 export interface StudyModelOptions {
@@ -69,6 +70,8 @@ export class StudyModel implements RegressionModel {
   private readonly runMap: Int32Array[];
   private readonly tasks: SolveTask[];
   private readonly rateObservations: Observation[];
+  /** Feed flows and initial concentrations held by parameters; undefined when none. */
+  private readonly runValues?: RunValues;
   private readonly thetaK: Float64Array;
   private readonly ext: Float64Array;
   private readonly dExt: Float64Array;
@@ -112,6 +115,8 @@ export class StudyModel implements RegressionModel {
     this.nObservations = study.observations.length;
     this.rateObservations = study.observations.filter((o) => o.response === 'rate');
     this.tasks = buildTasks(study);
+    this.runValues = RunValues.build(study.runs, this.parameterNames);
+    if (this.runValues) for (const t of this.tasks) if (this.runValues.has(t.runIndex)) t.run = this.runValues.copyFor(t.run);
     const nS = study.chemistry.speciesNames.length;
     const nR = study.chemistry.reactionIds.length;
     this.thetaK = new Float64Array(kinNames.length);
@@ -131,6 +136,7 @@ export class StudyModel implements RegressionModel {
     const kind = study.reactor.kind;
     if (tolOk && (kind === 'packed-bed' || kind === 'plug-flow' || kind === 'membrane') && (study.reactor.phase === 'gas' || study.reactor.phase === 'liquid')) {
       for (const task of this.tasks) {
+        if (this.runValues?.has(task.runIndex)) continue; // its feed changes with the parameters
         try {
           task.prepared = prepareFlowTube(kind, study.reactor, task.run, this.kinetics);
         } catch {
@@ -138,7 +144,7 @@ export class StudyModel implements RegressionModel {
         }
       }
     }
-    this.exact = options.exactJacobian ?? true;
+    this.exact = (options.exactJacobian ?? true) && !this.runValues;
     if (this.exact) this.jacobian = (theta, pred, J, failures) => this.evaluate(theta, pred, J, failures);
   }
 
@@ -149,7 +155,8 @@ export class StudyModel implements RegressionModel {
   /** Solve one run at the given external (SI) parameter values, for reports and simulation. */
   solveRun(runIndex: number, external: Float64Array, options: ReactorOptions = {}): ReactorSolution {
     this.fillKinetics(runIndex, external);
-    const run = this.study.runs[runIndex];
+    const base = this.study.runs[runIndex];
+    const run = this.runValues ? this.runValues.run(runIndex, base, external) : base;
     return solveReactor(this.study.reactor, run, this.kinetics, this.thetaK.slice(), { ...this.reactorOptions, ...options });
   }
 
@@ -179,6 +186,7 @@ export class StudyModel implements RegressionModel {
       const run = this.study.runs[task.runIndex];
       this.fillKinetics(task.runIndex, this.ext);
       const opts = J ? this.sensOptions : this.plainOptions;
+      if (this.runValues) this.runValues.fill(task.runIndex, task.run, this.ext);
       let sol: ReactorSolution;
       try {
         sol =
@@ -199,7 +207,7 @@ export class StudyModel implements RegressionModel {
         continue;
       }
       for (const o of task.observations) {
-        const v = outletValue(o, run, sol, this.study);
+        const v = outletValue(o, this.runValues ? task.run : run, sol, this.study);
         if (!Number.isFinite(v)) {
           failures?.push({ run: run.id, message: `prediction of ${o.response} ${o.species ?? ''} is not finite` });
           ok = false;
@@ -209,9 +217,9 @@ export class StudyModel implements RegressionModel {
       }
     }
     for (const o of this.rateObservations) {
-      const run = this.study.runs[o.runIndex];
+      const run = this.runValues ? (this.runValues.run(o.runIndex, this.study.runs[o.runIndex], this.ext) as StudyRun) : this.study.runs[o.runIndex];
       this.fillKinetics(o.runIndex, this.ext);
-      inletConcentrations(run, this.study, this.scratchC);
+      rateConcentrations(run, this.study, this.scratchC);
       this.kinetics.rates(this.scratchC, run.temperature, this.thetaK, this.scratchR);
       this.counters.rateEvaluations++;
       const j = o.speciesIndex ?? this.study.keyReactantIndex;
@@ -370,4 +378,17 @@ export function inletConcentrations(run: RunConditions, study: Study, out: Float
     for (let j = 0; j < F.length; j++) out[j] = F[j] / v0;
   }
   return out;
+}
+
+/**
+ * Concentrations (mol/m3) at which a measured rate of the run is predicted: the measured
+ * composition (rateComposition columns: stirred-tank outlet, differential-bed mean) when given,
+ * else the inlet (initial) composition.
+ */
+export function rateConcentrations(run: StudyRun, study: Study, out: Float64Array): Float64Array {
+  if (run.rateConcentrations) {
+    out.set(run.rateConcentrations);
+    return out;
+  }
+  return inletConcentrations(run, study, out);
 }
