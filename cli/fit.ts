@@ -2,7 +2,8 @@
  * `rateloom fit STUDY`: fit the study's rate laws (or one candidate set) to its data; print the
  * parameter table with both interval kinds and units, the statistics and the warnings; write the
  * fitted-kinetics hand-off file and the HTML + Markdown report.
- * Exit 0 converged, 1 not converged (or no covariance), 2 bad input.
+ * Exit code from the fit's verdict (src/estimation/verdict.ts): 0 trustworthy, 1 finished but not
+ * to be trusted, 2 bad input.
  */
 import type { Command } from 'commander';
 import { join } from 'node:path';
@@ -26,7 +27,9 @@ Example:
 Writes <out>/<name>-kinetics.json (the hand-off file for 'rateloom size') and
 <out>/<name>-fit.html + .md (the report). Existing files are kept unless --force.
 Worker threads (multistart starts and profiles): ${AUTO_RULE_TEXT}
-Exit codes: 0 converged, 1 not converged or no usable covariance, 2 bad input.`;
+Exit codes: 0 trustworthy (converged after a real search, model evaluated at every run,
+positive-definite covariance, no misfit beyond the stated error, every parameter identifiable);
+1 the fit finished but must not be trusted (the verdict says which rule failed); 2 bad input.`;
 
 export interface FitFlags {
   model?: string;
@@ -68,7 +71,8 @@ export function formatFit(study: Study, sf: StudyFit): string {
   const L: string[] = [];
   L.push(`Study: ${study.title ?? study.studyPath}`);
   L.push(`Rate-law set: ${sf.variant}; reference temperature ${g(study.referenceTemperature, 5)} K (${study.referenceTemperatureSource === 'data' ? 'picked from the data' : 'from the study'})`);
-  L.push(`Status: ${fit.status} - ${fit.message}`);
+  L.push(`Verdict: ${fit.verdict.trustworthy ? 'trustworthy' : 'NOT TRUSTWORTHY'} (${fit.verdict.status}); status ${fit.status} - ${fit.message}`);
+  for (const r of fit.verdict.reasons) L.push(`  - [${r.code}] ${r.message}`);
   L.push(`Observations ${s.n}, free parameters ${s.p}, degrees of freedom ${s.dof}; ${s.iterations} iterations, ${s.evaluations} evaluations`);
   L.push(`Weighted SSR ${g(s.ssr)}; residual std dev ${g(s.residualStdDev)} (in units of sigma); AICc ${g(s.aicc, 6)}; BIC ${g(s.bic, 6)}`);
   L.push(`Covariance: ${s.covarianceBasis === 'known-sigma' ? "(J'J)^-1, measurement sigma taken as known" : "s^2 (J'J)^-1, sigma scale estimated from the residuals"}`);
@@ -157,13 +161,14 @@ export function registerFit(program: Command): void {
           const r = await writeFitReport(fitReportData(study, sf), { outDir, baseName: `${stem}-fit`, force: !!flags.force });
           reportPaths = { html: r.html, markdown: r.markdown };
         }
-        const trustworthy = sf.fit.success && sf.fit.covariance.internal !== null;
+        const trustworthy = sf.fit.verdict.trustworthy;
         return {
           trustworthy,
           json: {
             status: sf.fit.status,
             success: sf.fit.success,
             message: sf.fit.message,
+            verdict: sf.fit.verdict,
             model: sf.variant,
             referenceTemperature: { value: study.referenceTemperature, unit: 'K' },
             fit: sf.fit,

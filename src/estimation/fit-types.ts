@@ -6,6 +6,7 @@
 import type { Outcome } from '../core/outcome';
 import type { Parameter } from '../core/parameter';
 import type { FitStatus } from './status';
+import type { FitVerdict, VerdictRules } from './verdict';
 
 export interface FitData {
   /** Measured values, one per observation (same order as the model's predictions). */
@@ -48,6 +49,10 @@ export interface FitOptions {
   conditionWarning?: number;
   /** |correlation| above which a pair is flagged; default 0.95. */
   correlationWarning?: number;
+  /** Family-wise rate of false outlier warnings on correct data (see influence.ts); default 0.01. */
+  outlierLevel?: number;
+  /** Thresholds of the verdict rules (see verdict.ts); defaults there. */
+  verdict?: VerdictRules;
 }
 
 export interface ParameterInterval {
@@ -131,8 +136,14 @@ export interface FitStatistics {
   bic: number;
   /** Condition number of the column-scaled J'J; null when singular. */
   conditionNumber: number | null;
+  /** Smallest / largest singular value of the column-scaled Jacobian; null when not evaluated. */
+  singularRatio: number | null;
   covarianceBasis: 's2-scaled' | 'known-sigma';
   lackOfFit: LackOfFit | null;
+  /** Status the solver itself reported (the result's status may differ after the verdict). */
+  solverStatus: FitStatus;
+  /** The solver's own message (with its detail). */
+  solverMessage: string;
   iterations: number;
   evaluations: number;
   solver: SolverName;
@@ -164,7 +175,14 @@ export interface ParameterProfile {
   disagreesWithLinear: boolean;
 }
 
+/**
+ * A fit result. `status` is the solver's convergence status ('converged-ftol', ...) when the
+ * verdict is trustworthy, and otherwise the status of the first failed verdict rule; `success`
+ * follows from it, so it is true only for a trustworthy fit. `verdict` holds every reason.
+ */
 export interface FitResult extends Outcome<FitStatus> {
+  /** Whether the fit may be trusted, and why not (verdict.ts). */
+  verdict: FitVerdict;
   /** Every parameter the model uses, in the model's theta order (fixed ones included). */
   parameters: FittedParameter[];
   correlation: { names: string[]; matrix: number[][] | null };

@@ -13,22 +13,16 @@
 import { outcome, type Warning } from '../core/outcome';
 import { externalDerivative, toExternal, type Parameter } from '../core/parameter';
 import { chiSquareCdf, normalQuantile, studentTQuantile } from './distributions';
-import type {
-  FitData,
-  FitOptions,
-  FitResult,
-  FittedParameter,
-  InfluentialObservation,
-  ObservationDiagnostics,
-  ParameterProfile,
-} from './fit-types';
+import type { FitData, FitOptions, FitResult, FittedParameter, ObservationDiagnostics, ParameterProfile } from './fit-types';
+import { findInfluential } from './influence';
 import type { LmResult } from './lm';
 import type { RegressionModel } from './model';
 import { profileParameter } from './profile';
 import { makeProblem, prepareFit, solveFree, type PreparedFit } from './solve';
-import { analyseJacobian, informationCriteria, lackOfFit, nullDirection, observationStats } from './statistics';
+import { analyseJacobian, informationCriteria, lackOfFit, nullDirection, observationStats, type JacobianAnalysis } from './statistics';
 import type { FitStatus } from './status';
 import { FIT_STATUS } from './status';
+import { applyVerdict, type VerdictRules } from './verdict';
 
 export type { FitData, FitOptions, FitResult } from './fit-types';
 
@@ -49,71 +43,66 @@ export function fitModel(
 
 const fmt = (v: number): string => (Math.abs(v) >= 1e-3 && Math.abs(v) < 1e5 ? v.toPrecision(4) : v.toExponential(3));
 
-/** Build the FitResult from a solver result (also used by the multistart driver). */
-export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.options.profile ?? true): FitResult {
-  const { model, data, options } = prep;
-  const m = model.nObservations;
+/** The model at the estimate: residuals, predictions, Jacobian, and whether every run evaluated. */
+interface AtEstimate {
+  thetaHat: Float64Array;
+  r: Float64Array;
+  pred: Float64Array;
+  J: Float64Array;
+  evaluated: boolean;
+  exactJacobian: boolean;
+  failureDetail?: string;
+  failureWarning?: Warning;
+}
+
+function evaluateAtEstimate(prep: PreparedFit, lm: LmResult): AtEstimate {
+  const m = prep.model.nObservations;
   const free = prep.freeIndex;
-  const p = free.length;
-  const dof = m - p;
-  const level = options.level ?? 0.95;
-  const warnings: Warning[] = [...lm.warnings];
   const thetaHat = Float64Array.from(prep.thetaFull);
   free.forEach((j, k) => (thetaHat[j] = lm.x[k]));
-
   const problem = makeProblem(prep, thetaHat, free);
   const x = Float64Array.from(lm.x);
   const r = new Float64Array(m);
   const pred = new Float64Array(m);
-  const J = new Float64Array(m * p);
-  let status: FitStatus = lm.status;
-  const base = FIT_STATUS[lm.status].message + ': ';
-  let detail: string | undefined = lm.message.startsWith(base) ? lm.message.slice(base.length) : undefined;
+  const J = new Float64Array(m * free.length);
   const evaluated = problem.predict(x, pred) && problem.residuals(x, r) && problem.jacobian(x, r, J);
-  if (!evaluated) {
-    status = 'model-failure';
-    const fl = problem.failures;
-    detail = fl.length
+  const out: AtEstimate = { thetaHat, r, pred, J, evaluated, exactJacobian: problem.usesExactJacobian };
+  if (evaluated) return out;
+  const fl = problem.failures;
+  const runs = [...new Set(fl.map((f) => f.run))];
+  pred.fill(0);
+  r.fill(0);
+  return {
+    ...out,
+    failureDetail: fl.length
       ? fl.slice(0, 3).map((f) => `${f.run}: ${f.message}`).join('; ') + (fl.length > 3 ? `; and ${fl.length - 3} more` : '')
-      : 'the model could not be evaluated at the estimate';
-    const runs = [...new Set(fl.map((f) => f.run))];
-    warnings.push({
+      : 'the model could not be evaluated at the estimate',
+    failureWarning: {
       code: 'model-failure-at-estimate',
       message: `the model cannot be evaluated at the reported parameter values (${runs.length ? `failing: ${runs.map((r) => (r === '*' ? 'model' : `run ${r}`)).join(', ')}` : 'no detail'}); no statistics are given`,
       path: runs,
-    });
-    pred.fill(0);
-    r.fill(0);
-  }
-  if (lm.failedTrials > 0) {
-    warnings.push({
-      code: 'model-failed-at-trial-points',
-      message: `the model could not be evaluated at ${lm.failedTrials} trial point(s) during the fit; those steps were rejected`,
-    });
-  }
-  let ssr = 0;
-  for (let i = 0; i < m; i++) ssr += r[i] * r[i];
-  const analysis = analyseJacobian(J, m, p);
-  if (evaluated && FIT_STATUS[status].success && analysis.singular) status = 'singular';
-  if (analysis.singular && evaluated) {
-    const names = nullDirection(analysis).map((k) => prep.parameters[free[k]].name);
-    warnings.push({
-      code: 'not-identifiable',
-      message: `the data cannot separate ${names.length > 1 ? 'the parameters ' + names.join(', ') : 'parameter ' + names.join('')} (the Jacobian is rank-deficient); fix one of them or add informative data`,
-      path: names,
-    });
-  }
+    },
+  };
+}
 
+/** The covariance in the estimation space (s^2 (J'J)^-1 or (J'J)^-1), p x p row-major, and the interval quantile. */
+function covarianceOf(prep: PreparedFit, at: AtEstimate, analysis: JacobianAnalysis, ssr: number): { covInt: Float64Array | null; q: number | null } {
+  const { data } = prep;
+  const dof = prep.model.nObservations - prep.freeIndex.length;
+  const level = prep.options.level ?? 0.95;
   const s2 = data.sigmaKnown ? 1 : dof > 0 ? ssr / dof : null;
-  const covInt: Float64Array | null = evaluated && analysis.normalInverse && s2 !== null ? analysis.normalInverse.map((v) => v * s2) : null;
+  const covInt = at.evaluated && analysis.normalInverse && s2 !== null ? analysis.normalInverse.map((v) => v * s2) : null;
   const q = data.sigmaKnown ? normalQuantile(1 - (1 - level) / 2) : dof > 0 ? studentTQuantile(1 - (1 - level) / 2, dof) : null;
-  if (dof <= 0) {
-    warnings.push({ code: 'no-dof', message: `${m} observations for ${p} free parameters leave no degrees of freedom for uncertainty` });
-  }
+  return { covInt, q };
+}
 
+/** Every parameter with its value, standard error and linear interval (built in the estimation space). */
+function fittedParameters(prep: PreparedFit, thetaHat: Float64Array, covInt: Float64Array | null, q: number | null): FittedParameter[] {
+  const p = prep.freeIndex.length;
+  const level = prep.options.level ?? 0.95;
   const freePos = new Map<number, number>();
-  free.forEach((j, k) => freePos.set(j, k));
-  const fitted: FittedParameter[] = prep.parameters.map((par, j) => {
+  prep.freeIndex.forEach((j, k) => freePos.set(j, k));
+  return prep.parameters.map((par, j) => {
     const k = freePos.get(j);
     const internalValue = thetaHat[j];
     const value = toExternal(par, internalValue);
@@ -132,127 +121,152 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
       atBound,
     };
   });
+}
 
-  // External covariance D C D and correlation, over the free parameters.
+/** External covariance D C D, the internal one as rows, and the correlation, over the free parameters. */
+function covarianceMatrices(prep: PreparedFit, thetaHat: Float64Array, covInt: Float64Array | null): Pick<FitResult, 'covariance' | 'correlation'> {
+  const free = prep.freeIndex;
+  const p = free.length;
   const names = free.map((j) => prep.parameters[j].name);
-  let covExt: number[][] | null = null;
-  let covIntRows: number[][] | null = null;
-  let corr: number[][] | null = null;
-  if (covInt) {
-    const dfac = free.map((j) => externalDerivative(prep.parameters[j], thetaHat[j]));
-    covIntRows = [];
-    covExt = [];
-    corr = [];
-    for (let a = 0; a < p; a++) {
-      covIntRows.push(Array.from({ length: p }, (_, b) => covInt[a * p + b]));
-      covExt.push(Array.from({ length: p }, (_, b) => dfac[a] * covInt[a * p + b] * dfac[b]));
-      corr.push(
-        Array.from({ length: p }, (_, b) => {
-          const den = Math.sqrt(covInt[a * p + a] * covInt[b * p + b]);
-          return a === b ? 1 : den > 0 ? Math.max(-1, Math.min(1, covInt[a * p + b] / den)) : 0;
-        }),
-      );
-    }
-  }
+  if (!covInt) return { covariance: { names, internal: null, external: null }, correlation: { names, matrix: null } };
+  const dfac = free.map((j) => externalDerivative(prep.parameters[j], thetaHat[j]));
+  const rows = (f: (a: number, b: number) => number) => Array.from({ length: p }, (_, a) => Array.from({ length: p }, (_, b) => f(a, b)));
+  const internal = rows((a, b) => covInt[a * p + b]);
+  const external = rows((a, b) => dfac[a] * covInt[a * p + b] * dfac[b]);
+  const matrix = rows((a, b) => {
+    const den = Math.sqrt(covInt[a * p + a] * covInt[b * p + b]);
+    return a === b ? 1 : den > 0 ? Math.max(-1, Math.min(1, covInt[a * p + b] / den)) : 0;
+  });
+  return { covariance: { names, internal, external }, correlation: { names, matrix } };
+}
 
-  // Identifiability warnings.
+/** Rank deficiency, ill conditioning, high correlation, large standard errors, estimates on bounds. */
+function identifiabilityWarnings(prep: PreparedFit, analysis: JacobianAnalysis, evaluated: boolean, corr: number[][] | null, fitted: FittedParameter[]): Warning[] {
+  const { options } = prep;
+  const free = prep.freeIndex;
+  const p = free.length;
+  const names = free.map((j) => prep.parameters[j].name);
+  const weak = nullDirection(analysis).map((k) => names[k]);
+  const warnings: Warning[] = [];
+  if (analysis.singular && evaluated) {
+    warnings.push({
+      code: 'not-identifiable',
+      message: `the data cannot separate ${weak.length > 1 ? 'the parameters ' + weak.join(', ') : 'parameter ' + weak.join('')} (the Jacobian is rank-deficient); fix one of them or add informative data`,
+      path: weak,
+    });
+  }
   const condWarn = options.conditionWarning ?? 1e8;
   const corrWarn = options.correlationWarning ?? 0.95;
   if (evaluated && p > 0 && !(analysis.conditionNumber <= condWarn)) {
     warnings.push({
       code: 'ill-conditioned',
-      message: `the column-scaled J'J has condition number ${Number.isFinite(analysis.conditionNumber) ? fmt(analysis.conditionNumber) : 'infinity'} (> ${fmt(condWarn)}): the parameters are poorly determined jointly`,
+      message: `the column-scaled J'J has condition number ${Number.isFinite(analysis.conditionNumber) ? fmt(analysis.conditionNumber) : 'infinity'} (> ${fmt(condWarn)}): the parameters are poorly determined jointly${weak.length ? ` (mostly ${weak.join(', ')})` : ''}`,
+      path: weak,
     });
   }
-  if (corr) {
-    for (let a = 0; a < p; a++) {
-      for (let b = a + 1; b < p; b++) {
-        if (Math.abs(corr[a][b]) > corrWarn) {
-          warnings.push({
-            code: 'high-correlation',
-            message: `parameters ${names[a]} and ${names[b]} are correlated (r = ${corr[a][b].toFixed(4)}); the data barely separate them`,
-            path: [names[a], names[b]],
-          });
-        }
+  for (let a = 0; a < (corr ? p : 0); a++) {
+    for (let b = a + 1; b < p; b++) {
+      const c = (corr as number[][])[a][b];
+      if (Math.abs(c) > corrWarn) {
+        warnings.push({ code: 'high-correlation', message: `parameters ${names[a]} and ${names[b]} are correlated (r = ${c.toFixed(4)}); the data barely separate them`, path: [names[a], names[b]] });
       }
     }
   }
   for (const fp of fitted) {
     if (fp.fixed) continue;
     if (fp.stdError !== null && fp.stdError > Math.abs(fp.value)) {
-      warnings.push({
-        code: 'large-std-error',
-        message: `parameter ${fp.name} has standard error ${fmt(fp.stdError)} larger than its estimate ${fmt(fp.value)}`,
-        path: [fp.name],
-      });
+      warnings.push({ code: 'large-std-error', message: `parameter ${fp.name} has standard error ${fmt(fp.stdError)} larger than its estimate ${fmt(fp.value)}`, path: [fp.name] });
     }
-    if (fp.atBound) {
-      warnings.push({ code: 'at-bound', message: `parameter ${fp.name} ended on a bound (${fmt(fp.value)}); its interval is not valid`, path: [fp.name] });
-    }
+    if (fp.atBound) warnings.push({ code: 'at-bound', message: `parameter ${fp.name} ended on a bound (${fmt(fp.value)}); its interval is not valid`, path: [fp.name] });
   }
+  return warnings;
+}
 
-  // Observation diagnostics.
-  const s = data.sigmaKnown ? 1 : s2 !== null ? Math.sqrt(s2) : 0;
-  const obsStats = observationStats(r, analysis.leverage, s, p);
+/** Per-observation diagnostics and the influential observations (influence.ts thresholds). */
+function observationDiagnostics(prep: PreparedFit, at: AtEstimate, analysis: JacobianAnalysis, ssr: number): Pick<FitResult, 'observations' | 'influential'> {
+  if (!at.evaluated) return { observations: [], influential: [] };
+  const { data } = prep;
+  const m = prep.model.nObservations;
+  const p = prep.freeIndex.length;
+  const dof = m - p;
+  const s = data.sigmaKnown ? 1 : dof > 0 ? Math.sqrt(ssr / dof) : 0;
+  const st = observationStats(at.r, analysis.leverage, s, p);
   const observations: ObservationDiagnostics[] = [];
-  const influential: InfluentialObservation[] = [];
-  for (let i = 0; i < (evaluated ? m : 0); i++) {
-    const stud = obsStats.studentized[i];
-    const cook = obsStats.cooks[i];
+  for (let i = 0; i < m; i++) {
     observations.push({
       index: i,
       measured: data.measured[i],
-      predicted: pred[i],
-      residual: data.measured[i] - pred[i],
-      weightedResidual: r[i],
-      studentizedResidual: stud,
+      predicted: at.pred[i],
+      residual: data.measured[i] - at.pred[i],
+      weightedResidual: at.r[i],
+      studentizedResidual: st.studentized[i],
       leverage: analysis.leverage[i],
-      cooksDistance: cook,
-    });
-    const reasons: string[] = [];
-    if (cook !== null && cook > 4 / m) reasons.push(`Cook's distance ${cook.toFixed(3)} > 4/n = ${(4 / m).toFixed(3)}`);
-    if (stud !== null && Math.abs(stud) > 3) reasons.push(`|studentized residual| ${Math.abs(stud).toFixed(2)} > 3`);
-    if (reasons.length) influential.push({ index: i, cooksDistance: cook, studentizedResidual: stud, reason: reasons.join('; ') });
-  }
-  if (influential.length) {
-    warnings.push({
-      code: 'influential-observations',
-      message: `${influential.length} influential observation(s): ${influential.map((o) => o.index).join(', ')}`,
+      cooksDistance: st.cooks[i],
     });
   }
+  const outlierLevel = prep.options.outlierLevel;
+  const influential = findInfluential(st.studentized, st.cooks, m, p, data.sigmaKnown, outlierLevel !== undefined ? { outlierLevel } : {});
+  return { observations, influential };
+}
 
-  const lof = data.groups && evaluated ? lackOfFit(data.measured, data.sigma, data.groups, ssr, dof) : null;
-  if (lof && lof.pValue < 1 - level) {
-    warnings.push({
-      code: 'lack-of-fit',
-      message: `lack-of-fit test rejects the model (F = ${fmt(lof.F)}, p = ${lof.pValue.toExponential(2)}): misfit exceeds replicate scatter`,
-    });
+/**
+ * Whether profile-likelihood intervals are computed for a fit: the solver met a convergence test,
+ * the model evaluated at the estimate and there is a covariance and degrees of freedom. (Not the
+ * verdict: a misfit or poorly identified fit still gets its profiles, which the verdict reads.)
+ */
+export function profilesApply(fit: FitResult): boolean {
+  return FIT_STATUS[fit.statistics.solverStatus].success && fit.observations.length > 0 && fit.covariance.internal !== null && fit.statistics.dof > 0;
+}
+
+/** Profile-likelihood intervals of every free parameter (when profilesApply). */
+function profilesOf(prep: PreparedFit, fit: FitResult, thetaHat: Float64Array): ParameterProfile[] {
+  const covInt = fit.covariance.internal;
+  if (!profilesApply(fit) || !covInt) return [];
+  const free = prep.freeIndex;
+  return free.map((j, k) => {
+    const prof = profileParameter({ prep, thetaHat, index: j, ssrMin: fit.statistics.ssr, internalStdError: Math.sqrt(covInt[k][k]), linear: fit.parameters[j].ci.linear });
+    prep.options.profileProgress?.(k + 1, free.length);
+    return prof;
+  });
+}
+
+/** Build the FitResult from a solver result (also used by the multistart driver). */
+export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.options.profile ?? true): FitResult {
+  const { model, data, options } = prep;
+  const m = model.nObservations;
+  const p = prep.freeIndex.length;
+  const dof = m - p;
+  const at = evaluateAtEstimate(prep, lm);
+  const warnings: Warning[] = [...lm.warnings];
+  if (at.failureWarning) warnings.push(at.failureWarning);
+  if (lm.failedTrials > 0) {
+    warnings.push({ code: 'model-failed-at-trial-points', message: `the model could not be evaluated at ${lm.failedTrials} trial point(s) during the fit; those steps were rejected` });
+  }
+  let ssr = 0;
+  for (let i = 0; i < m; i++) ssr += at.r[i] * at.r[i];
+  const analysis = analyseJacobian(at.J, m, p);
+  const { covInt, q } = covarianceOf(prep, at, analysis, ssr);
+  if (dof <= 0) warnings.push({ code: 'no-dof', message: `${m} observations for ${p} free parameters leave no degrees of freedom for uncertainty` });
+  const fitted = fittedParameters(prep, at.thetaHat, covInt, q);
+  const matrices = covarianceMatrices(prep, at.thetaHat, covInt);
+  warnings.push(...identifiabilityWarnings(prep, analysis, at.evaluated, matrices.correlation.matrix, fitted));
+  const diag = observationDiagnostics(prep, at, analysis, ssr);
+  if (diag.influential.length) {
+    warnings.push({ code: 'influential-observations', message: `${diag.influential.length} influential observation(s): ${diag.influential.map((o) => o.index).join(', ')}` });
+  }
+  const lof = data.groups && at.evaluated ? lackOfFit(data.measured, data.sigma, data.groups, ssr, dof) : null;
+  if (lof && lof.pValue < 1 - (options.level ?? 0.95)) {
+    warnings.push({ code: 'lack-of-fit', message: `lack-of-fit test rejects the model (F = ${fmt(lof.F)}, p = ${lof.pValue.toExponential(2)}): misfit exceeds replicate scatter` });
   }
   const ic = informationCriteria(ssr, m, p, data.sigmaKnown);
-
-  // Profiles.
-  const profiles: ParameterProfile[] = [];
-  if (withProfile && FIT_STATUS[status].success && covInt && dof > 0) {
-    free.forEach((j, k) => {
-      profiles.push(
-        profileParameter({
-          prep,
-          thetaHat,
-          index: j,
-          ssrMin: ssr,
-          internalStdError: Math.sqrt(covInt[k * p + k]),
-          linear: fitted[j].ci.linear,
-        }),
-      );
-      options.profileProgress?.(k + 1, free.length);
-    });
-  }
-
-  const result: FitResult = {
-    ...outcome(FIT_STATUS, status, warnings, detail),
+  const solverStatus: FitStatus = at.evaluated ? lm.status : 'model-failure';
+  const solverMessage = at.evaluated ? lm.message : outcome(FIT_STATUS, 'model-failure', [], at.failureDetail).message;
+  const condJ = Math.sqrt(analysis.conditionNumber);
+  const base: Omit<FitResult, 'verdict'> = {
+    ...outcome(FIT_STATUS, solverStatus, warnings),
+    message: solverMessage,
     parameters: fitted,
-    correlation: { names, matrix: corr },
-    covariance: { names, internal: covIntRows, external: covExt },
+    ...matrices,
     statistics: {
       n: m,
       p,
@@ -260,23 +274,27 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
       ssr,
       residualStdDev: dof > 0 ? Math.sqrt(ssr / dof) : null,
       chiSquare: ssr,
-      chiSquarePValue: data.sigmaKnown && dof > 0 ? chiSquareSurvival(ssr, dof) : null,
+      chiSquarePValue: data.sigmaKnown && dof > 0 && at.evaluated ? chiSquareSurvival(ssr, dof) : null,
       aic: ic.aic,
       aicc: ic.aicc,
       bic: ic.bic,
       conditionNumber: Number.isFinite(analysis.conditionNumber) && !analysis.singular ? analysis.conditionNumber : null,
+      singularRatio: at.evaluated && p > 0 ? (condJ > 0 && Number.isFinite(condJ) ? 1 / condJ : 0) : null,
       covarianceBasis: data.sigmaKnown ? 'known-sigma' : 's2-scaled',
       lackOfFit: lof,
+      solverStatus,
+      solverMessage,
       iterations: lm.iterations,
       evaluations: lm.evaluations,
       solver: options.solver ?? 'trust-region',
-      exactJacobian: problem.usesExactJacobian,
+      exactJacobian: at.exactJacobian,
     },
-    observations,
-    influential,
+    ...diag,
     profiles: [],
   };
-  return profiles.length ? applyProfiles(result, profiles) : result;
+  const fit = applyVerdict(base, options.verdict);
+  const profiles = withProfile ? profilesOf(prep, fit, at.thetaHat) : [];
+  return profiles.length ? applyProfiles(fit, profiles, options.verdict) : fit;
 }
 
 /**
@@ -285,7 +303,7 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
  * any already there), and a warning is added where the profile disagrees with the linear interval.
  * Returns a new result; the input is not changed.
  */
-export function applyProfiles(fit: FitResult, profiles: readonly ParameterProfile[]): FitResult {
+export function applyProfiles(fit: FitResult, profiles: readonly ParameterProfile[], rules?: VerdictRules): FitResult {
   const parameters = fit.parameters.slice();
   const warnings = fit.warnings.slice();
   for (const prof of profiles) {
@@ -310,7 +328,7 @@ export function applyProfiles(fit: FitResult, profiles: readonly ParameterProfil
       });
     }
   }
-  return { ...fit, warnings, parameters, profiles: [...fit.profiles, ...profiles] };
+  return applyVerdict({ ...fit, warnings, parameters, profiles: [...fit.profiles, ...profiles] }, rules);
 }
 
 function chiSquareSurvival(x: number, k: number): number {

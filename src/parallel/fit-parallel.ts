@@ -7,7 +7,7 @@
  * whatever the number of workers. A job whose worker fails is rerun here (never dropped).
  * Overlap: the workers start (1-2 s) while this thread runs the main fit or the given start.
  */
-import { applyProfiles, assembleFit } from '../estimation/fit';
+import { applyProfiles, assembleFit, profilesApply } from '../estimation/fit';
 import type { FitResult, ParameterProfile } from '../estimation/fit-types';
 import type { LmResult } from '../estimation/lm';
 import { groupStarts, multistartDesign, runStart, type MultistartOptions } from '../estimation/multistart';
@@ -84,7 +84,7 @@ export async function fitStudyParallel(study: Study, options: ParallelFitOptions
     } else {
       fit = assembleFit(prep, solveFree(prep, prep.thetaFull).result, false);
     }
-    if ((fitOptions.profile ?? true) && fit.success && fit.covariance.internal && fit.statistics.dof > 0) {
+    if ((fitOptions.profile ?? true) && profilesApply(fit)) {
       const jobs = profileJobs(fit);
       const outs = await (await getPool()).run(jobs, (done) => fitOptions.profileProgress?.(done, jobs.length));
       const profiles: ParameterProfile[] = outs.map((o, i) => {
@@ -92,7 +92,7 @@ export async function fitStudyParallel(study: Study, options: ParallelFitOptions
         const j = jobs[i];
         return profileParameter({ prep, thetaHat: Float64Array.from(j.thetaHat), index: j.index, ssrMin: j.ssrMin, internalStdError: j.internalStdError, linear: j.linear });
       });
-      fit = applyProfiles(fit, profiles);
+      fit = applyProfiles(fit, profiles, fitOptions.verdict);
     }
     return finishStudyFit(study, plan, fit, minima);
   } finally {

@@ -9,6 +9,7 @@ import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics } from '../design/
 import { RateloomError, closestName } from '../core/errors';
 import type { Study } from '../study/types';
 import { studyCoverage } from './coverage';
+import { nameObservations } from './observation-names';
 import { derivedQuantities, type DerivedQuantity } from './derived';
 import { studyFitData, type StudyFitData } from './fit-data';
 import { StudyModel, baseVariant, candidateVariant, type ModelVariant, type StudyModelOptions } from './study-model';
@@ -68,28 +69,6 @@ export function findVariant(study: Study, name: string): ModelVariant {
     });
   }
   return v;
-}
-
-/**
- * Estimation names observations by index; a study knows their runs. Rewrite the influential-
- * observation warning to name run, response and CSV line, with the run ids as its path.
- */
-function nameObservations(fit: FitResult, study: Study): FitResult {
-  if (!fit.influential.length) return fit;
-  const label = (i: number) => {
-    const o = study.observations[i];
-    return `run ${o.runId} ${o.species ?? ''} ${o.response}${o.position !== undefined ? ` at ${o.position}` : ''} (${o.location.file}:${o.location.line})`.replace(/\s+/g, ' ');
-  };
-  const warnings = fit.warnings.map((w) =>
-    w.code === 'influential-observations'
-      ? {
-          ...w,
-          message: `${fit.influential.length} influential observation(s) (Cook's distance > 4/n or |studentized residual| > 3): ${fit.influential.map((o) => label(o.index)).join('; ')}`,
-          path: [...new Set(fit.influential.map((o) => study.observations[o.index].runId))],
-        }
-      : w,
-  );
-  return { ...fit, warnings };
 }
 
 /** What fitStudy fits: the rate-law set (with any estimated starts), its model and data, the starts. */
