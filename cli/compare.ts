@@ -3,7 +3,7 @@
  * rank them: SSR, degrees of freedom, AICc, BIC, Akaike weights and F tests for declared nested
  * pairs, saying which the data support and which they cannot tell apart. Writes the report of the
  * best-supported set with the rival-model table.
- * Exit 0 ranked, 1 the best-ranked fit did not converge, 2 bad input.
+ * Exit 0 ranked with a trustworthy best fit, 1 the best-ranked fit is not trustworthy (its verdict), 2 bad input.
  */
 import type { Command } from 'commander';
 import { compareStudyParallel } from '../src/parallel/fit-parallel';
@@ -26,14 +26,15 @@ The study lists rival rate-law sets under "candidates"; each replaces the rate l
 reactions and may bring its own parameters. Akaike weights say how strongly the data prefer each
 set; sets within 2 AICc units of the best cannot be told apart by these data.
 Worker threads (multistart starts of a set whose starting values rateloom estimates): ${AUTO_RULE_TEXT}
-Exit codes: 0 ranked, 1 the best-ranked fit did not converge, 2 bad input.`;
+Exit codes: 0 ranked and the best fit trustworthy, 1 the best-ranked fit is not trustworthy
+(its verdict says why), 2 bad input.`;
 
 export function formatComparison(c: Comparison): string {
   const L: string[] = [];
   const crit = c.criterion.toUpperCase();
-  const rows = [['rank', 'rate-law set', 'weighted SSR', 'params', 'dof', crit, `delta ${crit}`, 'Akaike weight', 'converged']];
+  const rows = [['rank', 'rate-law set', 'weighted SSR', 'params', 'dof', crit, `delta ${crit}`, 'Akaike weight', 'ranked', 'verdict']];
   for (const r of c.ranking) {
-    rows.push([String(r.rank), r.name, g(r.ssr, 5), String(r.p), String(r.dof), g(r.aicc ?? NaN, 6), g(r.delta, 3), g(r.akaikeWeight, 3), r.converged ? 'yes' : 'no']);
+    rows.push([String(r.rank), r.name, g(r.ssr, 5), String(r.p), String(r.dof), g(r.aicc ?? NaN, 6), g(r.delta, 3), g(r.akaikeWeight, 3), r.converged ? 'yes' : 'no', r.verdict]);
   }
   L.push(table(rows));
   for (const t of c.nestedTests) {
@@ -83,11 +84,12 @@ export function registerCompare(program: Command): void {
           reportPaths = { html: r.html, markdown: r.markdown };
         }
         return {
-          trustworthy: comparison.ranking[0].converged,
+          trustworthy: comparison.ranking[0].converged && best.fit.verdict.trustworthy,
           json: {
-            status: comparison.ranking[0].converged ? 'ranked' : 'best-not-converged',
+            status: !comparison.ranking[0].converged ? 'best-not-converged' : best.fit.verdict.trustworthy ? 'ranked' : 'best-not-trustworthy',
+            verdict: best.fit.verdict,
             comparison,
-            fits: fits.map((f) => ({ model: f.variant, status: f.fit.status, parameters: f.fit.parameters, statistics: f.fit.statistics })),
+            fits: fits.map((f) => ({ model: f.variant, status: f.fit.status, verdict: f.fit.verdict, parameters: f.fit.parameters, statistics: f.fit.statistics })),
             ...(reportPaths ? { outputs: reportPaths } : {}),
           },
           text: formatComparison(comparison),

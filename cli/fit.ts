@@ -71,7 +71,8 @@ export function formatFit(study: Study, sf: StudyFit): string {
   const L: string[] = [];
   L.push(`Study: ${study.title ?? study.studyPath}`);
   L.push(`Rate-law set: ${sf.variant}; reference temperature ${g(study.referenceTemperature, 5)} K (${study.referenceTemperatureSource === 'data' ? 'picked from the data' : 'from the study'})`);
-  L.push(`Verdict: ${fit.verdict.trustworthy ? 'trustworthy' : 'NOT TRUSTWORTHY'} (${fit.verdict.status}); status ${fit.status} - ${fit.message}`);
+  L.push(`Status: ${fit.status} - ${fit.message}`);
+  L.push(`Verdict: ${fit.verdict.trustworthy ? 'trustworthy' : 'NOT TRUSTWORTHY'} (${fit.verdict.status})`);
   for (const r of fit.verdict.reasons) L.push(`  - [${r.code}] ${r.message}`);
   L.push(`Observations ${s.n}, free parameters ${s.p}, degrees of freedom ${s.dof}; ${s.iterations} iterations, ${s.evaluations} evaluations`);
   L.push(`Weighted SSR ${g(s.ssr)}; residual std dev ${g(s.residualStdDev)} (in units of sigma); AICc ${g(s.aicc, 6)}; BIC ${g(s.bic, 6)}`);

@@ -7,6 +7,7 @@ export { VERSION } from './version';
 // Core: typed errors, outcomes, parameters.
 export { RateloomError, ERROR_CODES, isRateloomError, formatPath, type ErrorCode, type ErrorLocation } from './core/errors';
 export type { Outcome, Warning, StatusTable } from './core/outcome';
+export { exitCodeOf, verdictFrom, EXIT_TRUSTWORTHY, EXIT_UNTRUSTWORTHY, EXIT_BAD_INPUT, type Verdict, type VerdictReason } from './core/verdict';
 export { makeParameter, toInternal, toExternal, type Parameter, type Transform } from './core/parameter';
 
 // Units at the edges.
@@ -38,6 +39,7 @@ export type { Study, LoadedStudy, Observation, StudyRun, ErrorModel, CandidateSe
 
 // Estimation.
 export { fitModel, multistartFit, compareModels, levenbergMarquardt, profileParameter } from './estimation';
+export { decideFitVerdict, applyVerdict, minimumFound, DEFAULT_VERDICT_RULES, type FitVerdict, type FitVerdictInput, type FitVerdictStatus, type VerdictRules } from './estimation';
 export type { RegressionModel, FitResult, FitData, FitOptions, FittedParameter, Comparison } from './estimation';
 
 // Workflow: a study as a regression model, fits, comparisons, hand-off, report view models.

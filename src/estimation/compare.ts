@@ -12,6 +12,7 @@ import { RateloomError } from '../core/errors';
 import type { Warning } from '../core/outcome';
 import { chiSquareCdf, fSurvival } from './distributions';
 import type { FitResult } from './fit-types';
+import { minimumFound } from './verdict';
 
 export interface RivalFit {
   /** Model name shown in the verdict. */
@@ -30,7 +31,12 @@ export interface RankedModel {
   name: string;
   /** 1 = best supported; non-converged fits come last. */
   rank: number;
+  /** The fit reached a genuine minimum with a covariance (verdict.ts minimumFound), so it is ranked. */
   converged: boolean;
+  /** Status of the fit's verdict ('converged', 'misfit', ...). */
+  verdict: string;
+  /** The fit's verdict is trustworthy. */
+  trustworthy: boolean;
   ssr: number;
   n: number;
   p: number;
@@ -90,9 +96,9 @@ export function compareModels(rivals: readonly RivalFit[], options: CompareOptio
   }
   const alpha = options.alpha ?? 0.05;
   const warnings: Warning[] = [];
-  const ok = rivals.filter((r) => r.fit.success);
-  const bad = rivals.filter((r) => !r.fit.success);
-  for (const r of bad) warnings.push({ code: 'not-converged', message: `model '${r.name}' did not converge (${r.fit.status}) and is not ranked`, path: [r.name] });
+  const ok = rivals.filter((r) => minimumFound(r.fit));
+  const bad = rivals.filter((r) => !minimumFound(r.fit));
+  for (const r of bad) warnings.push({ code: 'not-converged', message: `model '${r.name}' reached no usable minimum (${r.fit.status}) and is not ranked`, path: [r.name] });
   const criterion: 'aicc' | 'aic' = ok.every((r) => r.fit.statistics.aicc !== null) ? 'aicc' : 'aic';
   if (criterion === 'aic') warnings.push({ code: 'aic-used', message: 'AICc is undefined for at least one model (n - k - 1 <= 0); plain AIC is used' });
   const crit = (r: RivalFit) => (criterion === 'aicc' ? (r.fit.statistics.aicc as number) : r.fit.statistics.aic);
@@ -104,6 +110,8 @@ export function compareModels(rivals: readonly RivalFit[], options: CompareOptio
     name: r.name,
     rank,
     converged: conv,
+    verdict: r.fit.verdict.status,
+    trustworthy: r.fit.verdict.trustworthy,
     ssr: r.fit.statistics.ssr,
     n: r.fit.statistics.n,
     p: r.fit.statistics.p,
@@ -132,7 +140,7 @@ export function compareModels(rivals: readonly RivalFit[], options: CompareOptio
     if (!(pl > ps)) {
       throw new RateloomError('E_VALUE', `in nested pair [${sName}, ${lName}] the larger model must have more free parameters`, { path: ['nested'] });
     }
-    if (!s.fit.success || !l.fit.success) {
+    if (!minimumFound(s.fit) || !minimumFound(l.fit)) {
       warnings.push({ code: 'nested-skipped', message: `nested test ${sName} vs ${lName} skipped: a fit did not converge` });
       continue;
     }

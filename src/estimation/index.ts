@@ -20,6 +20,18 @@ export type {
 } from './fit-types';
 export { FIT_STATUS, type FitStatus } from './status';
 export { fitModel, assembleFit } from './fit';
+export {
+  applyVerdict,
+  decideFitVerdict,
+  minimumFound,
+  verdictInput,
+  DEFAULT_VERDICT_RULES,
+  type FitVerdict,
+  type FitVerdictInput,
+  type FitVerdictStatus,
+  type VerdictRules,
+} from './verdict';
+export { findInfluential, influenceThresholds, type InfluenceOptions, type InfluenceThresholds } from './influence';
 export { multistartFit, latinHypercube, type MultistartOptions, type MultistartResult, type Minimum } from './multistart';
 export { compareModels, type Comparison, type CompareOptions, type NestedTest, type RankedModel, type RivalFit } from './compare';
 export { levenbergMarquardt, type LmOptions, type LmResult } from './lm';

@@ -251,3 +251,15 @@ export function applyVerdict(fit: Omit<FitResult, 'verdict'> & { verdict?: FitVe
   }
   return { ...fit, status, success: FIT_STATUS[status].success && verdict.trustworthy, message, warnings, verdict };
 }
+
+/** Verdict codes that still leave a genuine minimum with a covariance (its SSR and AICc mean something). */
+const MINIMUM_FOUND: ReadonlySet<string> = new Set(['misfit', 'not-identifiable']);
+
+/**
+ * The search found a genuine minimum with a covariance: the verdict is trustworthy or fails only
+ * for misfit or poor identifiability. Rival rate laws are ranked among such fits (a misfit or a
+ * superfluous parameter is exactly what the ranking is there to show).
+ */
+export function minimumFound(fit: Pick<FitResult, 'verdict'>): boolean {
+  return fit.verdict.reasons.every((r) => MINIMUM_FOUND.has(r.code));
+}
