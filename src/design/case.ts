@@ -23,6 +23,7 @@
  * (the catalyst to install) keeps the pressure drop within tubes.allowedPressureDrop, so only the
  * parameter sets beyond the percentile may need more.
  */
+import { loadCasePellet, type CasePellet } from './case-pellet';
 import { RateloomError, closestName, type FieldPath } from '../core/errors';
 import { quantityToSI, type QuantityKind } from './case-units';
 
@@ -97,6 +98,8 @@ export interface DesignCase {
      */
     designLevel?: number;
   };
+  /** The plant pellet (packed bed): rates along the bed are multiplied by its effectiveness factor. */
+  pellet?: CasePellet;
 }
 
 export const DEFAULT_DRAWS = 10000;
@@ -162,7 +165,7 @@ function speciesIndex(name: unknown, species: readonly string[], path: FieldPath
   return i;
 }
 
-const TOP = ['name', 'reactor', 'feed', 'temperature', 'pressure', 'target', 'tubes', 'pressureDrop', 'bulkDensity', 'catalystLoading', 'heat', 'uncertainty', 'description'] as const;
+const TOP = ['name', 'reactor', 'feed', 'temperature', 'pressure', 'target', 'tubes', 'pressureDrop', 'bulkDensity', 'catalystLoading', 'heat', 'uncertainty', 'description', 'pellet'] as const;
 
 /**
  * Validate a parsed case file against the hand-off species and reaction ids; return the case in SI.
@@ -390,6 +393,10 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
       }
       out.uncertainty.designLevel = v;
     }
+  }
+  if (top.pellet !== undefined) {
+    if (kind !== 'packed-bed') throw new RateloomError('E_SCHEMA', 'a pellet applies only to a packed bed', { path: ['pellet'], fix: 'Remove "pellet" or size a packed bed.' });
+    out.pellet = loadCasePellet(top.pellet, species, out.tubes?.innerDiameter);
   }
   return out;
 

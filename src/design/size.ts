@@ -21,6 +21,7 @@ import { propagate, type UncertaintyResult } from './uncertainty';
 import { extrapolationWarnings } from './extrapolation';
 import { heatCheck, type HeatCheck } from './heat';
 import { cautions } from './cautions';
+import { PELLET_CAUTIONS, pelletSizing, systemWithPellet, type PelletSizing } from './pellet-sizing';
 
 export type SizingStatus =
   | 'sized'
@@ -99,6 +100,8 @@ export interface SizingResult extends Outcome<SizingStatus> {
   equilibrium?: EquilibriumLimit;
   heat?: HeatCheck;
   uncertainty?: UncertaintyResult;
+  /** The plant pellet: eta along the bed, film at the inlet, diameter trade-off (case with a pellet). */
+  pellet?: PelletSizing;
   /** Always present, whatever the status. */
   cautions: string[];
 }
@@ -190,14 +193,15 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, SizingResult, 
   const { handoff, kinetics, kase } = input;
   const opts = input.options ?? {};
   const map = parameterMap(handoff, kinetics.parameterNames);
-  const sys = buildSystem(kinetics, kase, map.theta);
+  const withPellet = kase.pellet ? systemWithPellet(kinetics, kase, map.theta, kase.pellet, handoff.species) : undefined;
+  const sys = withPellet ? withPellet.sys : buildSystem(kinetics, kase, map.theta);
   const sizer = new Sizer(sys);
   const warnings: Warning[] = [];
   const base = {
     case: kase.name,
     reactor: { ...kase.reactor },
     target: kase.target,
-    cautions: cautions(),
+    cautions: kase.pellet ? [...cautions(), ...PELLET_CAUTIONS] : cautions(),
   };
   const fail = (status: SizingStatus, detail: string, extra: Partial<SizingResult> = {}): SizingResult => ({
     ...outcome(SIZING_STATUS, status, warnings, detail),
@@ -345,6 +349,14 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, SizingResult, 
   warnings.push(...heat.warnings);
   warnings.push(...extrapolationWarnings(handoff, kase, handoff.coverage.conversion ? conversionOf(sizer, res.y, handoff.coverage.conversion.species) : undefined));
   result.uncertainty = unc;
+  if (withPellet && t.kind !== 'size') {
+    result.pellet = pelletSizing({
+      kinetics, kase, pellet: kase.pellet!, species: handoff.species, theta: map.theta, sys, hook: withPellet.hook, size: nominal,
+      ...(input.molarMasses ? { molarMasses: input.molarMasses } : {}),
+      ...(tubes ? { tubeCount: tubes.count } : {}),
+    });
+    warnings.push(...result.pellet.warnings);
+  }
   if (tubes?.draws && tubes.draws.overAllowed > 0) {
     const d = tubes.draws;
     const P = `P${fmt(level * 100, 3)}`;

@@ -19,6 +19,15 @@ import { RateloomError } from '../core/errors';
 
 export const GAS_CONSTANT = 8.314462618;
 
+/**
+ * A multiplicative hook on the rate term: it may scale the intrinsic rates r (per reaction, in
+ * place) at size coordinate t, state y, bulk concentrations C and temperature T; the pellet's
+ * effectiveness factor enters this way (design/pellet-hook.ts). Kinetics stay intrinsic.
+ */
+export interface RateHook {
+  apply(t: number, y: Float64Array, C: Float64Array, T: number, r: Float64Array): void;
+}
+
 export interface DesignSystem {
   readonly kinetics: CompiledKinetics;
   readonly kase: DesignCase;
@@ -47,8 +56,9 @@ export interface DesignSystem {
 /**
  * Build the design system for a case and compiled kinetics.
  * @param theta physical parameter values in `kinetics.parameterNames` order (copied)
+ * @param hook scales the intrinsic rates (pellet effectiveness); default none
  */
-export function buildSystem(kinetics: CompiledKinetics, kase: DesignCase, theta: ArrayLike<number>): DesignSystem {
+export function buildSystem(kinetics: CompiledKinetics, kase: DesignCase, theta: ArrayLike<number>, hook?: RateHook): DesignSystem {
   const nS = kinetics.speciesNames.length;
   const nR = kinetics.reactionIds.length;
   const kind = kase.reactor.kind;
@@ -119,11 +129,13 @@ export function buildSystem(kinetics: CompiledKinetics, kase: DesignCase, theta:
     ratesAt(y, out) {
       concentrations(y, C);
       kinetics.rates(C, T, th, out);
+      if (hook) hook.apply(NaN, y, C, T, out);
       for (let i = 0; i < nR; i++) out[i] *= scale[i];
     },
-    rhs(_t, y, out) {
+    rhs(t, y, out) {
       concentrations(y, C);
       kinetics.rates(C, T, th, r);
+      if (hook) hook.apply(t, y, C, T, r);
       for (let j = 0; j < nS; j++) out[j] = 0;
       for (let i = 0; i < nR; i++) {
         const ri = r[i] * scale[i];

@@ -14,6 +14,7 @@ import { applyInternal, parameterMap, parseHandoff, type ParameterMap } from '..
 import { kineticsFromHandoff } from '../design/kinetics';
 import { Sizer } from '../design/sizer';
 import { buildSystem } from '../design/system';
+import { systemWithPellet } from '../design/pellet-sizing';
 import { bundleAlpha, designTubes } from '../design/tubes';
 
 export interface McContext {
@@ -60,7 +61,7 @@ export function setup(ctx: McContext): McState {
   const dk = kineticsFromHandoff(h);
   const kase = loadCase(ctx.case, dk.kinetics.speciesNames, dk.kinetics.reactionIds);
   const map = parameterMap(h, dk.kinetics.parameterNames);
-  const sizer = new Sizer(buildSystem(dk.kinetics, kase, map.theta));
+  const sizer = new Sizer(kase.pellet ? systemWithPellet(dk.kinetics, kase, map.theta, kase.pellet, h.species).sys : buildSystem(dk.kinetics, kase, map.theta));
   // as sizeReactor: a bundle is designed for sizing targets only (a rating keeps the case's bed)
   if (kase.tubes && kase.target.kind !== 'size') {
     if (!dk.molarMasses) throw new RateloomError('E_VALUE', 'the tube design needs the molar masses of all species', { path: ['species'] });

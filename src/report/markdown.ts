@@ -3,7 +3,7 @@
  * plain tables (every number followed by its unit), without charts.
  */
 import { escapeMarkdown as md, formatInterval, formatNumber, formatUnit, NOT_COMPUTED, paToKPa, SIG_VALUE } from './format';
-import type { FitReportData, ReportWarning, SizingReportData } from './types';
+import type { FitReportData, PelletReportData, ReportWarning, SizingReportData, TransportReportData } from './types';
 
 /** A number with its unit, or 'not computed'. */
 function q(x: number | null | undefined, unit: string | null | undefined, sig = SIG_VALUE): string {
@@ -99,6 +99,7 @@ export function renderFitMarkdown(data: FitReportData): string {
       ),
     );
   }
+  if (data.transport) parts.push(...transportMarkdown(data.transport));
   if (data.correlation && data.correlation.names.length) {
     const c = data.correlation;
     parts.push(
@@ -157,5 +158,35 @@ export function renderSizingMarkdown(data: SizingReportData): string {
     const rows = [...data.sensitivity].sort((a, b) => Math.abs(b.effect) - Math.abs(a.effect));
     parts.push('## Sensitivity', data.sensitivityMeasure ? md(data.sensitivityMeasure) : '', mdTable(['Parameter', 'Effect'], rows.map((r) => [md(r.parameter), q(r.effect, data.sensitivityUnit ?? '1', 3)])));
   }
+  if (data.pellet) parts.push(...pelletMarkdown(data.pellet));
   return parts.filter((p) => p !== '').join('\n\n') + '\n';
+}
+
+/** The plant pellet section of a sizing summary. */
+function pelletMarkdown(p: PelletReportData): string[] {
+  const eta = p.profile.series.map((s) => {
+    const first = s.points[0]?.eta;
+    const last = s.points[s.points.length - 1]?.eta;
+    return [md(s.reaction), q(first, '1', 3), q(last, '1', 3)];
+  });
+  return [
+    '## Plant pellet',
+    `${md(p.shape)}, ${q(p.diameterMm, 'mm', 3)}; effectiveness from ${p.method === 'numerical' ? 'the pellet balance solved numerically' : "Bischoff's generalized modulus"}. ` +
+      `Catalyst mass ${q(p.nominalSize, 'kg')} with the pellet, ${q(p.intrinsicSize, 'kg')} with intrinsic kinetics.`,
+    mdTable(['Reaction', 'Effectiveness at inlet', 'Effectiveness at outlet'], eta),
+    mdTable(['Pellet diameter', 'Catalyst mass', 'Pressure drop', 'Effectiveness at inlet', 'Status'],
+      p.tradeOff.rows.map((r) => [q(r.diameterMm, 'mm', 3), q(r.catalystMass, 'kg'), q(r.pressureDropKPa, 'kPa'), q(r.etaInlet, '1', 3), md(r.status)])),
+  ];
+}
+
+/** The transport checks of the lab runs in a fit summary. */
+function transportMarkdown(t: TransportReportData): string[] {
+  const bad = t.rows.filter((r) => !r.intrinsic);
+  return [
+    '## Transport checks of the lab runs',
+    `Observed rate: ${md(t.rateSource)} of ${md(t.keyReactant)}. Limits: Weisz-Prater ${t.limits.weiszPrater}, Mears ${t.limits.mears}. ${bad.length} of ${t.rows.length} runs fail a check.`,
+    mdTable(['Run', 'Observed rate', 'Weisz-Prater', 'Mears (mass)', 'Mears (heat)', 'Max. internal rise', 'Intrinsic?'],
+      t.rows.map((r) => [md(r.runId), q(r.observedRate, 'mol/(kg s)', 3), q(r.weiszPrater, '1', 3), q(r.mearsMass, '1', 3), q(r.mearsHeat, '1', 3), q(r.praterRise, 'K', 3), r.intrinsic ? 'yes' : md(`no: ${r.failed.join(', ')}`)])),
+    bad.length ? `> ${md(t.note)}` : '',
+  ];
 }

@@ -228,6 +228,8 @@ export interface FitReportData {
   correlation?: CorrelationData | null;
   statistics: FitStatisticsData;
   runs: RunObservationData[];
+  /** Transport diagnostics of the lab runs (when the study describes the lab pellet); null otherwise. */
+  transport?: TransportReportData | null;
   profiles?: RunProfileData[];
   likelihoodProfiles?: LikelihoodProfileData[];
   rivalModels?: RivalModelData[];
@@ -337,6 +339,50 @@ export interface SizingReportData {
   warnings: ReportWarning[];
   /** Cautions that must be read before using the size (always shown prominently). */
   cautions: string[];
+  /** The plant pellet: effectiveness factor along the bed and the pellet trade-off; null without a pellet. */
+  pellet?: PelletReportData | null;
+}
+
+/** The plant pellet in a sizing report (lengths in mm, masses in kg, pressures in kPa). */
+export interface PelletReportData {
+  /** 'numerical' (collocation solve at each point) or 'generalized' (Bischoff's modulus). */
+  method: 'numerical' | 'generalized';
+  /** Shape and the rule used for it. */
+  shape: string;
+  diameterMm: number;
+  /** Diameter used by the bed correlations, 6 Vp/Sp, mm. */
+  equivalentDiameterMm: number;
+  /** Effective diffusivity per species, m2/s. */
+  effectiveDiffusivity: { species: string; value: number }[];
+  /** eta per reaction along the bed (size in kg, conversion of the key species as a fraction). */
+  profile: { keySpecies: string; series: { reaction: string; points: { size: number; conversion: number; eta: number }[] }[] };
+  /** Catalyst mass with the pellet (nominal fit) and with intrinsic kinetics alone, kg. */
+  nominalSize: number | null;
+  intrinsicSize: number | null;
+  pelletSolves: number;
+  /** Film at the bed inlet: correlations, Reynolds number, internal and overall effectiveness per reaction. */
+  film?: { correlations: string[]; reynolds: number; rows: { reaction: string; internal: number; overall: number }[] } | null;
+  tradeOff: {
+    tubeCount: number | null;
+    /** Allowed pressure drop, kPa, when the case has tubes. */
+    allowedKPa: number | null;
+    rows: { diameterMm: number; catalystMass: number | null; pressureDropKPa: number | null; etaInlet: number; status: string }[];
+  };
+}
+
+/** Transport diagnostics of the lab runs in a fit report. */
+export interface TransportReportData {
+  /** Where the observed rates came from, in words. */
+  rateSource: string;
+  keyReactant: string;
+  reaction: string;
+  /** Observed rate in mol/(kg s); Weisz-Prater and Mears numbers dimensionless; Prater rise in K. */
+  rows: { runId: string; observedRate: number; weiszPrater: number; mearsMass: number | null; mearsHeat: number | null; praterRise: number | null; intrinsic: boolean; failed: string[] }[];
+  limits: { weiszPrater: number; mears: number };
+  correlations: string[];
+  /** What transport limits do to fitted parameters. */
+  note: string;
+  skipped: number;
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -18,6 +18,7 @@ import type { LongSourceSpec, MeasureSpec, PerRunSourceSpec, SourceSpec } from '
 import { Ledger, assertNoRejections, buildReport, checkAboveInlet, checkElementBalance, findReplicates, mergeDuplicateRuns, pureErrors } from '../data/validation';
 import schemaJson from '../../schema/study.schema.json';
 import { checkSchema, type JsonSchema } from './schema-check';
+import { loadTransport } from './transport';
 import { locatePath } from './locate';
 import { buildParameters, parameterRoles, referencedNames, type ParameterSpec } from './parameters';
 import { ratesOnlyRuns } from './rate-runs';
@@ -45,6 +46,7 @@ interface RawStudy {
   errorModels?: Record<string, { absolute?: MeasureSpec; relative?: number; replicates?: true }>;
   candidates?: { name: string; description?: string; nests?: string; reactions: Record<string, RateLawSpec>; parameters?: ParameterSpec[] }[];
   checks?: Partial<CheckSettings> & { strict?: boolean };
+  transport?: unknown;
 }
 
 export interface LoadOptions {
@@ -489,6 +491,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     errorModels: models,
     candidates,
     replicateGroups,
+    ...(raw.transport !== undefined ? { transport: loadTransport(raw.transport, speciesNames, raw.reactions.map((r) => r.id)) } : {}),
   };
   const notes = perRun.flatMap((m) => m.rateNotes ?? []);
   if (notes.length) study.rateNotes = notes;

@@ -9,6 +9,8 @@ import type { ReactorSpec, RunConditions } from '../reactors/types';
 import type { ReplicateGroup, ValidationReport } from '../data/report';
 import type { ResponseKind } from '../data/spec';
 import type { RunParameterRef } from '../data/run-parameters';
+import type { PelletSpec } from '../pellets/types';
+import type { PelletFluid } from '../pellets/load';
 
 export type { ResponseKind } from '../data/spec';
 
@@ -105,6 +107,16 @@ export interface CandidateSet {
   autoStart?: string[];
 }
 
+/** The lab pellet and tube (study `transport`), SI: what the transport diagnostics of the runs need. */
+export interface StudyTransport {
+  pellet: PelletSpec;
+  fluid: PelletFluid;
+  /** Inner diameter of the lab tube, m. */
+  tubeDiameter?: number;
+  /** Reaction enthalpy per reaction id, J/mol. */
+  reactionEnthalpy: Record<string, number>;
+}
+
 export interface Study {
   title?: string;
   /** Path of the study file as given. */
@@ -135,6 +147,8 @@ export interface Study {
   replicateGroups: ReplicateGroup[];
   /** Where measured rates are evaluated and how derived rates were formed, one sentence per source. */
   rateNotes?: string[];
+  /** The lab pellet, for transport diagnostics of the runs (absent when the study gives none). */
+  transport?: StudyTransport;
 }
 
 export interface LoadedStudy {

@@ -5,6 +5,7 @@
 import type { SizingResult } from '../design/size';
 import type { SizingReportData } from '../report/types';
 import { VERSION } from '../version';
+import { pelletReportData } from './pellet-report-data';
 
 function targetText(r: SizingResult): SizingReportData['target'] {
   const t = r.target;
@@ -78,5 +79,6 @@ export function sizingReportData(r: SizingResult): SizingReportData {
     draws: u ? { total: u.draws, failed: u.failed.count } : null,
     warnings: r.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.path ? { path: w.path } : {}) })),
     cautions: r.cautions,
+    pellet: r.pellet ? pelletReportData(r.pellet, r.size?.value ?? null) : null,
   };
 }

@@ -6,13 +6,14 @@ import { correlationCharts } from './correlation';
 import { likelihoodCharts } from './likelihood';
 import { parityCharts } from './parity';
 import { productionCharts } from './production';
+import { pelletCharts } from './pellets';
 import { profileCharts } from './profiles';
 import { residualCharts } from './residuals';
 import { rivalCharts } from './rivals';
 import { sensitivityCharts } from './sensitivity';
 import { sizeDistributionCharts } from './size-distribution';
 
-export { correlationCharts, likelihoodCharts, parityCharts, productionCharts, profileCharts, residualCharts, rivalCharts, sensitivityCharts, sizeDistributionCharts };
+export { correlationCharts, likelihoodCharts, parityCharts, pelletCharts, productionCharts, profileCharts, residualCharts, rivalCharts, sensitivityCharts, sizeDistributionCharts };
 export { binSamples } from './size-distribution';
 
 /** Charts of a fit report grouped by section. */
@@ -42,6 +43,7 @@ export interface SizingChartGroups {
   production: ChartSpec[];
   distribution: ChartSpec[];
   sensitivity: ChartSpec[];
+  pellet: ChartSpec[];
 }
 
 /** Build every sizing chart. */
@@ -50,5 +52,6 @@ export function sizingCharts(data: SizingReportData): SizingChartGroups {
     production: productionCharts(data.productionProfile),
     distribution: sizeDistributionCharts(data),
     sensitivity: sensitivityCharts(data),
+    pellet: pelletCharts(data.pellet),
   };
 }

@@ -1,0 +1,168 @@
+/**
+ * The plant pellet in the bed balances: a RateHook (system.ts) that multiplies the intrinsic rates
+ * by the pellet's effectiveness factor at the local bulk state. The factor comes from the pellet
+ * model of src/pellets (numerical collocation solve or Bischoff's generalized modulus) through an
+ * EtaTable keyed by the conversion of the key species, so the pellet is solved about once per
+ * `etaStep` of conversion, not at every right-hand-side call. The table is built with the nominal
+ * parameters and kept for the Monte Carlo draws (eta as a function of the key conversion: the
+ * spread of the size leaves out how eta itself moves with the parameters); it is rebuilt when the
+ * pressure-drop parameter changes (another tube count).
+ */
+import type { CompiledKinetics } from '../kinetics/compiled';
+import type { SpeciesSpec } from '../chemistry/spec';
+import { RateloomError } from '../core/errors';
+import { EffectivenessEvaluator, type PelletModel } from '../pellets/effectiveness';
+import { EtaTable } from '../pellets/eta-table';
+import { effectiveDiffusivities } from '../pellets/diffusivity';
+import { pelletGeometry } from '../pellets/geometry';
+import type { PelletSpec } from '../pellets/types';
+import type { DesignCase } from './case';
+import type { CasePellet } from './case-pellet';
+import { buildSystem, type DesignSystem, type RateHook } from './system';
+import { Sizer } from './sizer';
+import { Marcher } from './march';
+import type { OdeEvent } from '../numerics/ode-types';
+
+/** The pellet scaled to another diameter (all lengths in proportion). */
+export function scaledPellet(p: PelletSpec, diameter: number): PelletSpec {
+  const f = diameter / p.diameter;
+  return {
+    ...p,
+    diameter,
+    ...(p.length !== undefined ? { length: p.length * f } : {}),
+    ...(p.innerDiameter !== undefined ? { innerDiameter: p.innerDiameter * f } : {}),
+  };
+}
+
+/** Per reaction: compiled rate -> mol per m3 of pellet per s. */
+function rateToPellet(kinetics: CompiledKinetics, kase: DesignCase, rhoP: number): Float64Array {
+  return Float64Array.from(kinetics.basis, (b, i) => {
+    if (b === 'mass') return rhoP;
+    if (kase.bulkDensity === undefined) {
+      throw new RateloomError('E_CASE', `reaction '${kinetics.reactionIds[i]}' has a volume-based rate; the pellet needs the bed bulk density to convert it`, {
+        path: ['bulkDensity'], fix: 'Add "bulkDensity" (or tubes.bulkDensity), kg catalyst per m3 of bed.',
+      });
+    }
+    return rhoP / kase.bulkDensity;
+  });
+}
+
+/** The resolved pellet model of a case (SI). */
+export function casePelletModel(kinetics: CompiledKinetics, kase: DesignCase, cp: CasePellet, species: readonly SpeciesSpec[], pellet: PelletSpec = cp.pellet): PelletModel {
+  const geo = pelletGeometry(pellet);
+  const P = kase.pressure ?? 101325;
+  if (kase.reactor.phase === 'liquid' && pellet.molecularDiffusivity !== undefined && typeof pellet.molecularDiffusivity === 'object' && 'estimate' in pellet.molecularDiffusivity) {
+    throw new RateloomError('E_CASE', "Fuller's correlation estimates gas diffusivities; this case is liquid", { path: ['pellet', 'molecularDiffusivity'], fix: 'Give the molecular or effective diffusivity (m2/s).' });
+  }
+  const De = effectiveDiffusivities(pellet, species, kase.temperature, P, ['pellet']);
+  const model: PelletModel = {
+    kinetics, a: geo.a, R: geo.R, volumeToSurface: geo.volumeToSurface, De,
+    rateToPellet: rateToPellet(kinetics, kase, pellet.density), method: cp.method,
+  };
+  if (cp.nonIsothermal) {
+    if (pellet.thermalConductivity === undefined) {
+      throw new RateloomError('E_MISSING_FIELD', 'a non-isothermal pellet needs its thermal conductivity', { path: ['pellet', 'thermalConductivity'], fix: 'Add "thermalConductivity": "0.3 W/(m K)".' });
+    }
+    if (!kase.heat) {
+      throw new RateloomError('E_MISSING_FIELD', 'a non-isothermal pellet needs the reaction enthalpies', { path: ['heat', 'reactionEnthalpy'], fix: 'Add "heat": { "reactionEnthalpy": { "r1": "-90 kJ/mol" }, "heatCapacity": ... }.' });
+    }
+    const h = kase.heat.reactionEnthalpy;
+    model.thermal = { conductivity: pellet.thermalConductivity, enthalpy: Float64Array.from(kinetics.reactionIds, (id) => h[id] ?? 0) };
+  }
+  return model;
+}
+
+/** Key species of the eta table: the target species of a conversion target, else the first fed reactant. */
+export function keySpecies(kinetics: CompiledKinetics, kase: DesignCase): number {
+  if (kase.target.kind === 'conversion') return kase.species.indexOf(kase.target.species);
+  const nS = kinetics.speciesNames.length;
+  for (let j = 0; j < nS; j++) {
+    for (let i = 0; i < kinetics.reactionIds.length; i++) if (kinetics.stoich[i * nS + j] < 0 && kase.feed[j] > 0) return j;
+  }
+  return 0;
+}
+
+/** Conversion of the key species up to which the learning pass fills the table. */
+function learnUpTo(kase: DesignCase): number {
+  return kase.target.kind === 'conversion' ? Math.min(0.995, kase.target.value + 0.05) : 0.99;
+}
+
+/**
+ * The rate hook: rates times eta from the table. The table is filled by a learning pass, an
+ * integration of the bed with the nominal parameters at the current pressure-drop parameter, in
+ * which the pellet is solved wherever the table cannot interpolate within `etaStep`; afterwards
+ * (the sizing itself, the Monte Carlo draws) eta is only interpolated, never solved. The table is
+ * thus a function of the case, the nominal parameters and alpha alone, so serial and worker
+ * Monte Carlo paths see the same numbers. A new alpha (another tube count) starts a new pass.
+ */
+export class PelletRateHook implements RateHook {
+  readonly table: EtaTable;
+  readonly evaluator: EffectivenessEvaluator;
+  private readonly eta: Float64Array;
+  private readonly theta: Float64Array;
+  private alpha = NaN;
+  private learning = false;
+  private sys?: DesignSystem;
+  /** Pellet solves that did not converge (their eta is still used). */
+  failures = 0;
+  lastFailure?: string;
+
+  constructor(readonly model: PelletModel, private readonly kase: DesignCase, theta: ArrayLike<number>, private readonly key: number, private readonly inlet: number, step: number) {
+    this.theta = Float64Array.from(theta);
+    this.evaluator = new EffectivenessEvaluator(model, this.theta);
+    this.table = new EtaTable(model.kinetics.reactionIds.length, step);
+    this.eta = new Float64Array(model.kinetics.reactionIds.length);
+  }
+
+  /** The system whose pressure-drop parameter the table follows. */
+  bind(sys: DesignSystem): void {
+    this.sys = sys;
+  }
+
+  /** Progress coordinate: conversion of the key species at state y. */
+  progress(y: ArrayLike<number>): number {
+    return this.inlet > 0 ? 1 - y[this.key] / this.inlet : 0;
+  }
+
+  /** Fill the table for pressure-drop parameter alpha by integrating the nominal bed. */
+  learn(alpha: number): void {
+    this.table.clear();
+    this.alpha = alpha;
+    this.learning = true;
+    try {
+      const sys = buildSystem(this.model.kinetics, this.kase, this.theta, this);
+      sys.alpha = alpha;
+      const sizer = new Sizer(sys);
+      const est = sizer.initialEstimate();
+      const end = learnUpTo(this.kase);
+      if (Number.isFinite(est) && est > 0) {
+        const events: OdeEvent[] = [{ name: 'end', g: (_t, y) => this.progress(y) - end, direction: 1, terminal: true }];
+        if (sys.hasPressure) events.push({ name: 'pressure', g: (_t, y) => y[sys.nS], direction: -1, terminal: true });
+        new Marcher(sys.dim).integrate(sys.rhs, 0, sys.y0, est * 1e6, { rtol: 1e-8, events });
+      }
+    } finally {
+      this.learning = false;
+    }
+  }
+
+  apply(t: number, y: Float64Array, C: Float64Array, T: number, r: Float64Array): void {
+    const eta = this.eta;
+    const x = this.progress(y);
+    if (this.learning) {
+      if (!this.table.lookup(x, eta)) {
+        const res = this.evaluator.evaluate(C, T);
+        if (!res.ok) {
+          this.failures++;
+          this.lastFailure = res.detail;
+        }
+        eta.set(res.factor);
+        this.table.insert(x, eta, t);
+      }
+    } else {
+      const alpha = this.sys ? this.sys.alpha : 0;
+      if (alpha !== this.alpha) this.learn(alpha);
+      if (!this.table.interpolate(x, eta)) eta.fill(1);
+    }
+    for (let i = 0; i < r.length; i++) r[i] *= eta[i];
+  }
+}

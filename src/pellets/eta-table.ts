@@ -1,0 +1,110 @@
+/**
+ * A table of effectiveness factors along a bed, keyed by a progress coordinate that grows along
+ * the bed (the conversion of the key species), so that a bed integration solves the pellet only
+ * every `step` of progress instead of at every right-hand-side call.
+ *
+ * Method: piecewise-linear interpolation between stored entries no further apart than `step`;
+ * a query past the last entry (or before the first) by less than `step` is extrapolated linearly
+ * from the two nearest entries; any other query asks for a new pellet solve at the current state,
+ * which is stored. The table therefore holds eta at states the integration actually visited, and
+ * the interpolation error is of order step^2 |d2 eta/dx2| / 8 (linear interpolation error bound,
+ * e.g. K.E. Atkinson, An Introduction to Numerical Analysis, 2nd ed., 1989, sec. 3.2).
+ */
+
+export class EtaTable {
+  private xs: number[] = [];
+  private rows: Float64Array[] = [];
+  /** Size coordinate at which each entry was computed (for reports). */
+  private where: number[] = [];
+
+  /**
+   * @param nR values per entry (one per reaction)
+   * @param step largest progress gap bridged by interpolation (default 0.02)
+   */
+  constructor(readonly nR: number, readonly step = 0.02) {}
+
+  get size(): number {
+    return this.xs.length;
+  }
+
+  /** Index of the first entry with xs >= x. */
+  private lowerBound(x: number): number {
+    let lo = 0;
+    let hi = this.xs.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (this.xs[mid] < x) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  }
+
+  /** Interpolated (or extrapolated) values at x into out; false when a new solve is needed. */
+  lookup(x: number, out: Float64Array): boolean {
+    const n = this.xs.length;
+    if (n === 0) return false;
+    const k = this.lowerBound(x);
+    if (k < n && this.xs[k] === x) {
+      out.set(this.rows[k]);
+      return true;
+    }
+    let i: number;
+    let j: number;
+    if (k > 0 && k < n) {
+      if (this.xs[k] - this.xs[k - 1] > this.step) return false;
+      [i, j] = [k - 1, k];
+    } else {
+      if (n < 2) return false;
+      [i, j] = k === 0 ? [0, 1] : [n - 2, n - 1];
+      const edge = k === 0 ? this.xs[0] : this.xs[n - 1];
+      if (Math.abs(x - edge) > this.step || this.xs[j] - this.xs[i] > this.step) return false;
+    }
+    const w = (x - this.xs[i]) / (this.xs[j] - this.xs[i]);
+    const a = this.rows[i];
+    const b = this.rows[j];
+    for (let q = 0; q < this.nR; q++) out[q] = a[q] + w * (b[q] - a[q]);
+    return true;
+  }
+
+  /**
+   * Values at x from the table as it stands, never asking for a solve: linear between the two
+   * neighbours whatever their gap, and the end value beyond either end. False when empty.
+   */
+  interpolate(x: number, out: Float64Array): boolean {
+    const n = this.xs.length;
+    if (n === 0) return false;
+    const k = this.lowerBound(x);
+    if (k === 0 || k === n) {
+      out.set(this.rows[k === 0 ? 0 : n - 1]);
+      return true;
+    }
+    const w = (x - this.xs[k - 1]) / (this.xs[k] - this.xs[k - 1]);
+    const a = this.rows[k - 1];
+    const b = this.rows[k];
+    for (let q = 0; q < this.nR; q++) out[q] = a[q] + w * (b[q] - a[q]);
+    return true;
+  }
+
+  /** Store values at progress x (computed at size coordinate t). */
+  insert(x: number, values: Float64Array, t: number): void {
+    const k = this.lowerBound(x);
+    if (k < this.xs.length && this.xs[k] === x) {
+      this.rows[k] = Float64Array.from(values);
+      return;
+    }
+    this.xs.splice(k, 0, x);
+    this.rows.splice(k, 0, Float64Array.from(values));
+    this.where.splice(k, 0, t);
+  }
+
+  /** The entries in progress order. */
+  entries(): { progress: number; at: number; values: Float64Array }[] {
+    return this.xs.map((x, k) => ({ progress: x, at: this.where[k], values: this.rows[k] }));
+  }
+
+  clear(): void {
+    this.xs = [];
+    this.rows = [];
+    this.where = [];
+  }
+}
