@@ -13,6 +13,8 @@ import type { ValidationReport } from '../src/data/report';
 import { readText } from './io';
 import { runCommand } from './run';
 import { g } from './format';
+import { formatTransport } from './transport-text';
+import { checkLabTransport } from '../src/workflow/lab-transport';
 
 const EXAMPLE = `
 Example:
@@ -84,10 +86,11 @@ export function registerCheck(program: Command): void {
         const text = readText(studyPath, 'study file');
         const { study, report } = loadStudy(text, studyPath, (abs) => readText(abs, 'data file'), flags.strict ? { strict: true } : {});
         const summary = summarizeStudy(study, report);
+        const transport = checkLabTransport(study);
         const ok = summary.observations > 0 && summary.degreesOfFreedom > 0;
         return {
-          json: { status: ok ? 'ok' : 'nothing-to-fit', summary, report },
-          text: formatCheck(summary, report) + (ok ? '' : '\nNothing left to fit: add observations or fix parameters.'),
+          json: { status: ok ? 'ok' : 'nothing-to-fit', summary, report, ...(transport ? { transport } : {}) },
+          text: formatCheck(summary, report) + (transport ? `\n\n${formatTransport(transport)}` : '') + (ok ? '' : '\nNothing left to fit: add observations or fix parameters.'),
           trustworthy: ok,
         };
       });

@@ -5,6 +5,7 @@
  * Exit code from the fit's verdict (src/estimation/verdict.ts): 0 trustworthy, 1 finished but not
  * to be trusted, 2 bad input.
  */
+import { formatTransport } from './transport-text';
 import type { Command } from 'commander';
 import { join } from 'node:path';
 import { RateloomError } from '../src/core/errors';
@@ -176,10 +177,11 @@ export function registerFit(program: Command): void {
             derived: sf.derived,
             ...(sf.minima ? { minima: sf.minima } : {}),
             ...(sf.startValues ? { startValues: { estimated: sf.startValues.estimated, points: sf.startValues.points, notes: sf.startValues.notes } } : {}),
+            ...(sf.transport ? { transport: sf.transport } : {}),
             data: { rowsIn: report.rowsIn, rowsUsed: report.rowsUsed, rowsRejected: report.rowsRejected },
             outputs: { handoff: handoffPath, ...(reportPaths ?? {}) },
           },
-          text: formatFit(study, sf),
+          text: formatFit(study, sf) + (sf.transport ? `\n\n${formatTransport(sf.transport)}` : ''),
         };
       });
     });

@@ -3,6 +3,7 @@
  * (report/types.ts). Only reshapes numbers it is handed, plus one profile solve per profiled run
  * at the fitted parameters for the predicted curves.
  */
+import { transportReportData } from './pellet-report-data';
 import type { Comparison } from '../estimation/compare';
 import type { FitReportData, ParameterRowData, RunObservationData, RunProfileData, RivalModelData, StartValuesData } from '../report/types';
 import type { Study } from '../study/types';
@@ -166,6 +167,7 @@ export function fitReportData(study: Study, sf: StudyFit, comparison?: Compariso
         : null,
     },
     runs: runRows(study, sf),
+    transport: sf.transport ? transportReportData(sf.transport) : null,
     profiles: profiles(study, sf),
     likelihoodProfiles: fit.profiles.map((pr) => {
       const p = fit.parameters.find((q) => q.name === pr.name)!;

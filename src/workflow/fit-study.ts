@@ -15,6 +15,7 @@ import { studyFitData, type StudyFitData } from './fit-data';
 import { StudyModel, baseVariant, candidateVariant, type ModelVariant, type StudyModelOptions } from './study-model';
 import { estimateStartValues, type StartValueOptions, type StartValues } from './start-values';
 import { VERSION } from '../version';
+import { fittedLabTransport, type LabTransport } from './lab-transport';
 
 export interface StudyFitOptions extends FitOptions {
   /** Candidate rate-law set to fit ('base' = the study's own rate laws); default 'base'. */
@@ -45,6 +46,8 @@ export interface StudyFit {
   derived: DerivedQuantity[];
   /** The starting values rateloom estimated, and how (absent when the study gave every value). */
   startValues?: StartValues;
+  /** Transport diagnostics of the lab runs with the fitted rates (study with a lab pellet only). */
+  transport?: LabTransport;
 }
 
 /** Names of the parameters of a rate-law set whose start the study left open. */
@@ -97,9 +100,11 @@ export function planStudyFit(study: Study, options: StudyFitOptions = {}): Study
 export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult, minima?: Minimum[]): StudyFit {
   const named = nameObservations(fit, study);
   const derived = derivedQuantities(named, plan.variant.reactions.map((r) => r.rate), study.referenceTemperature);
+  const transport = fittedLabTransport(study, plan.model, named);
   return {
+    ...(transport ? { transport } : {}),
     variant: plan.variant.name,
-    fit: named,
+    fit: transport ? { ...named, warnings: [...named.warnings, ...transport.warnings] } : named,
     model: plan.model,
     data: plan.data,
     ...(minima ? { minima } : {}),

@@ -11,6 +11,8 @@
 import type { Study, StudyRun } from '../study/types';
 import type { CompiledKinetics } from '../kinetics/compiled';
 import type { Warning } from '../core/outcome';
+import type { FitResult } from '../estimation/fit-types';
+import type { StudyModel } from './study-model';
 import { GAS_CONSTANT } from '../kinetics/temperature';
 import { molarMassOf } from '../chemistry/formula';
 import { measuredConversions } from '../study/summary';
@@ -40,8 +42,11 @@ export interface LabTransport {
 /** Parameter values by name: fitted values after a fit, start values before. */
 export type ParameterValues = ReadonlyMap<string, number>;
 
+/** What the diagnostics read of the reactions: names and stoichiometry (chemistry or compiled kinetics). */
+type Stoichiometry = Pick<CompiledKinetics, 'speciesNames' | 'reactionIds' | 'stoich'>;
+
 /** Index of the first reaction consuming species j. */
-function consumingReaction(kin: CompiledKinetics, j: number): number {
+function consumingReaction(kin: Stoichiometry, j: number): number {
   const nS = kin.speciesNames.length;
   for (let i = 0; i < kin.reactionIds.length; i++) if (kin.stoich[i * nS + j] < 0) return i;
   return -1;
@@ -81,11 +86,12 @@ function activationEnergy(study: Study, i: number, values: ParameterValues): num
  * Diagnostics of every packed-bed run. `rates`, when given, returns the fitted rate of the key
  * reactant (mol/(kg s)) at a run's inlet; without it the measured mean rate is used.
  */
-export function labTransport(study: Study, kinetics: CompiledKinetics, values: ParameterValues, rates?: (runIndex: number, C: Float64Array) => number): LabTransport | undefined {
+export function labTransport(study: Study, kinetics: Stoichiometry, values: ParameterValues, rates?: (runIndex: number, C: Float64Array) => number): LabTransport | undefined {
   const tr = study.transport;
   if (!tr || study.reactor.kind !== 'packed-bed') return undefined;
   const key = study.keyReactantIndex;
   const i = consumingReaction(kinetics, key);
+  if (i < 0) return undefined;
   const geo = pelletGeometry(tr.pellet);
   const enthalpy = tr.reactionEnthalpy[kinetics.reactionIds[i]];
   const E = activationEnergy(study, i, values);
@@ -165,4 +171,38 @@ function dedupe(ws: Warning[]): Warning[] {
     seen.add(k);
     return true;
   });
+}
+
+/**
+ * Diagnostics after a fit: the observed rate of each run is the fitted rate of the key reactant at
+ * its inlet (per kg catalyst), with the fitted parameter values (per run group where they differ).
+ */
+export function fittedLabTransport(study: Study, model: StudyModel, fit: FitResult): LabTransport | undefined {
+  if (!study.transport || study.reactor.kind !== 'packed-bed') return undefined;
+  const byName = new Map(fit.parameters.map((p) => [p.name, p.value]));
+  const external = Float64Array.from(model.parameters, (p) => byName.get(p.name) ?? p.value);
+  const kin = model.kinetics;
+  const nS = kin.speciesNames.length;
+  const key = study.keyReactantIndex;
+  const r = new Float64Array(kin.reactionIds.length);
+  const rb = study.reactor.bulkDensity;
+  const rate = (runIndex: number, C: Float64Array): number => {
+    kin.rates(C, study.runs[runIndex].temperature, model.kineticsTheta(runIndex, external), r);
+    let s = 0;
+    for (let i = 0; i < r.length; i++) {
+      const w = kin.basis[i] === 'mass' ? 1 : rb !== undefined ? 1 / rb : NaN;
+      s -= kin.stoich[i * nS + key] * w * r[i];
+    }
+    return s;
+  };
+  return labTransport(study, kin, byName, rate);
+}
+
+/**
+ * Diagnostics before a fit (`rateloom check`): measured mean rates, and the start values of the
+ * study's parameters where a number is needed (activation energy, a fitted order).
+ */
+export function checkLabTransport(study: Study): LabTransport | undefined {
+  if (!study.transport || study.reactor.kind !== 'packed-bed') return undefined;
+  return labTransport(study, study.chemistry, new Map(study.parameters.map((p) => [p.name, p.value])));
 }

@@ -160,6 +160,12 @@ export class StudyModel implements RegressionModel {
     return solveReactor(this.study.reactor, run, this.kinetics, this.thetaK.slice(), { ...this.reactorOptions, ...options });
   }
 
+  /** The kinetics' parameter vector of one run from external (SI) values of all parameters (a copy). */
+  kineticsTheta(runIndex: number, external: Float64Array): Float64Array {
+    this.fillKinetics(runIndex, external);
+    return this.thetaK.slice();
+  }
+
   /** External (SI) values from estimation-space values. */
   toExternal(theta: Float64Array, out: Float64Array = new Float64Array(theta.length)): Float64Array {
     this.parameters.forEach((p, i) => {
