@@ -9,6 +9,7 @@
  *   (e) one packed-bed ODE solve against a C Dormand-Prince 5(4) (bench/c/dopri5_pbr.c, gcc -O2)
  *   (f) exact Jacobian (forward sensitivities) against central differences
  *   (g) worker-thread pool: serial vs 2 workers (src/parallel/)
+ *   (h) plant sizing with a numerically solved pellet vs without pellets (bench/pellet-sizing.ts)
  *   plus the existing single benchmarks (pbr-solve, csv-load).
  * Wall times are medians; CPU time of this process is printed beside them because a shared machine
  * can inflate wall time. Run: npm run bench [-- --quick]
@@ -25,6 +26,7 @@ import { runMcSizing } from './mc-sizing';
 import { cases, runPbrSolve } from './pbr-solve';
 import { studyAsJson, syntheticStudy } from './synthetic-study';
 import { runParallelBench } from './parallel-bench';
+import { runPelletSizing } from './pellet-sizing';
 import { checkJacobian } from '../src/estimation/jacobian-check';
 
 const quick = process.argv.includes('--quick');
@@ -180,6 +182,12 @@ const par = await runParallelBench(quick, { drawsMs: mc.drawsMs, medianKg: mc.me
 for (const l of par.lines) console.log(`  ${l}`);
 report.parallel = par.results;
 
+// ---------------------------------------------------------------- (h) pellets
+section('(h) plant sizing with a numerically solved pellet vs without pellets');
+const pel = runPelletSizing(quick ? 3 : 7);
+for (const l of pel.lines) console.log(`  ${l}`);
+report.pelletSizing = { plainMs: pel.plainMs, pelletMs: pel.pelletMs, ratio: pel.ratio, pelletSolves: pel.pelletSolves, directMs: pel.directMs, sizeKg: pel.sizeKg, intrinsicKg: pel.intrinsicKg };
+
 // ---------------------------------------------------------------- existing single benchmarks
 section('pbr-solve');
 for (const l of runPbrSolve(quick ? 50 : 200).lines) console.log(`  ${l}`);
@@ -194,6 +202,7 @@ target('time linear in runs', linear, `time per solve at ${lastRow.runs} / ${fir
 const ten = scaling.find((r) => r.runs === 10000);
 target('10,000 runs fitted in < 30 s', !!ten && ten.wallMs < 30000, ten ? `${fmt(ten.wallMs)} wall (${fmt(ten.cpuMs)} cpu)` : 'not run (--quick)');
 target('10,000 Monte Carlo draws < 10 s', draws === 10000 && mc.drawsMs < 10000, `${fmt(mc.drawsMs)} for ${draws} draws`);
+target('sizing with a numerically solved pellet within 20x of sizing without pellets', pel.ratio <= 20, `${pel.ratio.toFixed(1)}x (${fmt(pel.pelletMs)} vs ${fmt(pel.plainMs)}, ${pel.pelletSolves} pellet solves)`);
 report.targets = targets;
 writeFileSync(`${outDir}bench.json`, JSON.stringify(report, null, 2));
 console.log(`\nwrote ${outDir}bench.json`);

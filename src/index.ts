@@ -27,6 +27,10 @@ export { arrhenius, vantHoff, GAS_CONSTANT } from './kinetics/temperature';
 export { solveReactor, REACTOR_MODELS, ergunAlpha, resolveAlpha } from './reactors';
 export type { ReactorSpec, ReactorKind, RunConditions, ReactorOptions, ReactorSolution, ReactorProfile, ErgunInputs } from './reactors/types';
 
+// Catalyst pellets: effectiveness factors, film transfer, lab-run transport diagnostics.
+export * from './pellets';
+export { labTransport, checkLabTransport, fittedLabTransport, type LabTransport } from './workflow/lab-transport';
+
 // Numerics.
 export { integrate, newton, brent, findAllRoots, solveLinear } from './numerics';
 export type { OdeOptions, OdeResult, OdeEvent } from './numerics';

@@ -16,7 +16,7 @@ export interface CasePellet extends LoadedPellet {
   nonIsothermal: boolean;
   /** Pellet diameters (m) of the trade-off table; default 0.5, 0.75, 1, 1.5 and 2 times the plant pellet. */
   tradeOff: number[];
-  /** Conversion step of the effectiveness-factor table along the bed; default 0.02. */
+  /** Conversion step of the effectiveness-factor table along the bed; default 0.05. */
   etaStep: number;
 }
 
@@ -48,7 +48,7 @@ export function loadCasePellet(raw: unknown, species: readonly string[], tubeDia
       return v;
     });
   }
-  let etaStep = 0.02;
+  let etaStep = 0.05;
   if (o.etaStep !== undefined) {
     if (typeof o.etaStep !== 'number' || !(o.etaStep >= 1e-4 && o.etaStep <= 0.2)) {
       throw new RateloomError('E_VALUE', 'etaStep must be a number in [0.0001, 0.2]', { path: [...path, 'etaStep'] });

@@ -6,9 +6,10 @@
  * Method: piecewise-linear interpolation between stored entries no further apart than `step`;
  * a query past the last entry (or before the first) by less than `step` is extrapolated linearly
  * from the two nearest entries; any other query asks for a new pellet solve at the current state,
- * which is stored. The table therefore holds eta at states the integration actually visited, and
- * the interpolation error is of order step^2 |d2 eta/dx2| / 8 (linear interpolation error bound,
- * e.g. K.E. Atkinson, An Introduction to Numerical Analysis, 2nd ed., 1989, sec. 3.2).
+ * which is stored. The table therefore holds eta at states the integration actually visited.
+ * Once filled, `interpolate` reads it by quadratic Lagrange interpolation through the three nearest
+ * entries, with an error of order step^3 |d3 eta/dx3| (interpolation error bound, e.g. K.E.
+ * Atkinson, An Introduction to Numerical Analysis, 2nd ed., 1989, sec. 3.2).
  */
 
 export class EtaTable {
@@ -19,9 +20,9 @@ export class EtaTable {
 
   /**
    * @param nR values per entry (one per reaction)
-   * @param step largest progress gap bridged by interpolation (default 0.02)
+   * @param step largest progress gap bridged by interpolation (default 0.05)
    */
-  constructor(readonly nR: number, readonly step = 0.02) {}
+  constructor(readonly nR: number, readonly step = 0.05) {}
 
   get size(): number {
     return this.xs.length;
@@ -67,21 +68,31 @@ export class EtaTable {
   }
 
   /**
-   * Values at x from the table as it stands, never asking for a solve: linear between the two
-   * neighbours whatever their gap, and the end value beyond either end. False when empty.
+   * Values at x from the table as it stands, never asking for a solve: quadratic through the
+   * three nearest entries (linear with two, the value itself with one), and the end value beyond
+   * either end. False when empty.
    */
   interpolate(x: number, out: Float64Array): boolean {
     const n = this.xs.length;
     if (n === 0) return false;
     const k = this.lowerBound(x);
-    if (k === 0 || k === n) {
+    if (k === 0 || k === n || n === 1) {
       out.set(this.rows[k === 0 ? 0 : n - 1]);
       return true;
     }
-    const w = (x - this.xs[k - 1]) / (this.xs[k] - this.xs[k - 1]);
-    const a = this.rows[k - 1];
-    const b = this.rows[k];
-    for (let q = 0; q < this.nR; q++) out[q] = a[q] + w * (b[q] - a[q]);
+    if (n === 2) {
+      const w = (x - this.xs[0]) / (this.xs[1] - this.xs[0]);
+      for (let q = 0; q < this.nR; q++) out[q] = this.rows[0][q] + w * (this.rows[1][q] - this.rows[0][q]);
+      return true;
+    }
+    // the three nodes around x: k-1, k and the nearer of k-2 and k+1
+    const i0 = k + 1 >= n || (k >= 2 && x - this.xs[k - 2] < this.xs[k + 1] - x) ? k - 2 : k - 1;
+    const [x0, x1, x2] = [this.xs[i0], this.xs[i0 + 1], this.xs[i0 + 2]];
+    const l0 = ((x - x1) * (x - x2)) / ((x0 - x1) * (x0 - x2));
+    const l1 = ((x - x0) * (x - x2)) / ((x1 - x0) * (x1 - x2));
+    const l2 = ((x - x0) * (x - x1)) / ((x2 - x0) * (x2 - x1));
+    const [a, b, c] = [this.rows[i0], this.rows[i0 + 1], this.rows[i0 + 2]];
+    for (let q = 0; q < this.nR; q++) out[q] = l0 * a[q] + l1 * b[q] + l2 * c[q];
     return true;
   }
 

@@ -15,6 +15,7 @@
  * R.B. Schnabel, Numerical Methods for Unconstrained Optimization and Nonlinear Equations, 1983,
  * sec. 6.3). eta is integrated by Gauss-Legendre quadrature in x of the rates at the interpolated
  * profile. The number of collocation points grows with the linearised Thiele modulus at the surface.
+ * Species no rate depends on are left out of the unknowns (they cannot change eta).
  */
 import type { CompiledKinetics } from '../kinetics/compiled';
 import { luFactor, luSolve } from '../numerics/lu';
@@ -85,18 +86,23 @@ export function nodesFor(phi: number): number {
 export class PelletSolver {
   readonly nS: number;
   readonly nR: number;
-  /** Unknowns per point: nS (+1 with the temperature). */
-  readonly m: number;
+  /** Unknowns per point in the current solve: active species (+1 with the temperature). */
+  private m = 0;
+  /** Species solved for in the current solve (those some rate depends on), by component. */
+  private act: Int32Array = new Int32Array(0);
+  private readonly thermalIndex: boolean;
   private readonly r: Float64Array;
   private readonly r2: Float64Array;
   private readonly jc: Float64Array;
+  /** Full concentration vector at a point (passive species at their surface value). */
   private readonly Cpt: Float64Array;
+  private fixedT = 0;
 
   constructor(readonly problem: PelletProblem, readonly theta: Float64Array) {
     const k = problem.kinetics;
     this.nS = k.speciesNames.length;
     this.nR = k.reactionIds.length;
-    this.m = this.nS + (problem.thermal ? 1 : 0);
+    this.thermalIndex = problem.thermal !== undefined;
     this.r = new Float64Array(this.nR);
     this.r2 = new Float64Array(this.nR);
     this.jc = new Float64Array(this.nR * this.nS);
@@ -117,63 +123,87 @@ export class PelletSolver {
     return R * Math.sqrt(worst);
   }
 
+  /**
+   * Species some rate depends on: a non-zero d r_i / d C_j at the surface state or at two other
+   * positive states. The rest (inerts, products no rate contains) cannot change eta and are not
+   * solved for; the profile reports them at their surface value.
+   */
+  private activeSpecies(Cs: Float64Array, Ts: number): Int32Array {
+    const { nS, nR, jc, Cpt } = this;
+    let mean = 0;
+    for (let j = 0; j < nS; j++) mean += Cs[j] / nS;
+    const used = new Uint8Array(nS);
+    for (const [f, g] of [[1, 0], [0.5, 0.1], [0.1, 0.5]]) {
+      for (let j = 0; j < nS; j++) Cpt[j] = f * Cs[j] + g * mean + (f === 1 ? 0 : 1e-3 * (j + 1) * mean);
+      this.problem.kinetics.ratesJacC(Cpt, Ts, this.theta, jc);
+      for (let i = 0; i < nR; i++) for (let j = 0; j < nS; j++) if (jc[i * nS + j] !== 0) used[j] = 1;
+    }
+    const act: number[] = [];
+    for (let j = 0; j < nS; j++) if (used[j]) act.push(j);
+    return Int32Array.from(act);
+  }
+
   /** Solve for surface concentrations Cs (mol/m3) and temperature Ts (K). */
   solve(Cs: Float64Array, Ts: number, options: PelletSolveOptions = {}): PelletSolution {
     const N = options.nodes ?? nodesFor(this.surfaceModulus(Cs, Ts));
     const g = grid(N, this.problem.a);
+    this.act = this.activeSpecies(Cs, Ts);
+    this.m = this.act.length + (this.thermalIndex ? 1 : 0);
+    this.fixedT = Ts;
+    this.Cpt.set(Cs);
     const z = this.initial(N, Cs, Ts);
-    const res = this.newton(g, z, Cs, Ts, options.maxIterations ?? 60);
+    const res = this.m === 0 ? { status: 'converged' as const, iterations: 0 } : this.newton(g, z, Cs, Ts, options.maxIterations ?? 60);
     return this.finish(g, z, Cs, Ts, res, options.profile === true);
   }
 
   private initial(N: number, Cs: Float64Array, Ts: number): Float64Array {
-    const { m, nS } = this;
+    const { m, act } = this;
     const z = new Float64Array(N * m);
     for (let k = 0; k < N; k++) {
-      for (let j = 0; j < nS; j++) z[k * m + j] = Cs[j];
-      if (m > nS) z[k * m + nS] = Ts;
+      for (let c = 0; c < act.length; c++) z[k * m + c] = Cs[act[c]];
+      if (this.thermalIndex) z[k * m + act.length] = Ts;
     }
     return z;
   }
 
-  /** Value of component c at point l (the surface point holds the boundary values). */
-  private value(z: Float64Array, N: number, l: number, c: number, Cs: Float64Array, Ts: number): number {
-    if (l < N) return z[l * this.m + c];
-    return c < this.nS ? Cs[c] : Ts;
+  /** Surface value of component c. */
+  private surfaceValue(c: number, Cs: Float64Array, Ts: number): number {
+    return c < this.act.length ? Cs[this.act[c]] : Ts;
   }
 
-  /** Rates at point k into `out` (mol/(m3 pellet s) before the stoichiometry). */
+  /** Rates at point k into `out`, per m3 of pellet (before the stoichiometry); returns T there. */
   private pointRates(z: Float64Array, k: number, out: Float64Array, dT = 0): number {
-    const { nS, m, Cpt } = this;
-    for (let j = 0; j < nS; j++) Cpt[j] = z[k * m + j];
-    const T = (m > nS ? z[k * m + nS] : this.fixedT) + dT;
+    const { m, act, Cpt } = this;
+    for (let c = 0; c < act.length; c++) Cpt[act[c]] = z[k * m + c];
+    const T = (this.thermalIndex ? z[k * m + act.length] : this.fixedT) + dT;
     this.problem.kinetics.rates(Cpt, T, this.theta, out);
     for (let i = 0; i < this.nR; i++) out[i] *= this.problem.rateToPellet[i];
     return T;
   }
 
-  private fixedT = 0;
+  /** Coefficient of reaction i in the balance of component c, and the balance's scale R^2/D. */
+  private coef(c: number, i: number): number {
+    const k = this.problem.kinetics;
+    return c < this.act.length ? k.stoich[i * this.nS + this.act[c]] : -this.problem.thermal!.enthalpy[i];
+  }
+  private scaleOf(c: number): number {
+    const { R, De, thermal } = this.problem;
+    return c < this.act.length ? (R * R) / De[this.act[c]] : (R * R) / thermal!.conductivity;
+  }
 
   /** Residual F(z), scaled so that the diffusion operator has unit coefficient. */
   residual(g: CollocationGrid, z: Float64Array, Cs: Float64Array, Ts: number, F: Float64Array): void {
     const { N, L } = g;
-    const { m, nS, nR, r } = this;
-    const { kinetics, De, R, thermal } = this.problem;
+    const { m, nR, r } = this;
     const n1 = N + 1;
     for (let k = 0; k < N; k++) {
       this.pointRates(z, k, r);
       for (let c = 0; c < m; c++) {
-        let s = 0;
-        for (let l = 0; l <= N; l++) s += L[k * n1 + l] * this.value(z, N, l, c, Cs, Ts);
+        let s = L[k * n1 + N] * this.surfaceValue(c, Cs, Ts);
+        for (let l = 0; l < N; l++) s += L[k * n1 + l] * z[l * m + c];
         let src = 0;
-        if (c < nS) {
-          for (let i = 0; i < nR; i++) src += kinetics.stoich[i * nS + c] * r[i];
-          src *= (R * R) / De[c];
-        } else if (thermal) {
-          for (let i = 0; i < nR; i++) src -= thermal.enthalpy[i] * r[i];
-          src *= (R * R) / thermal.conductivity;
-        }
-        F[k * m + c] = s + src;
+        for (let i = 0; i < nR; i++) src += this.coef(c, i) * r[i];
+        F[k * m + c] = s + src * this.scaleOf(c);
       }
     }
   }
@@ -181,8 +211,8 @@ export class PelletSolver {
   /** Jacobian dF/dz (n x n row-major, n = N m). */
   private jacobian(g: CollocationGrid, z: Float64Array, J: Float64Array): void {
     const { N, L } = g;
-    const { m, nS, nR, jc, r, Cpt } = this;
-    const { kinetics, De, R, thermal, rateToPellet } = this.problem;
+    const { m, nS, nR, jc, r, Cpt, act } = this;
+    const { kinetics, rateToPellet } = this.problem;
     const n = N * m;
     const n1 = N + 1;
     J.fill(0);
@@ -192,41 +222,32 @@ export class PelletSolver {
       kinetics.ratesJacC(Cpt, T, this.theta, jc);
       for (let c = 0; c < m; c++) {
         const row = (k * m + c) * n + k * m;
-        const scale = c < nS ? (R * R) / De[c] : (R * R) / thermal!.conductivity;
-        for (let q = 0; q < nS; q++) {
+        const scale = this.scaleOf(c);
+        for (let q = 0; q < act.length; q++) {
           let d = 0;
-          for (let i = 0; i < nR; i++) {
-            const coef = c < nS ? kinetics.stoich[i * nS + c] : -thermal!.enthalpy[i];
-            d += coef * rateToPellet[i] * jc[i * nS + q];
-          }
+          for (let i = 0; i < nR; i++) d += this.coef(c, i) * rateToPellet[i] * jc[i * nS + act[q]];
           J[row + q] += scale * d;
         }
       }
-      if (thermal) this.temperatureColumn(z, k, T, J, n);
+      if (this.thermalIndex) this.temperatureColumn(z, k, J, n);
     }
   }
 
   /** d(source)/dT at point k by central differences, added to the temperature column. */
-  private temperatureColumn(z: Float64Array, k: number, T: number, J: Float64Array, n: number): void {
-    const { m, nS, nR, r, r2 } = this;
-    const { kinetics, De, R, thermal } = this.problem;
-    const h = 1e-6 * T;
+  private temperatureColumn(z: Float64Array, k: number, J: Float64Array, n: number): void {
+    const { m, nR, r, r2 } = this;
+    const h = 1e-6 * z[k * m + this.act.length];
     this.pointRates(z, k, r, h);
     this.pointRates(z, k, r2, -h);
     for (let c = 0; c < m; c++) {
       let d = 0;
-      for (let i = 0; i < nR; i++) {
-        const coef = c < nS ? kinetics.stoich[i * nS + c] : -thermal!.enthalpy[i];
-        d += (coef * (r[i] - r2[i])) / (2 * h);
-      }
-      const scale = c < nS ? (R * R) / De[c] : (R * R) / thermal!.conductivity;
-      J[(k * m + c) * n + k * m + nS] += scale * d;
+      for (let i = 0; i < nR; i++) d += (this.coef(c, i) * (r[i] - r2[i])) / (2 * h);
+      J[(k * m + c) * n + k * m + this.act.length] += this.scaleOf(c) * d;
     }
   }
 
   /** Damped Newton on the collocation equations; z is updated in place. */
   private newton(g: CollocationGrid, z: Float64Array, Cs: Float64Array, Ts: number, maxIt: number): { status: PelletStatus; iterations: number } {
-    this.fixedT = Ts;
     const n = g.N * this.m;
     const F = new Float64Array(n);
     const Ft = new Float64Array(n);
@@ -243,9 +264,15 @@ export class PelletSolver {
       if (luFactor(J, n, piv) !== 0) return { status: 'newton-failed', iterations: it };
       for (let q = 0; q < n; q++) dz[q] = -F[q];
       luSolve(J, n, piv, dz);
+      let full = 0;
+      for (let q = 0; q < n; q++) full = Math.max(full, Math.abs(dz[q]) / scale[q % this.m]);
+      if (full < 1e-11) {
+        for (let q = 0; q < n; q++) z[q] += dz[q];
+        return { status: 'converged', iterations: it };
+      }
       let lam = 1;
       let f1 = Infinity;
-      for (let half = 0; half < 40; half++) {
+      for (let half = 0; half < 30; half++) {
         for (let q = 0; q < n; q++) zt[q] = z[q] + lam * dz[q];
         this.residual(g, zt, Cs, Ts, Ft);
         f1 = norm2(Ft);
@@ -255,38 +282,36 @@ export class PelletSolver {
       z.set(zt);
       F.set(Ft);
       f0 = f1;
-      let step = 0;
-      for (let q = 0; q < n; q++) step = Math.max(step, Math.abs(lam * dz[q]) / scale[q % this.m]);
-      if (step < 1e-11 || f0 === 0) return { status: 'converged', iterations: it };
+      if (lam * full < 1e-11 || f0 === 0) return { status: 'converged', iterations: it };
     }
     return { status: 'newton-failed', iterations: maxIt };
   }
 
-  /** Per-component scale of the unknowns (for the step test). */
+  /** Per-component scale of the unknowns (for the step test): the largest surface concentration, and Ts. */
   private scales(Cs: Float64Array, Ts: number): Float64Array {
     const s = new Float64Array(this.m);
     let cmax = 0;
     for (let j = 0; j < this.nS; j++) cmax = Math.max(cmax, Math.abs(Cs[j]));
-    for (let j = 0; j < this.nS; j++) s[j] = Math.max(cmax, 1e-300);
-    if (this.m > this.nS) s[this.nS] = Ts;
+    s.fill(Math.max(cmax, 1e-300));
+    if (this.thermalIndex) s[this.act.length] = Ts;
     return s;
   }
 
   /** Effectiveness factors by quadrature, plus centre values and the optional profile. */
   private finish(g: CollocationGrid, z: Float64Array, Cs: Float64Array, Ts: number, res: { status: PelletStatus; iterations: number }, keepProfile: boolean): PelletSolution {
-    const { nS, nR, m } = this;
+    const { nR, act } = this;
     const { a, kinetics, rateToPellet } = this.problem;
     const N = g.N;
-    const q = gaussLegendre01(N + 8);
+    const q = gaussFor(N + 8);
     const row = new Float64Array(N + 1);
-    const C = new Float64Array(nS);
+    const C = Float64Array.from(Cs);
     const r = new Float64Array(nR);
     const acc = new Float64Array(nR);
     for (let p = 0; p < q.x.length; p++) {
       const x = q.x[p];
       interpolationRow(g, x * x, row);
-      for (let c = 0; c < nS; c++) C[c] = this.interpolate(z, N, row, c, Cs, Ts);
-      const T = m > nS ? this.interpolate(z, N, row, nS, Cs, Ts) : Ts;
+      for (let c = 0; c < act.length; c++) C[act[c]] = this.interpolate(z, N, row, c, Cs, Ts);
+      const T = this.thermalIndex ? this.interpolate(z, N, row, act.length, Cs, Ts) : Ts;
       kinetics.rates(C, T, this.theta, r);
       const wx = q.w[p] * (a === 1 ? 1 : a === 2 ? x : x * x);
       for (let i = 0; i < nR; i++) acc[i] += wx * r[i];
@@ -294,12 +319,12 @@ export class PelletSolver {
     kinetics.rates(Cs, Ts, this.theta, r);
     const eta = new Float64Array(nR);
     for (let i = 0; i < nR; i++) eta[i] = r[i] === 0 || rateToPellet[i] === 0 ? 1 : (a * acc[i]) / r[i];
-    const centreConcentrations = new Float64Array(nS);
-    for (let c = 0; c < nS; c++) centreConcentrations[c] = z[c];
+    const centreConcentrations = Float64Array.from(Cs);
+    for (let c = 0; c < act.length; c++) centreConcentrations[act[c]] = N > 0 ? z[c] : Cs[act[c]];
     const sol: PelletSolution = {
       ...outcome(PELLET_STATUS, res.status),
       eta,
-      centreTemperature: m > nS ? z[nS] : Ts,
+      centreTemperature: this.thermalIndex ? z[act.length] : Ts,
       centreConcentrations,
       iterations: res.iterations,
       nodes: N,
@@ -309,25 +334,33 @@ export class PelletSolver {
   }
 
   private interpolate(z: Float64Array, N: number, row: Float64Array, c: number, Cs: Float64Array, Ts: number): number {
-    let v = 0;
-    for (let l = 0; l <= N; l++) v += row[l] * this.value(z, N, l, c, Cs, Ts);
+    let v = row[N] * this.surfaceValue(c, Cs, Ts);
+    for (let l = 0; l < N; l++) v += row[l] * z[l * this.m + c];
     return v;
   }
 
   private profileOf(g: CollocationGrid, z: Float64Array, Cs: Float64Array, Ts: number): NonNullable<PelletSolution['profile']> {
     const N = g.N;
+    const { act, m } = this;
     const x: number[] = [];
     const concentrations: Float64Array[] = [];
     const temperature: number[] = [];
     for (let l = 0; l <= N; l++) {
       x.push(Math.sqrt(g.u[l]));
-      const C = new Float64Array(this.nS);
-      for (let c = 0; c < this.nS; c++) C[c] = this.value(z, N, l, c, Cs, Ts);
+      const C = Float64Array.from(Cs);
+      if (l < N) for (let c = 0; c < act.length; c++) C[act[c]] = z[l * m + c];
       concentrations.push(C);
-      temperature.push(this.m > this.nS ? this.value(z, N, l, this.nS, Cs, Ts) : Ts);
+      temperature.push(this.thermalIndex && l < N ? z[l * m + act.length] : Ts);
     }
     return { x, concentrations, temperature };
   }
+}
+
+const gauss = new Map<number, { x: Float64Array; w: Float64Array }>();
+function gaussFor(m: number): { x: Float64Array; w: Float64Array } {
+  let q = gauss.get(m);
+  if (!q) gauss.set(m, (q = gaussLegendre01(m)));
+  return q;
 }
 
 function norm2(v: Float64Array): number {

@@ -1,0 +1,81 @@
+/**
+ * Benchmark: plant sizing with a numerically solved pellet against the same sizing without
+ * pellets (invented tube bundle of tests/design/fixtures, plus a 3 mm spherical pellet). The pellet
+ * is solved by collocation wherever the effectiveness-factor table along the bed needs a point
+ * (design/pellet-hook.ts); for scale, one bed integration with the pellet solved at every
+ * right-hand-side call (no table) is timed too.
+ * Run: npx tsx bench/pellet-sizing.ts
+ */
+import { readFileSync } from 'node:fs';
+import { pathToFileURL } from 'node:url';
+import { parseHandoff } from '../src/design/handoff-load';
+import { kineticsFromHandoff } from '../src/design/kinetics';
+import { loadCase } from '../src/design/case';
+import { sizeReactor } from '../src/design/size';
+import { buildSystem, type RateHook } from '../src/design/system';
+import { Sizer } from '../src/design/sizer';
+import { bundleAlpha } from '../src/design/tubes';
+import { casePelletModel } from '../src/design/pellet-hook';
+import { EffectivenessEvaluator } from '../src/pellets/effectiveness';
+
+const root = new URL('../tests/design/fixtures/', import.meta.url);
+const h = parseHandoff(JSON.parse(readFileSync(new URL('bed.kinetics.json', root), 'utf8')));
+const dk = kineticsFromHandoff(h);
+const rawCase = JSON.parse(readFileSync(new URL('bed.case.json', root), 'utf8'));
+const pellet = { shape: 'sphere', diameter: '3 mm', porosity: 0.4, effectiveDiffusivity: '1e-6 m2/s', density: '1333 kg/m3', tradeOff: ['3 mm'] };
+const load = (raw: unknown) => loadCase(raw, dk.kinetics.speciesNames, dk.kinetics.reactionIds);
+const plain = load(rawCase);
+const withPellet = load({ ...rawCase, pellet });
+
+function median(f: () => void, n: number): number {
+  const t: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const t0 = performance.now();
+    f();
+    t.push(performance.now() - t0);
+  }
+  t.sort((a, b) => a - b);
+  return t[Math.floor(n / 2)];
+}
+
+export interface PelletBench {
+  lines: string[];
+  plainMs: number;
+  pelletMs: number;
+  ratio: number;
+  directMs: number;
+  pelletSolves: number;
+  sizeKg: number;
+  intrinsicKg: number;
+}
+
+/** Nominal sizing (tube search, no Monte Carlo) with and without the pellet. */
+export function runPelletSizing(repeats = 5): PelletBench {
+  const size = (kase: typeof plain) => sizeReactor({ handoff: h, kinetics: dk.kinetics, kase, molarMasses: dk.molarMasses!, options: { draws: 0, profileDraws: 0 } });
+  const plainMs = median(() => size(plain), repeats);
+  let res = size(withPellet);
+  const pelletMs = median(() => (res = size(withPellet)), repeats);
+  // one bed integration at the designed tube count with the pellet solved at every call
+  const model = casePelletModel(dk.kinetics, withPellet, withPellet.pellet!, h.species);
+  const ev = new EffectivenessEvaluator(model, Float64Array.from(h.parameters, (p) => p.value));
+  const direct: RateHook = { apply: (_t, _y, C, T, r) => { const e = ev.evaluate(C, T).factor; for (let i = 0; i < r.length; i++) r[i] *= e[i]; } };
+  const sys = buildSystem(dk.kinetics, withPellet, Float64Array.from(h.parameters, (p) => p.value), direct);
+  sys.alpha = bundleAlpha(sys, dk.molarMasses!, res.tubes!.count).alpha;
+  const t0 = performance.now();
+  const d = new Sizer(sys).size();
+  const directMs = performance.now() - t0;
+  const p = res.pellet!;
+  const ratio = pelletMs / plainMs;
+  return {
+    lines: [
+      `case: ${withPellet.name} + 3 mm sphere; ${res.tubes?.count} tubes; W ${res.size!.value.toFixed(2)} kg with the pellet, ${p.intrinsicSize!.toFixed(2)} kg intrinsic; eta ${p.profile.eta[dk.kinetics.reactionIds[0]][0].toFixed(3)} at the inlet`,
+      `nominal sizing without pellets: ${plainMs.toFixed(1)} ms; with the numerical pellet (table along the bed, eta report, intrinsic size, trade-off row): ${pelletMs.toFixed(1)} ms (${ratio.toFixed(1)}x, ${p.pelletSolves} pellet solves)`,
+      `one bed integration with the pellet solved at every call (${ev.solves} solves): ${directMs.toFixed(0)} ms; size differs from the tabled one by ${(d.size / res.size!.value - 1).toExponential(2)}`,
+    ],
+    plainMs, pelletMs, ratio, directMs, pelletSolves: p.pelletSolves, sizeKg: res.size!.value, intrinsicKg: p.intrinsicSize!,
+  };
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  for (const l of runPelletSizing().lines) console.log(l);
+}
