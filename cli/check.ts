@@ -54,12 +54,16 @@ export function formatCheck(s: StudySummary, report: ValidationReport): string {
   if (s.ranges.conversion) L.push(`  conversion of ${s.ranges.conversion.species} (measured, ${s.ranges.conversion.n} runs): ${fmtRange(s.ranges.conversion, (x) => `${g(100 * x, 3)} %`)}`);
   else L.push(`  conversion of ${s.keyReactant}: not computable from the measurements`);
   for (const n of s.rateNotes ?? []) L.push(`  rates: ${n}`);
-  L.push(`  reference temperature: ${g(s.referenceTemperature.value)} K (${s.referenceTemperature.source === 'study' ? 'from the study' : 'picked near the middle of the data'})`);
+  if (s.referenceTemperature.applies) L.push(`  reference temperature: ${g(s.referenceTemperature.value)} K (${s.referenceTemperature.source === 'study' ? 'from the study' : 'picked near the middle of the data'})`);
   L.push('');
   if (report.rejections.length) {
     L.push(`Rejected (${s.rowsRejected} rows, ${report.rejections.length} problems):`);
     for (const r of report.rejections) L.push(`  ${formatRejection(r)}`);
   } else L.push('Rejected: none');
+  if (s.consistency.length) {
+    L.push('Warnings (study constants against the runs):');
+    for (const w of s.consistency) L.push(`  - ${w}`);
+  }
   L.push('Rules applied:');
   for (const r of report.rules) L.push(`  - ${r}`);
   L.push('');

@@ -71,7 +71,8 @@ export function formatFit(study: Study, sf: StudyFit): string {
   const s = fit.statistics;
   const L: string[] = [];
   L.push(`Study: ${study.title ?? study.studyPath}`);
-  L.push(`Rate-law set: ${sf.variant}; reference temperature ${g(study.referenceTemperature, 5)} K (${study.referenceTemperatureSource === 'data' ? 'picked from the data' : 'from the study'})`);
+  const tref = study.referenceTemperatureApplies === false ? '' : `; reference temperature ${g(study.referenceTemperature, 5)} K (${study.referenceTemperatureSource === 'data' ? 'picked from the data' : 'from the study'})`;
+  L.push(`Rate-law set: ${sf.variant}${tref}`);
   L.push(`Status: ${fit.status} - ${fit.message}`);
   L.push(`Verdict: ${fit.verdict.trustworthy ? 'trustworthy' : 'NOT TRUSTWORTHY'} (${fit.verdict.status})`);
   for (const r of fit.verdict.reasons) L.push(`  - [${r.code}] ${r.message}`);

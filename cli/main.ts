@@ -30,6 +30,11 @@ registrations.push(registerDemo);
 
 for (const r of registrations) r(program);
 
+// Every command's --help ends with where the equations and defaults are written down.
+const MODEL_REFERENCE = '\nModel reference (every equation, default and source): docs/model-reference.md';
+program.addHelpText('after', MODEL_REFERENCE);
+for (const c of program.commands) c.addHelpText('after', MODEL_REFERENCE);
+
 // An option that takes a value must not swallow the next flag ('--out --json' would write into a
 // folder named '--json'): refuse it as a usage error.
 program.hook('preAction', (_root, action) => {

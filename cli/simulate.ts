@@ -25,13 +25,16 @@ Exit codes: 0 all runs solved, 1 a run failed numerically, 2 bad input.`;
 export function formatSimulation(r: SimulationResult, profile: boolean): string {
   const L: string[] = [];
   L.push(`Parameters: ${r.parameters.map((p) => `${p.name} = ${g(p.value, 5)}${p.unit === '1' ? '' : ` ${p.unit}`}`).join('; ')}`);
-  L.push(`Reference temperature: ${g(r.referenceTemperature)} K; key reactant ${r.keyReactant}`);
+  L.push(`${r.referenceTemperatureApplies ? `Reference temperature: ${g(r.referenceTemperature)} K; k` : 'K'}ey reactant ${r.keyReactant}`);
   for (const run of r.runs) {
     L.push('');
     L.push(`Run ${run.runId}${run.group !== undefined ? ` (group ${run.group})` : ''}: ${run.status}${run.success ? '' : ` - ${run.message}`}`);
     L.push(`  outlet ${run.outletUnit === 'mol/s' ? 'flows' : 'amounts'}: ${Object.entries(run.outlet).map(([s, v]) => `${s} ${g(v)} ${run.outletUnit}`).join(', ')}`);
     L.push(`  conversion of ${r.keyReactant}: ${run.conversion !== undefined ? `${g(100 * run.conversion, 4)} %` : 'n/a'}${run.measuredConversion !== undefined ? ` (measured ${g(100 * run.measuredConversion, 4)} %)` : ''}`);
     L.push(`  outlet pressure ratio p/p0: ${g(run.pressureRatio, 6)}`);
+    for (const [i, st] of (run.steadyStates ?? []).entries()) {
+      L.push(`  steady state ${i + 1} of ${run.steadyStates!.length}${st.reported ? ' (reported above)' : ''}, ${st.stability}: ${Object.entries(st.outlet).map(([s, v]) => `${s} ${g(v)} ${run.outletUnit}`).join(', ')}`);
+    }
     for (const w of run.warnings) L.push(`  warning: ${w}`);
     if (profile && run.profile) {
       const p = run.profile;
@@ -45,6 +48,8 @@ export function formatSimulation(r: SimulationResult, profile: boolean): string 
       }
     }
   }
+  L.push('');
+  L.push(`Note: ${r.roundOff.note}.`);
   return L.join('\n');
 }
 

@@ -35,7 +35,7 @@ export function solveBatch(
   const C0 = checkSpeciesVector(run, 'initialConcentrations', kinetics, true);
   const tEnd = checkPositive(run, 'size', 's', true);
   const V = run.initialVolume === undefined ? DEFAULT_BATCH_VOLUME : checkPositive(run, 'initialVolume', 'm3');
-  const W = run.catalystMass === undefined ? undefined : checkPositive(run, 'catalystMass', 'kg');
+  const W = run.catalystMass === undefined ? undefined : checkPositive(run, 'catalystMass', 'kg', true);
   checkOptions(options, tEnd);
   const nS = kinetics.speciesNames.length;
   const nP = kinetics.parameterNames.length;

@@ -26,22 +26,7 @@ export function solveSemibatch(
   theta: Float64Array,
   options: ReactorOptions = {},
 ): ReactorSolution {
-  checkKinetics(kinetics);
-  checkTheta(kinetics, theta);
-  checkTemperature(run);
-  if (spec.phase !== 'liquid') {
-    throw new RateloomError('E_VALUE', 'the semibatch reactor is modelled for the liquid phase only', {
-      path: ['reactor', 'phase'],
-      fix: "Set phase to 'liquid', or model the gas-phase case as a flow reactor.",
-    });
-  }
-  const F0 = checkSpeciesVector(run, 'feed', kinetics, false);
-  const C0 = checkSpeciesVector(run, 'initialConcentrations', kinetics, false);
-  const tEnd = checkPositive(run, 'size', 's', true);
-  const V0 = checkPositive(run, 'initialVolume', 'm3');
-  const v0 = checkPositive(run, 'volumetricFlow', 'm3/s', true);
-  const W = run.catalystMass === undefined ? undefined : checkPositive(run, 'catalystMass', 'kg');
-  checkOptions(options, tEnd);
+  const { F0, C0, tEnd, V0, v0, W } = checkSemibatchRun(spec, run, kinetics, theta, options);
   const nS = kinetics.speciesNames.length;
   const nP = kinetics.parameterNames.length;
   const T = run.temperature;
@@ -114,6 +99,28 @@ export function solveSemibatch(
   const res = runOde(core, N0, tEnd, theta, options, profileX);
   const reader: StateReader = { nS, coordinate: 't', concentrations: conc, pressureRatio: () => 1, pressureSensitivity: (_y, _S, _np, out) => out.fill(0) };
   return buildSolution(run, res, reader, nP);
+}
+
+/** Input checks of a semibatch run; its feed, charge, time, volumes and catalyst mass (SI). */
+function checkSemibatchRun(spec: ReactorSpec, run: RunConditions, kinetics: CompiledKinetics, theta: Float64Array, options: ReactorOptions) {
+  checkKinetics(kinetics);
+  checkTheta(kinetics, theta);
+  checkTemperature(run);
+  if (spec.phase !== 'liquid') {
+    throw new RateloomError('E_VALUE', 'the semibatch reactor is modelled for the liquid phase only', {
+      path: ['reactor', 'phase'],
+      fix: "Set phase to 'liquid', or model the gas-phase case as a flow reactor.",
+    });
+  }
+  const F0 = checkSpeciesVector(run, 'feed', kinetics, false);
+  const C0 = checkSpeciesVector(run, 'initialConcentrations', kinetics, false);
+  const tEnd = checkPositive(run, 'size', 's', true);
+  const V0 = checkPositive(run, 'initialVolume', 'm3');
+  const v0 = checkPositive(run, 'volumetricFlow', 'm3/s', true);
+  // A zero catalyst mass (a blank run) is accepted: mass-basis rates then contribute nothing.
+  const W = run.catalystMass === undefined ? undefined : checkPositive(run, 'catalystMass', 'kg', true);
+  checkOptions(options, tEnd);
+  return { F0, C0, tEnd, V0, v0, W };
 }
 
 export const semibatchReactor: ReactorModel = { kind: 'semibatch', solve: solveSemibatch };

@@ -22,6 +22,7 @@ import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentrati
 import { RateTerms } from './rate-terms';
 import { STATUS_SUCCESS } from './status';
 import type { Warning } from '../core/outcome';
+import { nearestState, singleReactionStability, type SteadyState } from './steady-states';
 import type { ReactorModel, ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types';
 
 /** Residual tolerance of the steady state, relative to the total feed flow. */
@@ -160,7 +161,7 @@ export function solveStirredTank(
     });
   }
   const allMass = kinetics.basis.every((b) => b === 'mass');
-  const W = run.catalystMass !== undefined ? checkPositive(run, 'catalystMass', 'kg') : allMass ? size : undefined;
+  const W = run.catalystMass !== undefined ? checkPositive(run, 'catalystMass', 'kg', true) : allMass ? size : undefined;
   const w = basisWeights(kinetics, size, W, {
     volume: [runPath(run, 'size'), 'unreachable', ''],
     mass: [runPath(run, 'catalystMass'), 'a mass-basis rate in a stirred tank needs the catalyst mass',
@@ -174,25 +175,14 @@ export function solveStirredTank(
   const tol = CSTR_RESIDUAL_TOL * FT0;
   const warnings: Warning[] = [];
 
-  const F = Float64Array.from(F0);
-  let g = sys.newton(F, tol);
-  const found: Float64Array[] = [];
-  if (g <= tol) found.push(Float64Array.from(F));
-  // other steady states (and a second chance when Newton from the feed failed)
-  const search = options.steadyStateSearch !== 'on-failure' || !(g <= tol);
-  const others = search ? searchSteadyStates(sys, kinetics, F0, tol) : [];
-  for (const s of others) addDistinct(found, s, FT0);
-  if (!(g <= tol) && found.length > 0) {
-    F.set(found[0]);
-    g = sys.residual(F, new Float64Array(nS));
-    warnings.push({ code: 'newton-restarted', message: 'Newton from the feed composition failed; the steady state was found from another start', path: runPath(run) });
-  }
+  const start = options.start && options.start.length === nS && options.start.every((x) => Number.isFinite(x) && x >= 0) ? options.start : undefined;
+  const { F, g, found, search } = solveSteadyStates(sys, kinetics, F0, start, tol, options, warnings, run);
   if (found.length > 1) {
     const key = keySpecies(kinetics, F0);
     const list = found.map((s) => `${kinetics.speciesNames[key]} = ${s[key].toPrecision(6)} mol/s`).join('; ');
     warnings.push({
       code: 'multiple-steady-states',
-      message: `the tank has ${found.length} steady states (${list}); the one reached from the feed composition is reported, and start-up decides which one the plant reaches`,
+      message: `the tank has ${found.length} steady states (${list}); the one reached from ${start ? 'the given start (the measured outlet)' : 'the feed composition'} is reported, and start-up decides which one the plant reaches`,
       path: runPath(run),
     });
   }
@@ -213,26 +203,68 @@ export function solveStirredTank(
     outletConcentrations: C,
     pressureRatio: 1,
     stats: { rhsEvaluations: sys.evaluations, jacobianEvaluations: sys.jacobians, steps: sys.iterations, method: 'newton' },
+    steadyStateStart: start ? 'given' : 'feed',
   };
-  if (ok && options.sensitivities && nP > 0) {
-    sys.jacobian(outF);
-    const J = sys.J;
-    if (luFactor(J, nS, sys.piv) === 0) {
-      const dG = new Float64Array(nS * nP);
-      sys.dtheta(outF, dG);
-      const col = new Float64Array(nS);
-      const amounts = new Float64Array(nS * nP);
-      for (let k = 0; k < nP; k++) {
-        for (let j = 0; j < nS; j++) col[j] = -dG[j * nP + k];
-        luSolve(J, nS, sys.piv, col);
-        for (let j = 0; j < nS; j++) amounts[j * nP + k] = col[j];
-      }
-      sol.sensitivity = { amounts, pressureRatio: new Float64Array(nP) };
-    } else {
-      warnings.push({ code: 'singular-jacobian', message: 'the Jacobian at the steady state is singular; no sensitivities', path: runPath(run) });
-    }
-  }
+  if (search && found.length) sol.steadyStates = describeStates(sys, kinetics, found, ok ? outF : undefined);
+  if (ok && options.sensitivities && nP > 0) tankSensitivities(sys, outF, sol, warnings, run);
   return sol;
+}
+
+/** Newton from the start (or the feed), then the search for further steady states. */
+function solveSteadyStates(sys: TankSystem, kinetics: CompiledKinetics, F0: Float64Array, start: Float64Array | undefined, tol: number, options: ReactorOptions, warnings: Warning[], run: RunConditions) {
+  const nS = sys.nS;
+  const F = Float64Array.from(start ?? F0);
+  let g = sys.newton(F, tol);
+  const found: Float64Array[] = [];
+  if (g <= tol) found.push(Float64Array.from(F));
+  // other steady states (and a second chance when Newton from the feed failed)
+  const search = options.steadyStateSearch !== 'on-failure' || !(g <= tol);
+  const others = search ? searchSteadyStates(sys, kinetics, F0, tol) : [];
+  for (const s of others) addDistinct(found, s, sumFirst(F0, nS));
+  if (!(g <= tol) && found.length > 0) {
+    F.set(found[0]);
+    g = sys.residual(F, new Float64Array(nS));
+    warnings.push({ code: 'newton-restarted', message: `Newton from the ${start ? 'given start' : 'feed composition'} failed; the steady state was found from another start`, path: runPath(run) });
+  }
+  return { F, g, found, search };
+}
+
+/** d F / d theta by implicit differentiation, (dG/dF) dF/dtheta = -dG/dtheta, with the LU at the solution. */
+function tankSensitivities(sys: TankSystem, outF: Float64Array, sol: ReactorSolution, warnings: Warning[], run: RunConditions): void {
+  const { nS, nP } = sys;
+  sys.jacobian(outF);
+  const J = sys.J;
+  if (luFactor(J, nS, sys.piv) !== 0) {
+    warnings.push({ code: 'singular-jacobian', message: 'the Jacobian at the steady state is singular; no sensitivities', path: runPath(run) });
+    return;
+  }
+  const dG = new Float64Array(nS * nP);
+  sys.dtheta(outF, dG);
+  const col = new Float64Array(nS);
+  const amounts = new Float64Array(nS * nP);
+  for (let k = 0; k < nP; k++) {
+    for (let j = 0; j < nS; j++) col[j] = -dG[j * nP + k];
+    luSolve(J, nS, sys.piv, col);
+    for (let j = 0; j < nS; j++) amounts[j * nP + k] = col[j];
+  }
+  sol.sensitivity = { amounts, pressureRatio: new Float64Array(nP) };
+}
+
+/** Every steady state found, with its concentrations, stability and which one is reported. */
+function describeStates(sys: TankSystem, kinetics: CompiledKinetics, found: Float64Array[], reported: Float64Array | undefined): SteadyState[] {
+  const nS = sys.nS;
+  const at = reported ? nearestState(found, reported) : -1;
+  const single = kinetics.reactionIds.length === 1 && !sys.gas;
+  return found.map((F, i) => {
+    const C = new Float64Array(nS);
+    sys.conc(F, C);
+    let stability: SteadyState['stability'] = 'not-assessed';
+    if (single) {
+      sys.jacobian(F);
+      stability = singleReactionStability(sys.J, kinetics.stoich, nS);
+    }
+    return { outletAmounts: Float64Array.from(F), outletConcentrations: C, stability, reported: i === at };
+  });
 }
 
 /** The species with the largest feed among the reactants of reaction 0 (the key reactant). */

@@ -5,6 +5,7 @@
  */
 import type { CompiledKinetics } from '../kinetics/compiled';
 import type { Outcome } from '../core/outcome';
+import type { SteadyState, SteadyStateStart } from './steady-states';
 
 export type ReactorKind = 'packed-bed' | 'plug-flow' | 'stirred-tank' | 'batch' | 'membrane' | 'semibatch';
 export type Phase = 'gas' | 'liquid';
@@ -99,6 +100,12 @@ export interface ReactorOptions {
    * Newton from the feed failed ('on-failure', which a fit uses for speed); default 'always'.
    */
   steadyStateSearch?: 'always' | 'on-failure';
+  /**
+   * Stirred tank: outlet flows (mol/s, one per species) to start Newton from instead of the feed,
+   * for example the measured outlet, so that the steady state of that branch is reported; default
+   * none (start from the feed).
+   */
+  start?: Float64Array;
 }
 
 export type ReactorStatus =
@@ -135,6 +142,12 @@ export interface ReactorSolution extends Outcome<ReactorStatus> {
    * when sensitivities were requested.
    */
   sensitivity?: { amounts: Float64Array; pressureRatio: Float64Array };
+  /**
+   * Stirred tank: every steady state found (when the search ran), with its stability and which
+   * one is reported; and where Newton started for the reported one.
+   */
+  steadyStates?: SteadyState[];
+  steadyStateStart?: SteadyStateStart;
   /** Where the pressure reached zero, in the size unit (kg or m3), when status is 'pressure-exhausted'. */
   exhaustedAt?: number;
   stats: { rhsEvaluations: number; jacobianEvaluations: number; steps: number; method: string };

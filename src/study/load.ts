@@ -23,6 +23,7 @@ import { locatePath } from './locate';
 import { buildParameters, parameterRoles, referencedNames, type ParameterSpec } from './parameters';
 import { ratesOnlyRuns } from './rate-runs';
 import { parameterStartFor, runParameterNames } from './run-parameters';
+import { referenceTemperatureMatters } from './reference-temperature';
 import { DEFAULT_ERROR_MODEL, sigmaFromModel, type CandidateSet, type ErrorModel, type LoadedStudy, type Observation, type Study, type StudyRun } from './types';
 
 /** The study-file schema as an object (the same file editors use). */
@@ -493,6 +494,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     replicateGroups,
     ...(raw.transport !== undefined ? { transport: loadTransport(raw.transport, speciesNames, raw.reactions.map((r) => r.id)) } : {}),
   };
+  study.referenceTemperatureApplies = referenceTemperatureMatters(study);
   const notes = perRun.flatMap((m) => m.rateNotes ?? []);
   if (notes.length) study.rateNotes = notes;
   return { study, report };

@@ -7,11 +7,13 @@ import { RateloomError } from '../core/errors';
 import type { Parameter } from '../core/parameter';
 import { compileKinetics } from '../kinetics/compile';
 import { solveReactor } from '../reactors';
-import type { ReactorProfile, ReactorStatus } from '../reactors/types';
+import type { ReactorProfile, ReactorSolution, ReactorStatus } from '../reactors/types';
+import { DEFAULT_BATCH_VOLUME } from '../reactors/batch';
+import { ROUND_OFF_NOTE, ROUND_OFF_TOLERANCE, shownAmounts } from '../reactors/round-off';
 import { compoundToSI } from '../units';
 import { runParameterNames } from './parameters';
 import { measuredConversions } from './summary';
-import type { Study } from './types';
+import type { Study, StudyRun } from './types';
 
 export interface SimulatedRun {
   runId: string;
@@ -31,16 +33,25 @@ export interface SimulatedRun {
   /** Outlet p/p0. */
   pressureRatio: number;
   profile?: ReactorProfile;
+  /**
+   * Stirred tank: every steady state found, per species (outlet in outletUnit, concentrations in
+   * mol/m3), its stability and whether it is the one reported above.
+   */
+  steadyStates?: { outlet: Record<string, number>; concentrations: Record<string, number>; stability: string; reported: boolean }[];
   warnings: string[];
 }
 
 export interface SimulationResult {
   keyReactant: string;
   referenceTemperature: number;
+  /** False when no rate law depends on the reference temperature. */
+  referenceTemperatureApplies: boolean;
   parameters: { name: string; value: number; unit: string }[];
   runs: SimulatedRun[];
   /** True when every run solved. */
   success: boolean;
+  /** How round-off negatives are shown (src/reactors/round-off.ts). */
+  roundOff: { tolerance: number; note: string };
 }
 
 export interface SimulateOptions {
@@ -104,10 +115,7 @@ export function simulateStudy(study: Study, parameters: readonly Parameter[] = s
   const baseNames = scopes.map((s) => s.base);
   const kinetics = compileKinetics({ chemistry: study.chemistry, rates: reactions.map((r) => r.rate), parameterNames: baseNames, referenceTemperature: study.referenceTemperature });
   const byName = new Map(parameters.map((p) => [p.name, p.value]));
-  const names = study.chemistry.speciesNames;
-  const j = study.keyReactantIndex;
   const measured = measuredConversions(study);
-  const flow = study.reactor.kind !== 'batch' && study.reactor.kind !== 'semibatch';
   const runs: SimulatedRun[] = study.runs.map((run) => {
     const runNames = runParameterNames(baseNames, scopes, run.group);
     const theta = Float64Array.from(runNames.map((n) => {
@@ -115,40 +123,79 @@ export function simulateStudy(study: Study, parameters: readonly Parameter[] = s
       if (v === undefined) throw new RateloomError('E_UNKNOWN_PARAMETER', `no value for parameter '${n}'`, { path: ['parameters'] });
       return v;
     }));
-    const sol = solveReactor(study.reactor, run, kinetics, theta, options.profile ? { profile: true } : {});
-    const outlet: Record<string, number> = {};
-    const conc: Record<string, number> = {};
-    names.forEach((n, k) => {
-      outlet[n] = sol.outletAmounts[k];
-      conc[n] = sol.outletConcentrations[k];
-    });
-    let conversion: number | undefined;
-    if (sol.success) {
-      if (flow && run.feed && run.feed[j] > 0) conversion = 1 - sol.outletAmounts[j] / run.feed[j];
-      else if (study.reactor.kind === 'batch' && run.initialConcentrations && run.initialConcentrations[j] > 0) conversion = 1 - sol.outletConcentrations[j] / run.initialConcentrations[j];
-    }
-    const m = measured.get(run.id);
-    return {
-      runId: run.id,
-      ...(run.group !== undefined ? { group: run.group } : {}),
-      status: sol.status,
-      success: sol.success,
-      message: sol.message,
-      outlet,
-      outletUnit: flow ? 'mol/s' : 'mol',
-      concentrations: conc,
-      ...(conversion !== undefined ? { conversion } : {}),
-      ...(m !== undefined ? { measuredConversion: m } : {}),
-      pressureRatio: sol.pressureRatio,
-      ...(sol.profile ? { profile: sol.profile } : {}),
-      warnings: sol.warnings.map((w) => w.message),
-    };
+    const solved = withRunValues(run, byName);
+    const sol = solveReactor(study.reactor, solved, kinetics, theta, options.profile ? { profile: true } : {});
+    return simulatedRun(study, solved, sol, measured.get(run.id));
   });
   return {
     keyReactant: study.keyReactant,
     referenceTemperature: study.referenceTemperature,
+    referenceTemperatureApplies: study.referenceTemperatureApplies !== false,
     parameters: parameters.map((p) => ({ name: p.name, value: p.value, unit: p.unit })),
     runs,
     success: runs.every((r) => r.success),
+    roundOff: { tolerance: ROUND_OFF_TOLERANCE, note: ROUND_OFF_NOTE },
+  };
+}
+
+/** The run with its feed flows or initial concentrations held by parameters set to their values. */
+function withRunValues(run: StudyRun, byName: ReadonlyMap<string, number>): StudyRun {
+  if (!run.runParameters?.length) return run;
+  const copy = { ...run, ...(run.feed ? { feed: run.feed.slice() } : {}), ...(run.initialConcentrations ? { initialConcentrations: run.initialConcentrations.slice() } : {}) };
+  for (const ref of run.runParameters) {
+    const v = (run.group !== undefined ? byName.get(`${ref.parameter}@${run.group}`) : undefined) ?? byName.get(ref.parameter);
+    if (v === undefined) continue;
+    const target = ref.target === 'feed' ? copy.feed : copy.initialConcentrations;
+    if (target) target[ref.speciesIndex] = v;
+  }
+  return copy;
+}
+
+/**
+ * Amount of each species that entered the run: the feed flows (mol/s) of a flow reactor, the
+ * initial amounts (mol) of a batch, the initial amounts plus the amount fed (F_j0 t) of a semibatch.
+ */
+export function amountsIn(study: Study, run: StudyRun): Float64Array {
+  const kind = study.reactor.kind;
+  const nS = study.chemistry.speciesNames.length;
+  if (kind !== 'batch' && kind !== 'semibatch') return run.feed ? Float64Array.from(run.feed) : new Float64Array(nS);
+  const V0 = run.initialVolume ?? DEFAULT_BATCH_VOLUME;
+  const out = Float64Array.from({ length: nS }, (_, j) => (run.initialConcentrations?.[j] ?? 0) * V0);
+  if (kind === 'semibatch' && run.feed) for (let j = 0; j < nS; j++) out[j] += run.feed[j] * run.size;
+  return out;
+}
+
+/** One run's simulation result: amounts as shown (round-off), conversion, steady states. */
+function simulatedRun(study: Study, run: StudyRun, sol: ReactorSolution, measuredConversion: number | undefined): SimulatedRun {
+  const names = study.chemistry.speciesNames;
+  const j = study.keyReactantIndex;
+  const flow = study.reactor.kind !== 'batch' && study.reactor.kind !== 'semibatch';
+  const entered = amountsIn(study, run);
+  const scale = entered.reduce((a, b) => a + b, 0);
+  const shown = shownAmounts(sol.outletAmounts, sol.outletConcentrations, scale);
+  const record = (v: number[]) => Object.fromEntries(names.map((n, k) => [n, v[k]]));
+  // Conversion on the amount that entered: feed (flow), charge (batch), charge plus feed (semibatch).
+  const conversion = sol.success && entered[j] > 0 ? (entered[j] - sol.outletAmounts[j]) / entered[j] : undefined;
+  const warnings = sol.warnings.map((w) => w.message);
+  if (shown.negative) warnings.push(`${shown.negative} outlet value(s) are negative beyond the round-off tolerance (${ROUND_OFF_TOLERANCE} of the total ${flow ? 'feed in mol/s' : 'amount in mol'}); they are shown as computed`);
+  const states = sol.steadyStates?.map((st) => {
+    const sh = shownAmounts(st.outletAmounts, st.outletConcentrations, scale);
+    return { outlet: record(sh.amounts), concentrations: record(sh.concentrations), stability: st.stability, reported: st.reported };
+  });
+  return {
+    runId: run.id,
+    ...(run.group !== undefined ? { group: run.group } : {}),
+    status: sol.status,
+    success: sol.success,
+    message: sol.message,
+    outlet: record(shown.amounts),
+    outletUnit: flow ? 'mol/s' : 'mol',
+    concentrations: record(shown.concentrations),
+    ...(conversion !== undefined ? { conversion } : {}),
+    ...(measuredConversion !== undefined ? { measuredConversion } : {}),
+    pressureRatio: sol.pressureRatio,
+    ...(sol.profile ? { profile: sol.profile } : {}),
+    ...(states && states.length ? { steadyStates: states } : {}),
+    warnings,
   };
 }

@@ -7,6 +7,8 @@
 import { GAS_CONSTANT } from '../data/mapping';
 import type { ValidationReport } from '../data/report';
 import type { Study, StudyRun } from './types';
+import { consistencyWarnings } from './consistency';
+import { referenceTemperatureMatters } from './reference-temperature';
 
 export interface Range {
   min: number;
@@ -39,7 +41,8 @@ export interface StudySummary {
     spaceTime?: Range & { definition: string };
     conversion?: Range & { species: string };
   };
-  referenceTemperature: { value: number; unit: 'K'; source: 'study' | 'data' };
+  /** `applies`: false when no rate law depends on it (then nothing is said about it). */
+  referenceTemperature: { value: number; unit: 'K'; source: 'study' | 'data'; applies: boolean };
   freeParameters: number;
   degreesOfFreedom: number;
   candidates: { name: string; freeParameters: number; degreesOfFreedom: number }[];
@@ -48,6 +51,8 @@ export interface StudySummary {
   rowsRejected: number;
   /** Where measured rates are evaluated and how derived rates were formed (one sentence per source). */
   rateNotes?: string[];
+  /** Constants of the study that disagree with its runs (consistency.ts), both numbers with units. */
+  consistency: string[];
 }
 
 function range(values: number[], unit: string): Range | undefined {
@@ -142,7 +147,7 @@ export function summarizeStudy(study: Study, report: ValidationReport): StudySum
       ...(tau ? { spaceTime: { ...tau, definition: kind === 'packed-bed' ? `W/F_${study.keyReactant},0` : 'V/v0' } } : {}),
       ...(conv ? { conversion: { ...conv, species: study.keyReactant } } : {}),
     },
-    referenceTemperature: { value: study.referenceTemperature, unit: 'K', source: study.referenceTemperatureSource },
+    referenceTemperature: { value: study.referenceTemperature, unit: 'K', source: study.referenceTemperatureSource, applies: referenceTemperatureMatters(study) },
     freeParameters: free,
     degreesOfFreedom: nObs - free,
     candidates: study.candidates.map((c) => {
@@ -153,5 +158,6 @@ export function summarizeStudy(study: Study, report: ValidationReport): StudySum
     rowsUsed: report.rowsUsed,
     rowsRejected: report.rowsRejected,
     ...(study.rateNotes ? { rateNotes: study.rateNotes } : {}),
+    consistency: consistencyWarnings(study),
   };
 }

@@ -131,6 +131,8 @@ export interface Study {
   /** K; given in the study or picked near the middle of the data's temperatures. */
   referenceTemperature: number;
   referenceTemperatureSource: 'study' | 'data';
+  /** False when no rate law depends on the reference temperature (messages then omit it). */
+  referenceTemperatureApplies?: boolean;
   /** Parameters in SI, per-run-group ones expanded to '<base>@<group>'. */
   parameters: Parameter[];
   scopes: ParameterScope[];

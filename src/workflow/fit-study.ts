@@ -2,6 +2,7 @@
  * Fit a study (or one of its candidate rate-law sets): build the study model, the fit data, run
  * the estimator, and assemble the fitted-kinetics hand-off for design.
  */
+import { tankBranchWarnings } from './tank-branches';
 import { fitModel } from '../estimation/fit';
 import { multistartFit, type Minimum } from '../estimation/multistart';
 import type { FitOptions, FitResult } from '../estimation/fit-types';
@@ -98,7 +99,8 @@ export function planStudyFit(study: Study, options: StudyFitOptions = {}): Study
 
 /** The StudyFit of a plan from its finished fit (observations named by run, derived quantities). */
 export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult, minima?: Minimum[]): StudyFit {
-  const named = nameObservations(fit, study);
+  const branches = tankBranchWarnings(study, plan.model, Float64Array.from(fit.parameters, (p) => p.value));
+  const named = nameObservations(branches.length ? { ...fit, warnings: [...fit.warnings, ...branches] } : fit, study);
   const derived = derivedQuantities(named, plan.variant.reactions.map((r) => r.rate), study.referenceTemperature);
   const transport = fittedLabTransport(study, plan.model, named);
   return {

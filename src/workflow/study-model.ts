@@ -18,6 +18,7 @@ import type { ReactorOptions, ReactorSolution, RunConditions } from '../reactors
 import type { PredictionFailure, RegressionModel } from '../estimation/model';
 import type { CandidateSet, Observation, Study, StudyRun } from '../study/types';
 import { RunValues } from './run-values';
+import { measuredStarts } from './tank-start';
 
 /** Options of the study model. */
 export interface StudyModelOptions {
@@ -39,6 +40,9 @@ interface SolveTask {
   run: RunConditions;
   /** The run checked once with its constants resolved (tubular reactors), else undefined. */
   prepared?: PreparedTube;
+  /** Stirred tank: solve options starting Newton at the measured outlet (tank-start.ts). */
+  plainOptions?: ReactorOptions;
+  sensOptions?: ReactorOptions;
 }
 
 /** The rate-law set a model is built from: the study's own, or a candidate's. */
@@ -70,6 +74,8 @@ export class StudyModel implements RegressionModel {
   private readonly runMap: Int32Array[];
   private readonly tasks: SolveTask[];
   private readonly rateObservations: Observation[];
+  /** Stirred tank: Newton start of each run from its measured outlet (undefined where none). */
+  readonly starts: (Float64Array | undefined)[];
   /** Feed flows and initial concentrations held by parameters; undefined when none. */
   private readonly runValues?: RunValues;
   private readonly thetaK: Float64Array;
@@ -130,6 +136,13 @@ export class StudyModel implements RegressionModel {
     // fails; solveRun (reports, simulation) keeps the full search and its warning.
     this.plainOptions = { ...this.reactorOptions, steadyStateSearch: 'on-failure' };
     this.sensOptions = { ...this.reactorOptions, steadyStateSearch: 'on-failure', sensitivities: true };
+    this.starts = measuredStarts(study);
+    for (const t of this.tasks) {
+      const start = this.starts[t.runIndex];
+      if (!start || t.size !== study.runs[t.runIndex].size) continue;
+      t.plainOptions = { ...this.plainOptions, start };
+      t.sensOptions = { ...this.sensOptions, start };
+    }
     // Check each tubular run once here; its solves then skip the input checks. A run that fails the
     // checks (or tolerances that do) keeps the checked path, whose error becomes a prediction failure.
     const tolOk = [this.reactorOptions.rtol, this.reactorOptions.atol].every((v) => Number.isFinite(v) && (v as number) > 0);
@@ -157,7 +170,8 @@ export class StudyModel implements RegressionModel {
     this.fillKinetics(runIndex, external);
     const base = this.study.runs[runIndex];
     const run = this.runValues ? this.runValues.run(runIndex, base, external) : base;
-    return solveReactor(this.study.reactor, run, this.kinetics, this.thetaK.slice(), { ...this.reactorOptions, ...options });
+    const start = this.starts[runIndex];
+    return solveReactor(this.study.reactor, run, this.kinetics, this.thetaK.slice(), { ...this.reactorOptions, ...(start ? { start } : {}), ...options });
   }
 
   /** The kinetics' parameter vector of one run from external (SI) values of all parameters (a copy). */
@@ -191,7 +205,7 @@ export class StudyModel implements RegressionModel {
     for (const task of this.tasks) {
       const run = this.study.runs[task.runIndex];
       this.fillKinetics(task.runIndex, this.ext);
-      const opts = J ? this.sensOptions : this.plainOptions;
+      const opts = J ? (task.sensOptions ?? this.sensOptions) : (task.plainOptions ?? this.plainOptions);
       if (this.runValues) this.runValues.fill(task.runIndex, task.run, this.ext);
       let sol: ReactorSolution;
       try {
@@ -213,13 +227,13 @@ export class StudyModel implements RegressionModel {
         continue;
       }
       for (const o of task.observations) {
-        const v = outletValue(o, this.runValues ? task.run : run, sol, this.study);
+        const v = outletValue(o, task.run, sol, this.study);
         if (!Number.isFinite(v)) {
           failures?.push({ run: run.id, message: `prediction of ${o.response} ${o.species ?? ''} is not finite` });
           ok = false;
         }
         out[o.index] = v;
-        if (J && sol.sensitivity) this.chainOutlet(o, run, sol, task, J);
+        if (J && sol.sensitivity) this.chainOutlet(o, task.run, sol, task, J);
       }
     }
     for (const o of this.rateObservations) {
@@ -252,7 +266,7 @@ export class StudyModel implements RegressionModel {
     return ok;
   }
 
-  private chainOutlet(o: Observation, run: StudyRun, sol: ReactorSolution, task: SolveTask, J: Float64Array): void {
+  private chainOutlet(o: Observation, run: RunConditions, sol: ReactorSolution, task: SolveTask, J: Float64Array): void {
     const nP = this.parameterNames.length;
     const map = this.runMap[task.runIndex];
     const nK = map.length;
@@ -310,7 +324,8 @@ function buildTasks(study: Study): SolveTask[] {
 export function initialAmount(j: number, run: RunConditions, study: Study): number {
   const kind = study.reactor.kind;
   if (kind === 'batch') return (run.initialConcentrations?.[j] ?? 0) * batchVolume(run);
-  if (kind === 'semibatch') return (run.initialConcentrations?.[j] ?? 0) * (run.initialVolume ?? 0);
+  // Semibatch: on the amount that entered, the charge plus the amount fed up to the run's time.
+  if (kind === 'semibatch') return (run.initialConcentrations?.[j] ?? 0) * (run.initialVolume ?? 0) + (run.feed?.[j] ?? 0) * run.size;
   return run.feed?.[j] ?? 0;
 }
 
