@@ -3,6 +3,7 @@
  * kinetic uncertainty carried through. Prints the size with units, percentiles, tubes, outlet,
  * warnings and always the cautions. Exit 0 sized, 1 unreachable or untrustworthy, 2 bad input.
  */
+import { formatPelletSizing } from './pellet-text';
 import type { Command } from 'commander';
 import { RateloomError } from '../src/core/errors';
 import { parseHandoff } from '../src/design/handoff-load';
@@ -121,6 +122,7 @@ export function formatSizing(r: SizingResult): string {
       L.push(`  ${s.padEnd(10)} ${g(v, 5).padStart(12)}  ${g(o.moleFractions[s], 4).padEnd(8)}${b}`);
     }
   }
+  if (r.pellet) L.push(...formatPelletSizing(r.pellet, r.size?.value));
   if (r.heat) L.push(`Adiabatic temperature rise: ${g(r.heat.adiabaticRise, 4)} K; heat to remove ${g(r.heat.heatDuty.value, 4)} ${r.heat.heatDuty.unit} (${r.heat.formula})`);
   if (r.warnings.length) {
     L.push('Warnings:');

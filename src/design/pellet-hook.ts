@@ -82,6 +82,9 @@ export function keySpecies(kinetics: CompiledKinetics, kase: DesignCase): number
   return 0;
 }
 
+/** An eta above this in the table switches the hook to a pellet solve at every call. */
+export const DIRECT_ABOVE = 3;
+
 /** Conversion of the key species up to which the learning pass fills the table. */
 function learnUpTo(kase: DesignCase): number {
   return kase.target.kind === 'conversion' ? Math.min(0.995, kase.target.value + 0.05) : 0.99;
@@ -102,6 +105,13 @@ export class PelletRateHook implements RateHook {
   private readonly theta: Float64Array;
   private alpha = NaN;
   private learning = false;
+  /**
+   * Solve the pellet at every call instead of reading the table: set when the table holds an eta
+   * above DIRECT_ABOVE (a reaction whose surface rate nearly vanishes, such as a product that
+   * reacts further inside the pellet). eta then behaves like 1/C at the surface, and a table keyed by
+   * conversion would make the bed balances artificially stiff.
+   */
+  direct = false;
   private sys?: DesignSystem;
   /** Pellet solves that did not converge (their eta is still used). */
   failures = 0;
@@ -143,6 +153,7 @@ export class PelletRateHook implements RateHook {
     } finally {
       this.learning = false;
     }
+    this.direct = this.table.entries().some((e) => e.values.some((v) => v > DIRECT_ABOVE));
   }
 
   apply(t: number, y: Float64Array, C: Float64Array, T: number, r: Float64Array): void {
@@ -161,7 +172,8 @@ export class PelletRateHook implements RateHook {
     } else {
       const alpha = this.sys ? this.sys.alpha : 0;
       if (alpha !== this.alpha) this.learn(alpha);
-      if (!this.table.interpolate(x, eta)) eta.fill(1);
+      if (this.direct) eta.set(this.evaluator.evaluate(C, T).factor);
+      else if (!this.table.interpolate(x, eta)) eta.fill(1);
     }
     for (let i = 0; i < r.length; i++) r[i] *= eta[i];
   }

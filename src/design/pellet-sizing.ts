@@ -205,6 +205,15 @@ export function pelletSizing(input: PelletSizingInput): PelletSizing {
       path: ['tubes', 'particleDiameter'],
     });
   }
+  if (hook.direct) {
+    const tops = Object.entries(profile.eta).map(([id, e]) => `${id} up to ${Math.max(...e).toPrecision(3)}`).join(', ');
+    warnings.push({
+      code: 'W_PELLET_ETA',
+      message: `effectiveness factors well above 1 (${tops}): a species formed inside the pellet reacts further there while its bulk concentration is low, so the pellet was solved at every bed point instead of read from the table (slower, especially for Monte Carlo draws)`,
+      path: ['pellet'],
+    });
+  }
+  if (profile.size.length < 21) warnings.push({ code: 'W_PELLET_PROFILE', message: 'the bed could not be integrated to the nominal size for the eta profile; the profile stops early', path: ['pellet'] });
   if (hook.failures > 0) {
     warnings.push({ code: 'W_PELLET_SOLVE', message: `${hook.failures} pellet solves did not converge (${hook.lastFailure ?? ''}); their effectiveness factors were used as found` });
   }

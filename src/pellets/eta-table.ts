@@ -3,7 +3,8 @@
  * the bed (the conversion of the key species), so that a bed integration solves the pellet only
  * every `step` of progress instead of at every right-hand-side call.
  *
- * Method: piecewise-linear interpolation between stored entries no further apart than `step`;
+ * Method: piecewise-linear interpolation between stored entries no further apart than `step`
+ * whose values differ by at most `relTol` (relative);
  * a query past the last entry (or before the first) by less than `step` is extrapolated linearly
  * from the two nearest entries; any other query asks for a new pellet solve at the current state,
  * which is stored. The table therefore holds eta at states the integration actually visited.
@@ -21,8 +22,19 @@ export class EtaTable {
   /**
    * @param nR values per entry (one per reaction)
    * @param step largest progress gap bridged by interpolation (default 0.05)
+   * @param relTol largest relative difference of neighbouring entries bridged (default 0.25): where
+   *   eta changes steeply (a reaction whose surface rate nearly vanishes), entries get denser
    */
-  constructor(readonly nR: number, readonly step = 0.05) {}
+  constructor(readonly nR: number, readonly step = 0.05, readonly relTol = 0.25) {}
+
+  /** True when entries i and j are close enough, in progress and in value, to interpolate between. */
+  private bridgeable(i: number, j: number): boolean {
+    if (Math.abs(this.xs[j] - this.xs[i]) > this.step) return false;
+    const a = this.rows[i];
+    const b = this.rows[j];
+    for (let q = 0; q < this.nR; q++) if (Math.abs(b[q] - a[q]) > this.relTol * Math.max(Math.abs(a[q]), Math.abs(b[q]))) return false;
+    return true;
+  }
 
   get size(): number {
     return this.xs.length;
@@ -52,13 +64,13 @@ export class EtaTable {
     let i: number;
     let j: number;
     if (k > 0 && k < n) {
-      if (this.xs[k] - this.xs[k - 1] > this.step) return false;
       [i, j] = [k - 1, k];
+      if (!this.bridgeable(i, j)) return false;
     } else {
       if (n < 2) return false;
       [i, j] = k === 0 ? [0, 1] : [n - 2, n - 1];
       const edge = k === 0 ? this.xs[0] : this.xs[n - 1];
-      if (Math.abs(x - edge) > this.step || this.xs[j] - this.xs[i] > this.step) return false;
+      if (Math.abs(x - edge) > this.step || !this.bridgeable(i, j)) return false;
     }
     const w = (x - this.xs[i]) / (this.xs[j] - this.xs[i]);
     const a = this.rows[i];
