@@ -17,11 +17,11 @@
  * errors, sigma_r = sqrt(sigma_F0^2 + sigma_F^2) / W (first-order propagation, JCGM 100:2008 GUM
  * eq. 10).
  */
-import { RateloomError, type FieldPath } from '../core/errors';
-import type { Quantity } from '../units';
-import type { Phase, ReactorKind } from '../reactors/types';
-import { GAS_CONSTANT } from './mapping';
-import type { FieldSpec } from './spec';
+import { RateloomError, type FieldPath } from '../core/errors.js';
+import type { Quantity } from '../units/index.js';
+import type { Phase, ReactorKind } from '../reactors/types.js';
+import { GAS_CONSTANT } from './mapping.js';
+import type { FieldSpec } from './spec.js';
 
 /** The composition at which measured rates of a per-run source were measured. */
 export interface RateCompositionSpec {

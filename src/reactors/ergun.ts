@@ -53,7 +53,7 @@ export function ergunAlpha(
   positive(inputs.crossSection, 'crossSection', path, 'm2');
   positive(inputs.catalystDensity, 'catalystDensity', path, 'kg/m3');
   if (!(Number.isFinite(inletPressure) && inletPressure > 0)) {
-    throw new RateloomError('E_VALUE', `inlet pressure must be positive to compute alpha, got ${inletPressure}`, {
+    throw new RateloomError('E_VALUE', `inlet pressure must be positive to compute alpha, got ${inletPressure} Pa`, {
       path: pressurePath,
       fix: 'Give the inlet pressure in Pa as a positive number.',
     });
@@ -81,7 +81,7 @@ export function resolveAlpha(
   if (spec.ergun) return ergunAlpha(spec.ergun, inletPressure, [...path, 'ergun'], pressurePath);
   const a = spec.alpha ?? 0;
   if (!(Number.isFinite(a) && a >= 0)) {
-    throw new RateloomError('E_VALUE', `pressure-drop alpha must be a non-negative number, got ${a}`, {
+    throw new RateloomError('E_VALUE', `pressure-drop alpha must be a non-negative number, got ${a} (1/kg for a packed bed, 1/m3 for plug flow)`, {
       path: [...path, 'alpha'],
       fix: 'Give alpha in 1/kg (packed bed) or 1/m3 (plug flow) as a number >= 0.',
     });

@@ -124,7 +124,7 @@ function prepareChecked(kind: TubeKind, spec: ReactorSpec, run: RunConditions, k
       const path = ['reactor', 'membrane', 'permeation', name];
       const j = speciesIndex(kinetics, name, path);
       if (!(Number.isFinite(k) && k >= 0)) {
-        throw new RateloomError('E_VALUE', `permeation coefficient of '${name}' is ${k}; it must be >= 0`, {
+        throw new RateloomError('E_VALUE', `permeation coefficient of '${name}' is ${k} 1/s; it must be >= 0`, {
           path, fix: 'Give the permeation coefficient in 1/s as a non-negative number.',
         });
       }
@@ -134,7 +134,7 @@ function prepareChecked(kind: TubeKind, spec: ReactorSpec, run: RunConditions, k
       const path = ['reactor', 'membrane', 'sweep', name];
       const j = speciesIndex(kinetics, name, path);
       if (!(Number.isFinite(c) && c >= 0)) {
-        throw new RateloomError('E_VALUE', `sweep concentration of '${name}' is ${c}; it must be >= 0`, {
+        throw new RateloomError('E_VALUE', `sweep concentration of '${name}' is ${c} mol/m3; it must be >= 0`, {
           path, fix: 'Give the sweep-side concentration in mol/m3 as a non-negative number.',
         });
       }

@@ -2,13 +2,13 @@
  * The steady states of a stirred tank as a result: each one's outlet flows and concentrations,
  * its stability where it can be judged, and which one the solution reports.
  *
- * Stability (isothermal liquid tank, one reaction): along the reaction line F = F0 + nu xi the
- * balances reduce to h(xi) = w r(C(F0 + nu xi)) - xi = 0, and the Jacobian of the tank's dynamics
- * (V/v0) dF/dt = G(F) is -I plus a rank-one term whose only non-trivial eigenvalue is dh/dxi; the
- * steady state is stable when dh/dxi < 0 (the slope condition for an isothermal tank, van Heerden,
- * Ind. Eng. Chem. 45 (1953) 1242-1247; Aris and Amundson 1958). Here dh/dxi = (J nu)_j0 / nu_j0
- * with J = dG/dF at the state. Gas tanks and several reactions: 'not-assessed'.
+ * Stability (isothermal liquid tank, constant density): the tank's dynamics are
+ * (V/v0) dF/dt = G(F), so a steady state is locally stable when every eigenvalue of J = dG/dF has a
+ * negative real part (Lyapunov's indirect method; for one reaction this is the slope condition of
+ * van Heerden, Ind. Eng. Chem. 45 (1953) 1242-1247), decided by numerics/lyapunov.ts. A gas tank's
+ * holdup changes with its composition at constant pressure, so its stability is 'not-assessed'.
  */
+import { hurwitz } from '../numerics/lyapunov.js';
 
 /** One steady state of a stirred tank. */
 export interface SteadyState {
@@ -25,18 +25,12 @@ export interface SteadyState {
 export type SteadyStateStart = 'feed' | 'given';
 
 /**
- * Stability from J = dG/dF (nS x nS, row-major) at a steady state of a liquid tank with one
- * reaction of stoichiometry nu (length nS).
+ * Stability of a liquid tank's steady state from J = dG/dF (nS x nS, row-major) at the state: the
+ * dynamics are (V/v0) dF/dt = G(F), so the state is stable when J is Hurwitz.
  */
-export function singleReactionStability(J: Float64Array, nu: ArrayLike<number>, nS: number): 'stable' | 'unstable' | 'not-assessed' {
-  let j0 = 0;
-  for (let j = 0; j < nS; j++) if (Math.abs(nu[j]) > Math.abs(nu[j0])) j0 = j;
-  if (nu[j0] === 0) return 'not-assessed';
-  let s = 0;
-  for (let k = 0; k < nS; k++) s += J[j0 * nS + k] * nu[k];
-  const slope = s / nu[j0];
-  if (!Number.isFinite(slope) || slope === 0) return 'not-assessed';
-  return slope < 0 ? 'stable' : 'unstable';
+export function liquidTankStability(J: Float64Array, nS: number): SteadyState['stability'] {
+  const v = hurwitz(J, nS);
+  return v === 'undecided' ? 'not-assessed' : v;
 }
 
 /** Index of the state in `list` nearest to `F` (max-norm), or -1 for an empty list. */

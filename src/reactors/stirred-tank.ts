@@ -22,7 +22,7 @@ import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentrati
 import { RateTerms } from './rate-terms';
 import { STATUS_SUCCESS } from './status';
 import type { Warning } from '../core/outcome';
-import { nearestState, singleReactionStability, type SteadyState } from './steady-states';
+import { liquidTankStability, nearestState, type SteadyState } from './steady-states';
 import type { ReactorModel, ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types';
 
 /** Residual tolerance of the steady state, relative to the total feed flow. */
@@ -205,7 +205,7 @@ export function solveStirredTank(
     stats: { rhsEvaluations: sys.evaluations, jacobianEvaluations: sys.jacobians, steps: sys.iterations, method: 'newton' },
     steadyStateStart: start ? 'given' : 'feed',
   };
-  if (search && found.length) sol.steadyStates = describeStates(sys, kinetics, found, ok ? outF : undefined);
+  if (search && found.length) sol.steadyStates = describeStates(sys, found, ok ? outF : undefined);
   if (ok && options.sensitivities && nP > 0) tankSensitivities(sys, outF, sol, warnings, run);
   return sol;
 }
@@ -251,17 +251,17 @@ function tankSensitivities(sys: TankSystem, outF: Float64Array, sol: ReactorSolu
 }
 
 /** Every steady state found, with its concentrations, stability and which one is reported. */
-function describeStates(sys: TankSystem, kinetics: CompiledKinetics, found: Float64Array[], reported: Float64Array | undefined): SteadyState[] {
+function describeStates(sys: TankSystem, found: Float64Array[], reported: Float64Array | undefined): SteadyState[] {
   const nS = sys.nS;
   const at = reported ? nearestState(found, reported) : -1;
-  const single = kinetics.reactionIds.length === 1 && !sys.gas;
+  const liquid = !sys.gas;
   return found.map((F, i) => {
     const C = new Float64Array(nS);
     sys.conc(F, C);
     let stability: SteadyState['stability'] = 'not-assessed';
-    if (single) {
+    if (liquid) {
       sys.jacobian(F);
-      stability = singleReactionStability(sys.J, kinetics.stoich, nS);
+      stability = liquidTankStability(sys.J, nS);
     }
     return { outletAmounts: Float64Array.from(F), outletConcentrations: C, stability, reported: i === at };
   });

@@ -2,7 +2,7 @@
  * Runs that need no reactor size: every observation of the run is a measured rate, which is
  * predicted from the rate law at the composition where it was measured (no reactor is solved).
  */
-import type { MappedObservation } from '../data/mapping';
+import type { MappedObservation } from '../data/mapping.js';
 
 /** Ids of the runs whose observations are all 'rate' responses. */
 export function ratesOnlyRuns(observations: readonly MappedObservation[]): Set<string> {

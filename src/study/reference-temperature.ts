@@ -3,8 +3,8 @@
  * energy), van 't Hoff terms (an enthalpy) and custom expressions that name T_ref depend on it.
  * When none does, messages say nothing about a reference temperature.
  */
-import type { RateLawSpec } from '../kinetics/spec';
-import type { Study } from './types';
+import type { RateLawSpec } from '../kinetics/spec.js';
+import type { Study } from './types.js';
 
 function lawUsesTref(r: RateLawSpec): boolean {
   if (r.form === 'expression') return /\bT_ref\b/.test(r.expression);

@@ -3,9 +3,9 @@
  * uses for a field held by a parameter, checked against the field's unit, and the names such
  * parameters have so that candidate rate-law sets keep them.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import { compoundToSI } from '../units';
-import type { ParameterSpec } from './parameters';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { compoundToSI } from '../units/index.js';
+import type { ParameterSpec } from './parameters.js';
 
 /** The mapping's parameterStart for the study's declared parameters. */
 export function parameterStartFor(specs: readonly ParameterSpec[]): (name: string, siUnit: string, path: FieldPath) => number {

@@ -6,8 +6,8 @@
  * kinetics parameters only, so a study with run-level parameters is fitted with the estimation
  * layer's finite-difference Jacobian (the StudyModel then offers no exact Jacobian).
  */
-import type { RunConditions } from '../reactors/types';
-import type { StudyRun } from '../study/types';
+import type { RunConditions } from '../reactors/types.js';
+import type { StudyRun } from '../study/types.js';
 
 interface Entry {
   target: 'feed' | 'initialConcentration';

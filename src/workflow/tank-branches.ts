@@ -3,9 +3,9 @@
  * has several steady states at the fitted parameters gets a warning naming the branch used (the
  * one reached from the measured outlet, tank-start.ts), its stability and the others.
  */
-import type { Warning } from '../core/outcome';
-import type { Study } from '../study/types';
-import type { StudyModel } from './study-model';
+import type { Warning } from '../core/outcome.js';
+import type { Study } from '../study/types.js';
+import type { StudyModel } from './study-model.js';
 
 /** One warning per run with several steady states at the fitted (external, SI) values. */
 export function tankBranchWarnings(study: Study, model: StudyModel, external: Float64Array): Warning[] {

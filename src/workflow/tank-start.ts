@@ -5,7 +5,7 @@
  * first measured species that takes part; otherwise the measured species' flows replace the feed's.
  * Outlet flows are used as measured; conversions give F0 (1 - X); liquid concentrations F = C v0.
  */
-import type { Observation, Study, StudyRun } from '../study/types';
+import type { Observation, Study, StudyRun } from '../study/types.js';
 
 /** Outlet flow of species j implied by an outlet observation, mol/s; undefined when not implied. */
 function impliedFlow(o: Observation, run: StudyRun, study: Study): number | undefined {

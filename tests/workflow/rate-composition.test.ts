@@ -8,6 +8,8 @@ import { isRateloomError } from '../../src/core/errors';
 import { loadStudy } from '../../src/study';
 import { fitStudy } from '../../src/workflow/fit-study';
 import { StudyModel } from '../../src/workflow/study-model';
+import { summarizeStudy } from '../../src/study/summary';
+import { formatCheck } from '../../cli/check';
 
 const PATH = join(import.meta.dirname, 'virtual.study.json');
 const R = 8.314462618; // J/(mol K), exact (SI Brochure 9th ed.)
@@ -47,7 +49,7 @@ const CSV = 'run,V_L,v0,FA0,FA,FB,sFA,sFA0\nC1,2,1,10,4,6,0.3,0.4\nC2,1,1,10,5.7
 
 describe('stirred tank: rate from the mole balance', () => {
   it('r = (F_A0 - F_A)/V with sigma from the flow sigmas, as computed by hand', () => {
-    const { study } = load(cstrStudy(), CSV);
+    const { study, report } = load(cstrStudy(), CSV);
     const o = study.observations[0];
     expect(o.response).toBe('rate');
     expect(o.unit).toBe('mol/(m3 s)');
@@ -58,6 +60,8 @@ describe('stirred tank: rate from the mole balance', () => {
     // Composition at the outlet: C_A = F_A / v0 = 4 mmol/min / (1 L/min) = 4 mmol/L = 4 mol/m3.
     expect(study.runs[0].rateConcentrations![0]).toBeCloseTo(4, 12);
     expect(study.rateNotes!.join('\n')).toMatch(/mole balance r = \(F0 - F\)\/W \(or \/V\), F from column FA, sigma propagated from sFA and sFA0/);
+    const text = formatCheck(summarizeStudy(study, report), report);
+    expect(text).toContain('rates: cstr.csv: measured rates evaluated at the measured composition: outlet-flow columns FA, FB (C_j = F_j/v0');
   });
 
   it('a fit of the derived rates at the outlet composition returns k = r/C_A = 0.75 1/min', () => {
