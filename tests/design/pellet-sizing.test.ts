@@ -11,6 +11,8 @@ import { buildSystem, type RateHook } from '../../src/design/system';
 import { Sizer } from '../../src/design/sizer';
 import { casePelletModel } from '../../src/design/pellet-hook';
 import { bundleAlpha } from '../../src/design/tubes';
+import { sizingReportData } from '../../src/workflow/sizing-report-data';
+import { renderSizingReport } from '../../src/report';
 import { EffectivenessEvaluator } from '../../src/pellets/effectiveness';
 import { etaSphereFirstOrder } from '../../src/pellets/analytic';
 import { GAS_CONSTANT } from '../../src/kinetics/temperature';
@@ -42,6 +44,13 @@ describe('first-order gas bed with a spherical pellet', () => {
     expect(Math.abs(r.pellet!.intrinsicSize! / (W * eta) - 1)).toBeLessThan(1e-6);
     for (const e of r.pellet!.profile.eta.r1) expect(Math.abs(e - eta)).toBeLessThan(1e-6);
     expect(r.cautions.some((c) => c.includes('pilot'))).toBe(true);
+  });
+  it("Bischoff's generalized modulus gives the same bed (exact for first order)", () => {
+    const kg = loadCase({ ...raw, pellet: { ...pellet, method: 'generalized' } }, ['A', 'B', 'N2'], ['r1']);
+    const g = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase: kg, options: { draws: 0 } });
+    expect(g.pellet!.method).toBe('generalized');
+    expect(g.pellet!.pelletSolves).toBe(0);
+    expect(Math.abs(g.size!.value / r.size!.value - 1)).toBeLessThan(1e-6);
   });
 });
 
@@ -78,6 +87,27 @@ describe('tube bundle with a plant pellet', () => {
       expect(rows[i].catalystMass!).toBeGreaterThan(rows[i - 1].catalystMass!);
     }
     expect(rows[2].pressureDrop!).toBeLessThan(rows[1].pressureDrop!);
+  });
+});
+
+describe('sizing report with the plant pellet', () => {
+  it('JSON fields, the eta chart and the trade-off chart render without errors', async () => {
+    const h = tubeBundleHandoff();
+    const dk = kineticsFromHandoff(h);
+    const kase = loadCase(tubeBundleCase('pellet report', '480 K', { pellet: { ...pellet, tradeOff: ['2 mm', '3 mm', '5 mm'] } }), ['A', 'B', 'C', 'N2'], ['r1']);
+    const r = sizeReactor({ handoff: h, kinetics: dk.kinetics, kase, molarMasses: dk.molarMasses, options: { draws: 0 } });
+    const data = sizingReportData(r);
+    expect(data.pellet!.tradeOff.rows.map((x) => x.diameterMm)).toEqual([2, 3, 5]);
+    expect(data.pellet!.profile.series[0].points.length).toBe(21);
+    const out = await renderSizingReport(data);
+    for (const id of ['pellet-eta', 'pellet-trade-off']) {
+      const c = out.charts.find((x) => x.id === id)!;
+      expect(c.error).toBeUndefined();
+      expect(c.svg).toContain('<path');
+    }
+    expect(out.html).toContain('Plant pellet');
+    expect(out.markdown).toContain('## Plant pellet');
+    expect(JSON.parse(JSON.stringify(r)).pellet.tradeOff.rows.length).toBe(3);
   });
 });
 
