@@ -15,6 +15,7 @@ import { runCommand } from './run';
 import { g } from './format';
 import { formatTransport } from './transport-text';
 import { checkLabTransport } from '../src/workflow/lab-transport';
+import { formatLabCheck } from './check-lab';
 
 const EXAMPLE = `
 Example:
@@ -93,8 +94,8 @@ export function registerCheck(program: Command): void {
         const transport = checkLabTransport(study);
         const ok = summary.observations > 0 && summary.degreesOfFreedom > 0;
         return {
-          json: { status: ok ? 'ok' : 'nothing-to-fit', summary, report, ...(transport ? { transport } : {}) },
-          text: formatCheck(summary, report) + (transport ? `\n\n${formatTransport(transport)}` : '') + (ok ? '' : '\nNothing left to fit: add observations or fix parameters.'),
+          json: { status: ok ? 'ok' : 'nothing-to-fit', summary, report, ...(transport ? { transport } : {}), ...(study.lab ? { lab: study.lab } : {}) },
+          text: formatCheck(summary, report) + (transport ? `\n\n${formatTransport(transport)}` : '') + (study.lab ? `\n\n${formatLabCheck(study.lab)}` : '') + (ok ? '' : '\nNothing left to fit: add observations or fix parameters.'),
           trustworthy: ok,
         };
       });

@@ -24,6 +24,8 @@ import { buildParameters, parameterRoles, referencedNames, type ParameterSpec } 
 import { ratesOnlyRuns } from './rate-runs';
 import { parameterStartFor, runParameterNames } from './run-parameters';
 import { referenceTemperatureMatters } from './reference-temperature';
+import { attachLabData } from './lab-attach';
+import type { ActivitySpec, LabDataSpec } from './lab-types';
 import { DEFAULT_ERROR_MODEL, sigmaFromModel, type CandidateSet, type ErrorModel, type LoadedStudy, type Observation, type Study, type StudyRun } from './types';
 
 /** The study-file schema as an object (the same file editors use). */
@@ -48,6 +50,8 @@ interface RawStudy {
   candidates?: { name: string; description?: string; nests?: string; reactions: Record<string, RateLawSpec>; parameters?: ParameterSpec[] }[];
   checks?: Partial<CheckSettings> & { strict?: boolean };
   transport?: unknown;
+  labData?: LabDataSpec;
+  activity?: ActivitySpec;
 }
 
 export interface LoadOptions {
@@ -497,5 +501,5 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   study.referenceTemperatureApplies = referenceTemperatureMatters(study);
   const notes = perRun.flatMap((m) => m.rateNotes ?? []);
   if (notes.length) study.rateNotes = notes;
-  return { study, report };
+  return { study: attachLabData(study, raw.labData, raw.activity, { baseDir, readFile }), report };
 }

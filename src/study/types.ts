@@ -11,6 +11,7 @@ import type { ResponseKind } from '../data/spec';
 import type { RunParameterRef } from '../data/run-parameters';
 import type { PelletSpec } from '../pellets/types';
 import type { PelletFluid } from '../pellets/load';
+import type { Activity, LabData, LabResponseKind, LabTerms } from './lab-types';
 
 export type { ResponseKind } from '../data/spec';
 
@@ -29,6 +30,8 @@ export interface StudyRun extends RunConditions {
   rateConcentrations?: Float64Array;
   /** Feed flows or initial concentrations held by fitted parameters (src/data/run-parameters.ts). */
   runParameters?: readonly RunParameterRef[];
+  /** Time on stream (s) or sequence number of the run (labData timeOnStream / sequence). */
+  timeOnStream?: number;
   location: SourceLocation;
 }
 
@@ -38,9 +41,11 @@ export interface Observation {
   runId: string;
   /** Index of the run in study.runs. */
   runIndex: number;
-  response: ResponseKind;
+  response: ResponseKind | LabResponseKind;
   species?: string;
   speciesIndex?: number;
+  /** Terms of a lab response (basis, standard, reactant and factor); see src/study/lab-types.ts. */
+  lab?: LabTerms;
   /** Position (kg or m3 along the reactor) or time (s) of a profile point; undefined = outlet / end. */
   position?: number;
   /** Measured value, SI (`unit`). Conversion is a fraction; rate counts consumption of a reactant as positive. */
@@ -151,6 +156,10 @@ export interface Study {
   rateNotes?: string[];
   /** The lab pellet, for transport diagnostics of the runs (absent when the study gives none). */
   transport?: StudyTransport;
+  /** Analyser data (labData section), when given. */
+  lab?: LabData;
+  /** Catalyst activity model (activity section), when given and not 'none'. */
+  activity?: Activity;
 }
 
 export interface LoadedStudy {

@@ -5,7 +5,7 @@ import type { Observation, Study, StudyRun } from '../study/types';
 import { spaceTime as studySpaceTime } from '../study/summary';
 
 /** Label and SI unit of an observation's response, e.g. { label: 'F_A out', unit: 'mol/s' }. */
-export function responseLabel(o: Pick<Observation, 'response' | 'species'>, study: Pick<Study, 'reactor'>): { label: string; unit: string } {
+export function responseLabel(o: Pick<Observation, 'response' | 'species' | 'lab'>, study: Pick<Study, 'reactor'>): { label: string; unit: string } {
   const s = o.species ?? '';
   const batch = study.reactor.kind === 'batch' || study.reactor.kind === 'semibatch';
   switch (o.response) {
@@ -19,6 +19,14 @@ export function responseLabel(o: Pick<Observation, 'response' | 'species'>, stud
       return { label: 'P out', unit: 'Pa' };
     case 'rate':
       return { label: `-r_${s}`, unit: rateUnit(study) };
+    case 'outlet-fraction':
+      return { label: `y_${s} out${o.lab?.removed?.some(Boolean) ? ' (dry)' : ''}`, unit: '1' };
+    case 'fraction-ratio':
+      return { label: `y_${s}/y_std`, unit: '1' };
+    case 'selectivity':
+      return { label: `S_${s}`, unit: '1' };
+    case 'yield':
+      return { label: `Y_${s}`, unit: '1' };
     default:
       return { label: String(o.response), unit: '1' };
   }

@@ -19,6 +19,8 @@ import type { PredictionFailure, RegressionModel } from '../estimation/model';
 import type { CandidateSet, Observation, Study, StudyRun } from '../study/types';
 import { RunValues } from './run-values';
 import { measuredStarts } from './tank-start';
+import { ActivityTerms } from './activity-terms';
+import { isLabResponse, labGradient, labValue } from './lab-predict';
 
 /** Options of the study model. */
 export interface StudyModelOptions {
@@ -89,6 +91,11 @@ export class StudyModel implements RegressionModel {
   private readonly scratchC: Float64Array;
   private readonly scratchR: Float64Array;
   private readonly scratchJP: Float64Array;
+  /** dg/dF of a lab response (nS). */
+  private readonly scratchG: Float64Array;
+  /** d a / d (activity parameter) of a run. */
+  private readonly scratchA: Float64Array;
+  private readonly activity: ActivityTerms;
   jacobian?: RegressionModel['jacobian'];
   /** Work counters since construction: reactor solves, right-hand-side and Jacobian evaluations. */
   readonly counters = { predictions: 0, jacobians: 0, solves: 0, rhsEvaluations: 0, jacobianEvaluations: 0, rateEvaluations: 0 };
@@ -98,7 +105,8 @@ export class StudyModel implements RegressionModel {
     this.variant = variant.name;
     this.parameters = variant.parameters;
     this.parameterNames = variant.parameters.map((p) => p.name);
-    const kinNames = [...new Set(this.parameterNames.map(baseName))];
+    const activityNames = new Set(study.activity?.parameters ?? []);
+    const kinNames = [...new Set(this.parameterNames.filter((n) => !activityNames.has(n)).map(baseName))];
     this.kinetics = compileKinetics({
       chemistry: study.chemistry,
       rates: variant.reactions.map((r) => r.rate as RateLawSpec),
@@ -131,6 +139,11 @@ export class StudyModel implements RegressionModel {
     this.scratchC = new Float64Array(nS);
     this.scratchR = new Float64Array(nR);
     this.scratchJP = new Float64Array(nR * kinNames.length);
+    this.scratchG = new Float64Array(nS);
+    this.activity = new ActivityTerms(study, this.parameterNames);
+    this.scratchA = new Float64Array(this.activity.indices.length);
+    // With an activity model every solve scales its own copy of the run's size.
+    if (this.activity.active) for (const t of this.tasks) t.run = { ...t.run };
     this.reactorOptions = { rtol: options.rtol ?? 1e-8, atol: options.atol ?? 1e-12 };
     // During a fit a stirred tank searches for other steady states only when Newton from the feed
     // fails; solveRun (reports, simulation) keeps the full search and its warning.
@@ -147,7 +160,7 @@ export class StudyModel implements RegressionModel {
     // checks (or tolerances that do) keeps the checked path, whose error becomes a prediction failure.
     const tolOk = [this.reactorOptions.rtol, this.reactorOptions.atol].every((v) => Number.isFinite(v) && (v as number) > 0);
     const kind = study.reactor.kind;
-    if (tolOk && (kind === 'packed-bed' || kind === 'plug-flow' || kind === 'membrane') && (study.reactor.phase === 'gas' || study.reactor.phase === 'liquid')) {
+    if (tolOk && !this.activity.active && (kind === 'packed-bed' || kind === 'plug-flow' || kind === 'membrane') && (study.reactor.phase === 'gas' || study.reactor.phase === 'liquid')) {
       for (const task of this.tasks) {
         if (this.runValues?.has(task.runIndex)) continue; // its feed changes with the parameters
         try {
@@ -169,7 +182,9 @@ export class StudyModel implements RegressionModel {
   solveRun(runIndex: number, external: Float64Array, options: ReactorOptions = {}): ReactorSolution {
     this.fillKinetics(runIndex, external);
     const base = this.study.runs[runIndex];
-    const run = this.runValues ? this.runValues.run(runIndex, base, external) : base;
+    const withValues = this.runValues ? this.runValues.run(runIndex, base, external) : base;
+    const a = this.activity.value(runIndex, external);
+    const run = a === 1 ? withValues : { ...withValues, size: a * withValues.size };
     const start = this.starts[runIndex];
     return solveReactor(this.study.reactor, run, this.kinetics, this.thetaK.slice(), { ...this.reactorOptions, ...(start ? { start } : {}), ...options });
   }
@@ -202,66 +217,111 @@ export class StudyModel implements RegressionModel {
       this.counters.jacobians++;
     } else this.counters.predictions++;
     let ok = true;
-    for (const task of this.tasks) {
-      const run = this.study.runs[task.runIndex];
-      this.fillKinetics(task.runIndex, this.ext);
-      const opts = J ? (task.sensOptions ?? this.sensOptions) : (task.plainOptions ?? this.plainOptions);
-      if (this.runValues) this.runValues.fill(task.runIndex, task.run, this.ext);
-      let sol: ReactorSolution;
-      try {
-        sol =
-          task.prepared && allFinite(this.thetaK)
-            ? solvePreparedTube(task.prepared, this.thetaK, opts)
-            : solveReactor(this.study.reactor, task.run, this.kinetics, this.thetaK, opts);
-      } catch (e) {
-        failures?.push({ run: run.id, message: (e as Error).message });
-        ok = false;
-        continue;
-      }
-      this.counters.solves++;
-      this.counters.rhsEvaluations += sol.stats.rhsEvaluations;
-      this.counters.jacobianEvaluations += sol.stats.jacobianEvaluations;
-      if (!sol.success) {
-        failures?.push({ run: run.id, message: sol.message });
-        ok = false;
-        continue;
-      }
-      for (const o of task.observations) {
-        const v = outletValue(o, task.run, sol, this.study);
-        if (!Number.isFinite(v)) {
-          failures?.push({ run: run.id, message: `prediction of ${o.response} ${o.species ?? ''} is not finite` });
-          ok = false;
-        }
-        out[o.index] = v;
-        if (J && sol.sensitivity) this.chainOutlet(o, task.run, sol, task, J);
-      }
-    }
-    for (const o of this.rateObservations) {
-      const run = this.runValues ? (this.runValues.run(o.runIndex, this.study.runs[o.runIndex], this.ext) as StudyRun) : this.study.runs[o.runIndex];
-      this.fillKinetics(o.runIndex, this.ext);
-      rateConcentrations(run, this.study, this.scratchC);
-      this.kinetics.rates(this.scratchC, run.temperature, this.thetaK, this.scratchR);
-      this.counters.rateEvaluations++;
-      const j = o.speciesIndex ?? this.study.keyReactantIndex;
-      const nS = this.study.chemistry.speciesNames.length;
-      const nR = this.study.chemistry.reactionIds.length;
-      let v = 0;
-      for (let i = 0; i < nR; i++) v -= this.kinetics.stoich[i * nS + j] * this.scratchR[i];
-      out[o.index] = v;
+    for (const task of this.tasks) if (!this.evaluateTask(task, out, J, failures)) ok = false;
+    for (const o of this.rateObservations) if (!this.evaluateRate(o, out, J, failures)) ok = false;
+    return ok;
+  }
+
+  /** Solve one task's reactor (with its fitted run values, at the activity-scaled size) and fill its observations. */
+  private evaluateTask(task: SolveTask, out: Float64Array, J: Float64Array | undefined, failures?: PredictionFailure[]): boolean {
+    const run = this.study.runs[task.runIndex];
+    this.fillKinetics(task.runIndex, this.ext);
+    if (this.runValues) this.runValues.fill(task.runIndex, task.run, this.ext);
+    if (this.activity.active) task.run.size = this.activity.value(task.runIndex, this.ext) * task.size;
+    const sol = this.solveTask(task, J ? (task.sensOptions ?? this.sensOptions) : (task.plainOptions ?? this.plainOptions), failures);
+    if (!sol) return false;
+    let ok = true;
+    for (const o of task.observations) {
+      const v = outletValue(o, task.run, sol, this.study);
       if (!Number.isFinite(v)) {
-        failures?.push({ run: run.id, message: `rate of ${o.species ?? ''} is not finite` });
+        failures?.push({ run: run.id, message: `prediction of ${o.response} ${o.species ?? ''} is not finite` });
         ok = false;
       }
-      if (J) {
-        this.kinetics.ratesJacP(this.scratchC, run.temperature, this.thetaK, this.scratchJP);
-        const map = this.runMap[o.runIndex];
-        const nK = map.length;
-        for (let k = 0; k < nK; k++) {
-          let d = 0;
-          for (let i = 0; i < nR; i++) d -= this.kinetics.stoich[i * nS + j] * this.scratchJP[i * nK + k];
-          J[o.index * nP + map[k]] += d * this.dExt[map[k]];
-        }
-      }
+      out[o.index] = v;
+      if (J && sol.sensitivity) this.chainOutlet(o, task.run, sol, task, J);
+    }
+    if (J && this.activity.active && !this.chainActivity(task, J, failures)) ok = false;
+    return ok;
+  }
+
+  /** One reactor solve of a task with the current kinetics; undefined (and a failure) when it fails. */
+  private solveTask(task: SolveTask, opts: ReactorOptions, failures?: PredictionFailure[]): ReactorSolution | undefined {
+    const run = this.study.runs[task.runIndex];
+    let sol: ReactorSolution;
+    try {
+      sol =
+        task.prepared && allFinite(this.thetaK)
+          ? solvePreparedTube(task.prepared, this.thetaK, opts)
+          : solveReactor(this.study.reactor, task.run, this.kinetics, this.thetaK, opts);
+    } catch (e) {
+      failures?.push({ run: run.id, message: (e as Error).message });
+      return undefined;
+    }
+    this.counters.solves++;
+    this.counters.rhsEvaluations += sol.stats.rhsEvaluations;
+    this.counters.jacobianEvaluations += sol.stats.jacobianEvaluations;
+    if (!sol.success) {
+      failures?.push({ run: run.id, message: sol.message });
+      return undefined;
+    }
+    return sol;
+  }
+
+  /**
+   * Jacobian columns of the activity parameters: d y / d phi = (d y / d size_eff) size da/dphi,
+   * with d y / d size_eff by central differences (relative step 1e-5) at the scaled size.
+   */
+  private chainActivity(task: SolveTask, J: Float64Array, failures?: PredictionFailure[]): boolean {
+    const eff = task.run.size;
+    const h = 1e-5 * eff;
+    const values: number[][] = [];
+    for (const sz of [eff + h, eff - h]) {
+      task.run.size = sz;
+      const sol = this.solveTask(task, task.plainOptions ?? this.plainOptions, failures);
+      if (!sol) return false;
+      values.push(task.observations.map((o) => outletValue(o, task.run, sol, this.study)));
+    }
+    task.run.size = eff;
+    const nP = this.parameterNames.length;
+    const idx = this.activity.indices;
+    this.activity.derivative(task.runIndex, this.ext, this.scratchA);
+    task.observations.forEach((o, q) => {
+      const dy = (values[0][q] - values[1][q]) / (2 * h);
+      for (let k = 0; k < idx.length; k++) J[o.index * nP + idx[k]] += dy * task.size * this.scratchA[k] * this.dExt[idx[k]];
+    });
+    return true;
+  }
+
+  /** A measured rate at the run's measured (or inlet) composition, times the run's activity. */
+  private evaluateRate(o: Observation, out: Float64Array, J: Float64Array | undefined, failures?: PredictionFailure[]): boolean {
+    const run = this.runValues ? (this.runValues.run(o.runIndex, this.study.runs[o.runIndex], this.ext) as StudyRun) : this.study.runs[o.runIndex];
+    const nP = this.parameterNames.length;
+    this.fillKinetics(o.runIndex, this.ext);
+    rateConcentrations(run, this.study, this.scratchC);
+    this.kinetics.rates(this.scratchC, run.temperature, this.thetaK, this.scratchR);
+    this.counters.rateEvaluations++;
+    const a = this.activity.value(o.runIndex, this.ext);
+    const j = o.speciesIndex ?? this.study.keyReactantIndex;
+    const nS = this.study.chemistry.speciesNames.length;
+    const nR = this.study.chemistry.reactionIds.length;
+    let v = 0;
+    for (let i = 0; i < nR; i++) v -= this.kinetics.stoich[i * nS + j] * this.scratchR[i];
+    out[o.index] = a * v;
+    const ok = Number.isFinite(v);
+    if (!ok) failures?.push({ run: run.id, message: `rate of ${o.species ?? ''} is not finite` });
+    if (!J) return ok;
+    this.kinetics.ratesJacP(this.scratchC, run.temperature, this.thetaK, this.scratchJP);
+    const map = this.runMap[o.runIndex];
+    const nK = map.length;
+    for (let k = 0; k < nK; k++) {
+      let d = 0;
+      for (let i = 0; i < nR; i++) d -= this.kinetics.stoich[i * nS + j] * this.scratchJP[i * nK + k];
+      J[o.index * nP + map[k]] += a * d * this.dExt[map[k]];
+    }
+    if (this.activity.active) {
+      this.activity.derivative(o.runIndex, this.ext, this.scratchA);
+      const idx = this.activity.indices;
+      for (let k = 0; k < idx.length; k++) J[o.index * nP + idx[k]] += v * this.scratchA[k] * this.dExt[idx[k]];
     }
     return ok;
   }
@@ -272,6 +332,8 @@ export class StudyModel implements RegressionModel {
     const nK = map.length;
     const sens = sol.sensitivity!;
     const j = o.speciesIndex ?? -1;
+    const lab = isLabResponse(o);
+    if (lab) labGradient(o, run, sol.outletAmounts, this.scratchG);
     for (let k = 0; k < nK; k++) {
       let d: number;
       switch (o.response) {
@@ -290,11 +352,18 @@ export class StudyModel implements RegressionModel {
           d = sens.pressureRatio[k] * (run.pressure ?? 0);
           break;
         default:
-          d = 0;
+          d = lab ? dotColumn(this.scratchG, sens.amounts, k, nK) : 0;
       }
       J[o.index * nP + map[k]] += d * this.dExt[map[k]];
     }
   }
+}
+
+/** sum_s g_s d F_s / d theta_k over the species, from the flow sensitivities (nS x nK). */
+function dotColumn(g: Float64Array, amounts: Float64Array, k: number, nK: number): number {
+  let d = 0;
+  for (let s = 0; s < g.length; s++) d += g[s] * amounts[s * nK + k];
+  return d;
 }
 
 function allFinite(v: Float64Array): boolean {
@@ -354,7 +423,7 @@ export function outletValue(o: Observation, run: RunConditions, sol: ReactorSolu
     case 'outlet-pressure':
       return sol.pressureRatio * (run.pressure ?? NaN);
     default:
-      return NaN;
+      return labValue(o, run, sol.outletAmounts);
   }
 }
 

@@ -1,0 +1,49 @@
+/**
+ * Joins the `labData` and `activity` sections to a loaded study: reads the lab file, appends its
+ * observations (numbered after the others), gives runs their time on stream, and adds the
+ * activity model's parameters (src/study/activity-params.ts).
+ */
+import { isAbsolute, resolve } from 'node:path';
+import { RateloomError, isRateloomError } from '../core/errors';
+import { readCsv } from '../data/csv';
+import { activityParameters } from './activity-params';
+import { resolveLabConfig } from './lab-config';
+import { loadLabRows } from './lab-load';
+import type { ActivitySpec, LabDataSpec } from './lab-types';
+import { DEFAULT_ERROR_MODEL, type Observation, type Study } from './types';
+
+export interface LabIo {
+  /** Folder of the study file (lab file paths are relative to it). */
+  baseDir: string;
+  readFile: (absPath: string) => string;
+}
+
+function readLabTable(spec: LabDataSpec, io: LabIo) {
+  const abs = isAbsolute(spec.file) ? spec.file : resolve(io.baseDir, spec.file);
+  let text: string;
+  try {
+    text = io.readFile(abs);
+  } catch (e) {
+    if (isRateloomError(e)) throw e;
+    throw new RateloomError('E_FILE', `lab data file '${spec.file}' cannot be read (${(e as Error).message})`, { path: ['labData', 'file'], location: { file: abs } });
+  }
+  return readCsv(text, spec.file);
+}
+
+/** The study with its lab data and activity model joined; the study itself is not changed. */
+export function attachLabData(study: Study, labSpec: LabDataSpec | undefined, activitySpec: ActivitySpec | undefined, io: LabIo): Study {
+  if (!labSpec && !activitySpec) return study;
+  let out: Study = study;
+  if (labSpec) {
+    const kind = study.reactor.kind;
+    if (kind === 'batch' || kind === 'semibatch') throw new RateloomError('E_VALUE', `labData reads outlet fractions of a flow reactor, not of a ${kind} reactor`, { path: ['labData'] });
+    const cfg = resolveLabConfig(labSpec, study.chemistry, study.keyReactantIndex, study.errorModels, DEFAULT_ERROR_MODEL);
+    const runIndex = new Map(study.runs.map((r, i) => [r.id, i]));
+    const loaded = loadLabRows(readLabTable(labSpec, io), cfg, study.runs, runIndex, study.chemistry);
+    const n0 = study.observations.length;
+    const observations: Observation[] = [...study.observations, ...loaded.observations.map((o, k) => ({ ...o, index: n0 + k }) as Observation)];
+    const runs = study.runs.map((r, i) => (loaded.times.has(i) ? { ...r, timeOnStream: loaded.times.get(i) as number } : r));
+    out = { ...study, runs, observations, lab: loaded.lab };
+  }
+  return activitySpec ? activityParameters(out, activitySpec) : out;
+}
