@@ -18,6 +18,7 @@ import { loadStudy } from '../src/study/load';
 import { applyParameterValues, simulateStudy, type SimulationResult } from '../src/study/simulate';
 import { SeededRandom } from '../src/design/random';
 import { compoundToSI } from '../src/units';
+import { gcCampaignCsv, type GcTruth } from './generate-gc';
 
 /** Folder of this script (datasets-demo/). */
 export const DEMO_DIR = dirname(fileURLToPath(import.meta.url));
@@ -44,6 +45,7 @@ export interface DemoTruth {
   pbr: DatasetTruth;
   batch: DatasetTruth;
   cstr: DatasetTruth;
+  gc: GcTruth;
 }
 
 /** One generated file: path relative to datasets-demo/ and its text. */
@@ -221,10 +223,18 @@ function stirredTank(dir: string, t: DatasetTruth): GeneratedFile[] {
   return [{ path: 'cstr/runs.csv', content: out.csv([PROVENANCE, 'Continuous stirred tank, 1 L; feed flow in mL/min, concentrations in mol/L.']) }];
 }
 
+/** Gas-analyser campaign with catalyst decay (datasets-demo/generate-gc.ts). */
+function gasAnalyser(dir: string, t: GcTruth): GeneratedFile {
+  const studyPath = join(dir, t.study);
+  const raw = JSON.parse(readFileSync(studyPath, 'utf8')) as Record<string, unknown>;
+  const comments = [PROVENANCE, 'Bench packed bed, ethane oxidative dehydrogenation; feed in mmol/min, catalyst mass in g, time on stream in h, dry-basis outlet mole fractions in %.'];
+  return { path: 'gc/runs.csv', content: gcCampaignCsv(studyPath, raw, t, t.seed, comments) };
+}
+
 /** All generated files, in a fixed order. */
 export function generateDemoData(dir = DEMO_DIR): GeneratedFile[] {
   const truth = readTruth(dir);
-  return [...packedBed(dir, truth.pbr), ...batch(dir, truth.batch), ...stirredTank(dir, truth.cstr)];
+  return [...packedBed(dir, truth.pbr), ...batch(dir, truth.batch), ...stirredTank(dir, truth.cstr), gasAnalyser(dir, truth.gc)];
 }
 
 const isMain = process.argv[1] !== undefined && fileURLToPath(import.meta.url) === process.argv[1];

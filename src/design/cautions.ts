@@ -10,7 +10,10 @@ export const CAUTIONS: readonly string[] = [
   'Kinetics are valid only within the range of the data; outside it the size is an extrapolation.',
 ];
 
-/** A fresh copy of the cautions for one result. */
-export function cautions(): string[] {
-  return [...CAUTIONS];
+/**
+ * A fresh copy of the cautions for one result; a hand-off fitted with a catalyst activity model
+ * adds its note that the kinetics are those of the fresh catalyst.
+ */
+export function cautions(handoff?: { catalyst?: { note: string } }): string[] {
+  return handoff?.catalyst ? [...CAUTIONS, handoff.catalyst.note] : [...CAUTIONS];
 }

@@ -59,4 +59,6 @@ export interface FittedKinetics {
     feedMoleFraction?: Record<string, Range>;
     conversion?: Range & { species: string };
   };
+  /** Present when the lab data were fitted with a catalyst activity model: the kinetics are those of the fresh catalyst. */
+  catalyst?: { activityModel: string; note: string };
 }

@@ -201,7 +201,7 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, SizingResult, 
     case: kase.name,
     reactor: { ...kase.reactor },
     target: kase.target,
-    cautions: kase.pellet ? [...cautions(), ...PELLET_CAUTIONS] : cautions(),
+    cautions: kase.pellet ? [...cautions(handoff), ...PELLET_CAUTIONS] : cautions(handoff),
   };
   const fail = (status: SizingStatus, detail: string, extra: Partial<SizingResult> = {}): SizingResult => ({
     ...outcome(SIZING_STATUS, status, warnings, detail),

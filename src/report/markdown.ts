@@ -25,22 +25,9 @@ function statusLine(success: boolean, status: string, message: string): string {
   return `**${success ? 'Trustworthy' : 'NOT TRUSTWORTHY'}** (status \`${status.replace(/`/g, "'")}\`): ${md(message)}`;
 }
 
-/** The fit summary in Markdown. */
-export function renderFitMarkdown(data: FitReportData): string {
+/** Rows of the statistics table (lack of fit where replicates exist). */
+function statisticsRows(data: FitReportData): string[][] {
   const s = data.statistics;
-  const level = data.parameters.find((p) => p.ciLevel !== undefined)?.ciLevel;
-  const lv = level === undefined ? '' : `${formatNumber(level * 100, 3)} % `;
-  const params = mdTable(
-    ['Parameter', 'Estimate', 'Std. error', `${lv}linear CI`, `${lv}profile CI`, 'Flags'],
-    data.parameters.map((p) => [
-      md(p.name),
-      q(p.value, p.unit),
-      p.fixed ? 'fixed' : q(p.stdError, p.unit, 3),
-      p.fixed ? 'fixed' : p.linearCI ? `${formatInterval(p.linearCI)} ${md(formatUnit(p.unit))}` : NOT_COMPUTED,
-      p.fixed ? 'fixed' : p.profileCI ? `${formatInterval(p.profileCI)} ${md(formatUnit(p.unit))}` : NOT_COMPUTED,
-      md([...(p.fixed && !(p.flags ?? []).includes('fixed') ? ['fixed'] : []), ...(p.flags ?? [])].join(', ')),
-    ]),
-  );
   const statsRows: string[][] = [
     ['Observations n', q(s.n, 'obs.', 12)],
     ['Estimated parameters p', q(s.p, 'par.', 12)],
@@ -60,6 +47,37 @@ export function renderFitMarkdown(data: FitReportData): string {
     );
     if (l.conclusion) statsRows.push(['Lack of fit reading', md(l.conclusion)]);
   } else statsRows.push(['Lack of fit', 'not tested (no replicates)']);
+  return statsRows;
+}
+
+/** The lab-data and catalyst-activity notes, with the reference points as a table. */
+function labLines(data: FitReportData): string[] {
+  const lab = data.lab;
+  if (!lab) return [];
+  const out = ['## Lab data and catalyst activity', lab.notes.map((n) => `- ${md(n)}`).join('\n')];
+  const d = lab.drift;
+  if (d && d.points.length) {
+    out.push(md(d.verdict), mdTable(['Reference', 'Run', d.timeLabel, `Measured ${d.responseTitle}`, 'Sigma', 'Predicted'], d.points.map((p) => [md(p.group), md(p.run), q(p.time, d.timeUnit), q(p.measured, '1'), q(p.sigma, '1', 3), q(p.predicted, '1')])));
+  }
+  return out;
+}
+
+/** The fit summary in Markdown. */
+export function renderFitMarkdown(data: FitReportData): string {
+  const level = data.parameters.find((p) => p.ciLevel !== undefined)?.ciLevel;
+  const lv = level === undefined ? '' : `${formatNumber(level * 100, 3)} % `;
+  const params = mdTable(
+    ['Parameter', 'Estimate', 'Std. error', `${lv}linear CI`, `${lv}profile CI`, 'Flags'],
+    data.parameters.map((p) => [
+      md(p.name),
+      q(p.value, p.unit),
+      p.fixed ? 'fixed' : q(p.stdError, p.unit, 3),
+      p.fixed ? 'fixed' : p.linearCI ? `${formatInterval(p.linearCI)} ${md(formatUnit(p.unit))}` : NOT_COMPUTED,
+      p.fixed ? 'fixed' : p.profileCI ? `${formatInterval(p.profileCI)} ${md(formatUnit(p.unit))}` : NOT_COMPUTED,
+      md([...(p.fixed && !(p.flags ?? []).includes('fixed') ? ['fixed'] : []), ...(p.flags ?? [])].join(', ')),
+    ]),
+  );
+  const statsRows = statisticsRows(data);
   const parts = [
     `# ${md(data.title)}`,
     `Study: ${md(data.studyName)} · ${md(data.generatedBy)}${data.generatedAt ? ` · ${md(data.generatedAt)}` : ''}`,
@@ -107,6 +125,7 @@ export function renderFitMarkdown(data: FitReportData): string {
       mdTable(['', ...c.names], c.names.map((n, i) => [md(n), ...c.names.map((_, j) => q(c.matrix[i]?.[j], '1', 3))])),
     );
   }
+  parts.push(...labLines(data));
   return parts.join('\n\n') + '\n';
 }
 

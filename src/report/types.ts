@@ -236,7 +236,30 @@ export interface FitReportData {
   /** Rate laws as readable lines, for example 'r1 = k1 K_A p_A / (1 + K_A p_A)^2'. */
   kinetics?: string[];
   /** Starting values rateloom estimated for parameters the study left open; null or absent when the study gave every value. */
-  startValues?: StartValuesData | null;
+  startValues?: StartValuesData | null;  /** Lab data and catalyst activity (docs/lab-data.md); null or absent when the study has neither. */
+  lab?: LabReportData | null;
+}
+
+/** One measured reference point of the activity chart. */
+export interface DriftPointData {
+  /** Reference group id. */
+  group: string;
+  run: string;
+  /** Time on stream (h) or run number. */
+  time: number;
+  measured: number;
+  /** Measurement sigma, in the response's unit; null when unknown. */
+  sigma: number | null;
+  /** Prediction at the fitted parameters; null when not computed. */
+  predicted: number | null;
+}
+
+/** The lab-data and catalyst-activity section of a fit report. */
+export interface LabReportData {
+  /** Plain-text notes (how fractions were fitted, fresh-catalyst kinetics, decay rate with its interval, balance warnings). */
+  notes: string[];
+  /** Repeated reference conditions against time on stream; null when there are none. */
+  drift?: { timeLabel: string; timeUnit: string; responseTitle: string; verdict: string; points: DriftPointData[] } | null;
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -12,7 +12,7 @@ import type { ErrorModel } from './types';
 import type { LabDataSpec, LabFitKind } from './lab-types';
 
 /** Default largest excess of the measured fractions' sum over 1. */
-export const DEFAULT_SUM_TOLERANCE = 0.01;
+export const DEFAULT_SUM_TOLERANCE = 0.03;
 /** Default tolerance of the element balance closure (|closure - 1|). */
 export const DEFAULT_BALANCE_TOLERANCE = 0.05;
 
@@ -129,6 +129,7 @@ function resolveErrorModel(spec: LabDataSpec, models: Record<string, ErrorModel>
 export function resolveLabConfig(spec: LabDataSpec, chem: Chemistry, keyReactant: number, models: Record<string, ErrorModel>, fallbackModel: string): LabConfig {
   const unitFactor = unitFor('dimensionless', spec.unit ?? '1', { path: [...PATH, 'unit'] }).factor;
   const removed = resolveRemoved(spec, chem);
+  if (!Object.keys(spec.fractions).length) throw new RateloomError('E_MISSING_FIELD', 'labData needs at least one fraction column', { path: [...PATH, 'fractions'] });
   const columns = Object.entries(spec.fractions).map(([name, column]) => ({ j: speciesIndex(chem, name, [...PATH, 'fractions', name]), column }));
   const standard = resolveStandard(spec, chem, removed);
   const pairs = resolvePairs(spec, chem);

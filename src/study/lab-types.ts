@@ -44,7 +44,7 @@ export interface LabDataSpec {
   selectivity?: SelectivitySpec[];
   /** Error model of the fractions (absolute in a dimensionless unit, and/or relative). */
   errorModel?: string;
-  /** Largest accepted excess of the measured fractions' sum over 1. Default 0.01. */
+  /** Largest accepted excess of the measured fractions' sum over 1. Default 0.03. */
   sumTolerance?: number;
   /** Element balance closure check: elements (default all) and tolerance (default 0.05 = 5 %). */
   balance?: { elements?: string[]; tolerance?: number };

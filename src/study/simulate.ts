@@ -11,6 +11,7 @@ import type { ReactorProfile, ReactorSolution, ReactorStatus } from '../reactors
 import { DEFAULT_BATCH_VOLUME } from '../reactors/batch';
 import { ROUND_OFF_NOTE, ROUND_OFF_TOLERANCE, shownAmounts } from '../reactors/round-off';
 import { compoundToSI } from '../units';
+import { activityOf } from './activity-params';
 import { runParameterNames } from './parameters';
 import { measuredConversions } from './summary';
 import type { Study, StudyRun } from './types';
@@ -123,9 +124,11 @@ export function simulateStudy(study: Study, parameters: readonly Parameter[] = s
       if (v === undefined) throw new RateloomError('E_UNKNOWN_PARAMETER', `no value for parameter '${n}'`, { path: ['parameters'] });
       return v;
     }));
-    const solved = withRunValues(run, byName);
+    const withValues = withRunValues(run, byName);
+    const a = study.activity ? activityOf(study.activity, run, study.activity.parameters.map((n) => byName.get(n) ?? NaN)) : 1;
+    const solved = a === 1 ? withValues : { ...withValues, size: a * withValues.size };
     const sol = solveReactor(study.reactor, solved, kinetics, theta, options.profile ? { profile: true } : {});
-    return simulatedRun(study, solved, sol, measured.get(run.id));
+    return simulatedRun(study, withValues, sol, measured.get(run.id));
   });
   return {
     keyReactant: study.keyReactant,

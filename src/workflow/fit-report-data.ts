@@ -9,6 +9,7 @@ import type { FitReportData, ParameterRowData, RunObservationData, RunProfileDat
 import type { Study } from '../study/types';
 import type { StudyFit } from './fit-study';
 import { feedRatio, responseLabel, spaceTime } from './labels';
+import { labReportData } from './lab-report-data';
 import { VERSION } from '../version';
 
 const COVARIANCE_TEXT: Record<string, string> = {
@@ -130,6 +131,7 @@ function startValues(sf: StudyFit): StartValuesData | null {
 /** The fit report view model of a study fit. */
 export function fitReportData(study: Study, sf: StudyFit, comparison?: Comparison): FitReportData {
   const { fit } = sf;
+  const lab = labReportData(study, sf);
   const s = fit.statistics;
   const lof = s.lackOfFit;
   return {
@@ -184,5 +186,6 @@ export function fitReportData(study: Study, sf: StudyFit, comparison?: Compariso
     ...(comparison ? { rivalModels: rivals(comparison) } : {}),
     kinetics: sf.model.kinetics.describe().map((d) => `${d.id}: ${d.equation};  r = ${d.text}  [${d.rateUnit}]`),
     startValues: startValues(sf),
+    ...(lab ? { lab } : {}),
   };
 }

@@ -12,6 +12,7 @@ import type { Study } from '../study/types';
 import { studyCoverage } from './coverage';
 import { nameObservations } from './observation-names';
 import { derivedQuantities, type DerivedQuantity } from './derived';
+import { driftCheck } from './drift';
 import { studyFitData, type StudyFitData } from './fit-data';
 import { StudyModel, baseVariant, candidateVariant, type ModelVariant, type StudyModelOptions } from './study-model';
 import { estimateStartValues, type StartValueOptions, type StartValues } from './start-values';
@@ -75,6 +76,12 @@ export function findVariant(study: Study, name: string): ModelVariant {
   return v;
 }
 
+/** The fit with the drift warning of repeated reference conditions added (src/workflow/drift.ts). */
+function withDriftWarning(fit: FitResult, study: Study): FitResult {
+  const w = driftCheck(study)?.warning;
+  return w ? { ...fit, warnings: [...fit.warnings, w] } : fit;
+}
+
 /** What fitStudy fits: the rate-law set (with any estimated starts), its model and data, the starts. */
 export interface StudyFitPlan {
   variant: ModelVariant;
@@ -100,7 +107,7 @@ export function planStudyFit(study: Study, options: StudyFitOptions = {}): Study
 /** The StudyFit of a plan from its finished fit (observations named by run, derived quantities). */
 export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult, minima?: Minimum[]): StudyFit {
   const branches = tankBranchWarnings(study, plan.model, Float64Array.from(fit.parameters, (p) => p.value));
-  const named = nameObservations(branches.length ? { ...fit, warnings: [...fit.warnings, ...branches] } : fit, study);
+  const named = withDriftWarning(nameObservations(branches.length ? { ...fit, warnings: [...fit.warnings, ...branches] } : fit, study), study);
   const derived = derivedQuantities(named, plan.variant.reactions.map((r) => r.rate), study.referenceTemperature);
   const transport = fittedLabTransport(study, plan.model, named);
   return {
@@ -153,6 +160,7 @@ function collapseGroups(params: FitResult['parameters']): FitResult['parameters'
 /** The fitted-kinetics hand-off file of a study fit (plain JSON, SI). */
 export function buildHandoff(study: Study, sf: StudyFit): FittedKinetics {
   const variant = findVariant(study, sf.variant);
+  const activity = new Set(study.activity?.parameters ?? []);
   const { fit } = sf;
   return {
     format: HANDOFF_FORMAT,
@@ -163,7 +171,7 @@ export function buildHandoff(study: Study, sf: StudyFit): FittedKinetics {
     species: study.species,
     reactions: variant.reactions,
     referenceTemperature: study.referenceTemperature,
-    parameters: collapseGroups(fit.parameters).map((p) => ({
+    parameters: collapseGroups(fit.parameters.filter((p) => !activity.has(p.name))).map((p) => ({
       name: p.name,
       unit: p.unit,
       value: p.value,
@@ -181,11 +189,7 @@ export function buildHandoff(study: Study, sf: StudyFit): FittedKinetics {
           }
         : {}),
     })),
-    covariance: {
-      space: 'internal',
-      names: fit.covariance.names,
-      matrix: fit.covariance.internal ?? fit.covariance.names.map(() => fit.covariance.names.map(() => 0)),
-    },
+    covariance: withoutActivity(fit, activity),
     statistics: {
       n: fit.statistics.n,
       p: fit.statistics.p,
@@ -196,5 +200,26 @@ export function buildHandoff(study: Study, sf: StudyFit): FittedKinetics {
     fitStatus: fit.status,
     labReactor: study.reactor,
     coverage: studyCoverage(study),
+    ...(study.activity ? { catalyst: freshCatalyst(study) } : {}),
+  };
+}
+
+/**
+ * The covariance of the kinetic parameters alone: the rows and columns of the activity parameters
+ * are dropped (the marginal covariance of the others, exact for a normal approximation).
+ */
+function withoutActivity(fit: FitResult, activity: ReadonlySet<string>): FittedKinetics['covariance'] {
+  const names = fit.covariance.names;
+  const matrix = fit.covariance.internal ?? names.map(() => names.map(() => 0));
+  const keep = names.map((n, i) => (activity.has(n) ? -1 : i)).filter((i) => i >= 0);
+  return { space: 'internal', names: keep.map((i) => names[i]), matrix: keep.map((i) => keep.map((j) => matrix[i][j])) };
+}
+
+/** The hand-off note on a study fitted with an activity model: the kinetics are the fresh catalyst's. */
+function freshCatalyst(study: Study): NonNullable<FittedKinetics['catalyst']> {
+  const model = study.activity?.model ?? 'none';
+  return {
+    activityModel: model,
+    note: `Rate constants of the fresh catalyst (activity 1): the lab campaign was fitted with the ${model} activity model, whose parameters (${study.activity?.parameters.join(', ')}) are not part of this hand-off. A size from these kinetics does not allow for deactivation.`,
   };
 }

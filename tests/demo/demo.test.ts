@@ -14,7 +14,7 @@ import { isRateloomError } from '../../src/core/errors';
 describe('demo data generator', () => {
   it('reproduces the committed CSV files byte for byte', () => {
     const files = generateDemoData();
-    expect(files.map((f) => f.path)).toEqual(['pbr/runs.csv', 'batch/runs.csv', 'batch/samples.csv', 'cstr/runs.csv']);
+    expect(files.map((f) => f.path)).toEqual(['pbr/runs.csv', 'batch/runs.csv', 'batch/samples.csv', 'cstr/runs.csv', 'gc/runs.csv']);
     for (const f of files) expect(f.content, f.path).toBe(readFileSync(join(DEMO_DIR, f.path), 'utf8'));
   });
 

@@ -3,6 +3,7 @@
  */
 import type { ChartSpec, FitReportData, SizingReportData } from '../types';
 import { correlationCharts } from './correlation';
+import { driftCharts } from './drift';
 import { likelihoodCharts } from './likelihood';
 import { parityCharts } from './parity';
 import { productionCharts } from './production';
@@ -13,7 +14,7 @@ import { rivalCharts } from './rivals';
 import { sensitivityCharts } from './sensitivity';
 import { sizeDistributionCharts } from './size-distribution';
 
-export { correlationCharts, likelihoodCharts, parityCharts, pelletCharts, productionCharts, profileCharts, residualCharts, rivalCharts, sensitivityCharts, sizeDistributionCharts };
+export { correlationCharts, driftCharts, likelihoodCharts, parityCharts, pelletCharts, productionCharts, profileCharts, residualCharts, rivalCharts, sensitivityCharts, sizeDistributionCharts };
 export { binSamples } from './size-distribution';
 
 /** Charts of a fit report grouped by section. */
@@ -24,6 +25,7 @@ export interface FitChartGroups {
   correlation: ChartSpec[];
   likelihood: ChartSpec[];
   rivals: ChartSpec[];
+  drift: ChartSpec[];
 }
 
 /** Build every fit chart. */
@@ -35,6 +37,7 @@ export function fitCharts(data: FitReportData): FitChartGroups {
     correlation: correlationCharts(data.correlation),
     likelihood: likelihoodCharts(data.likelihoodProfiles),
     rivals: rivalCharts(data.rivalModels),
+    drift: driftCharts(data.lab),
   };
 }
 
