@@ -27,7 +27,7 @@ describe('gas-analyser demo campaign', () => {
   let sf: StudyFit;
   const study = load();
   beforeAll(() => {
-    sf = fitStudy(study, { profiles: false });
+    sf = fitStudy(study, { profile: false });
   });
   it('recovers the recorded truth (rate constants and decay rate) within the 95 % intervals', () => {
     expect(sf.fit.success).toBe(true);
