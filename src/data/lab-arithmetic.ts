@@ -12,15 +12,6 @@
  * Pure functions on plain numbers; no units (fractions are mol/mol, flows mol/s).
  */
 
-/** Convert wet-basis fractions to the dry basis: removed species are dropped and the rest rescaled. */
-export function wetToDry(yWet: ArrayLike<number>, removed: ArrayLike<boolean>): Float64Array {
-  let kept = 0;
-  for (let k = 0; k < yWet.length; k++) if (!removed[k]) kept += yWet[k];
-  const out = new Float64Array(yWet.length);
-  for (let k = 0; k < yWet.length; k++) out[k] = removed[k] ? 0 : yWet[k] / kept;
-  return out;
-}
-
 /** Mole fractions of the analysed stream from molar flows: removed species are not counted. */
 export function fractionsFromFlows(F: ArrayLike<number>, removed: ArrayLike<boolean>): Float64Array {
   let total = 0;
@@ -28,6 +19,14 @@ export function fractionsFromFlows(F: ArrayLike<number>, removed: ArrayLike<bool
   const out = new Float64Array(F.length);
   for (let k = 0; k < F.length; k++) out[k] = removed[k] ? 0 : F[k] / total;
   return out;
+}
+
+/**
+ * Convert wet-basis fractions to the dry basis: removed species are dropped and the rest rescaled.
+ * Fractions are flows over a common total, so this is fractionsFromFlows on the wet fractions.
+ */
+export function wetToDry(yWet: ArrayLike<number>, removed: ArrayLike<boolean>): Float64Array {
+  return fractionsFromFlows(yWet, removed);
 }
 
 /** Outlet flow of a species from its fraction and the internal standard's fraction and feed flow. */
