@@ -40,6 +40,8 @@ export { readCsv } from './data';
 export type { ValidationReport, Rejection } from './data';
 export { loadStudy, STUDY_SCHEMA } from './study';
 export type { Study, LoadedStudy, Observation, StudyRun, ErrorModel, CandidateSet } from './study';
+export type { LabData, LabRunDerived, LabDataSpec, ActivitySpec, Activity, LabResponseKind } from './study/lab-types';
+export { wetToDry, fractionsFromFlows, flowFromStandard, conversionFromStandard, selectivity, yieldOf, elementClosure } from './data/lab-arithmetic';
 
 // Estimation.
 export { fitModel, multistartFit, compareModels, levenbergMarquardt, profileParameter } from './estimation';
@@ -52,6 +54,7 @@ export { fitStudy, buildHandoff, studyVariants, type StudyFit, type StudyFitOpti
 export { compareStudy, type StudyComparison } from './workflow/compare-study';
 export { estimateStartValues } from './workflow/start-values';
 export { derivedQuantities, type DerivedQuantity } from './workflow/derived';
+export { driftCheck, type DriftCheck, type ReferenceSeries } from './workflow/drift';
 export { fitReportData } from './workflow/fit-report-data';
 export { sizingReportData } from './workflow/sizing-report-data';
 
