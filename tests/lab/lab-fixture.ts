@@ -4,7 +4,9 @@
  *   C2H6 + 0.5 O2 -> C2H4 + H2O     r1 = k1 C_C2H6
  *   C2H4 + 3 O2 -> 2 CO2 + 2 H2O    r2 = k2 C_C2H4
  */
+import { expect } from 'vitest';
 import { loadStudy } from '../../src/study/load';
+import type { StudyModel } from '../../src/workflow/study-model';
 
 export const LAB_DIR = '/virtual/lab';
 
@@ -71,4 +73,30 @@ export function loadLab(study: unknown, files: Record<string, string>) {
     if (f === undefined) throw new Error(`no such file ${abs}`);
     return f;
   });
+}
+
+/**
+ * The model's exact Jacobian against central differences of its predictions (relative step 1e-5;
+ * the decay rate is ~3e-6 1/s, so an absolute step would be far too large), for the given columns
+ * (default all).
+ */
+export function expectJacobianMatches(m: StudyModel, theta: Float64Array, columns: number[] = [...theta.keys()]): void {
+  const n = m.nObservations;
+  const nP = theta.length;
+  const J = new Float64Array(n * nP);
+  expect(m.jacobian!(theta, new Float64Array(n), J)).toBe(true);
+  const up = new Float64Array(n);
+  const dn = new Float64Array(n);
+  for (const k of columns) {
+    const h = 1e-5 * (Math.abs(theta[k]) || 1);
+    const t = Float64Array.from(theta);
+    t[k] = theta[k] + h;
+    m.predict(t, up);
+    t[k] = theta[k] - h;
+    m.predict(t, dn);
+    for (let i = 0; i < n; i++) {
+      const fd = (up[i] - dn[i]) / (2 * h);
+      expect(Math.abs(J[i * nP + k] - fd)).toBeLessThan(1e-5 * Math.max(1e-3, Math.abs(fd)) + 1e-9);
+    }
+  }
 }

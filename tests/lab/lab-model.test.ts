@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { fractionsFromFlows } from '../../src/data/lab-arithmetic';
 import { StudyModel } from '../../src/workflow/study-model';
-import { RUNS_HEADER, labStudy, loadLab } from './lab-fixture';
+import { RUNS_HEADER, expectJacobianMatches, labStudy, loadLab } from './lab-fixture';
 
 const RUNS = `${RUNS_HEADER},tos_h
 R1,780,0.5,10,10,80,0.08,0.08,0.02,0.01,0.81,0
@@ -25,25 +25,7 @@ describe('lab responses in the study model', () => {
   it('exact Jacobian matches central differences (with the exponential activity model)', () => {
     const m = model();
     const theta = Float64Array.from(m.parameters, (p) => (p.transform === 'log' ? Math.log(p.value) : p.value));
-    const n = m.nObservations;
-    const nP = theta.length;
-    const J = new Float64Array(n * nP);
-    const y0 = new Float64Array(n);
-    expect(m.jacobian!(theta, y0, J)).toBe(true);
-    const up = new Float64Array(n);
-    const dn = new Float64Array(n);
-    for (let k = 0; k < nP; k++) {
-      const h = 1e-5 * (Math.abs(theta[k]) || 1); // relative step (the decay rate is ~3e-6 1/s)
-      const t = Float64Array.from(theta);
-      t[k] = theta[k] + h;
-      m.predict(t, up);
-      t[k] = theta[k] - h;
-      m.predict(t, dn);
-      for (let i = 0; i < n; i++) {
-        const fd = (up[i] - dn[i]) / (2 * h);
-        expect(Math.abs(J[i * nP + k] - fd)).toBeLessThan(1e-5 * Math.max(1e-3, Math.abs(fd)) + 1e-9);
-      }
-    }
+    expectJacobianMatches(m, theta);
   });
   it('predicted dry fractions are those of the predicted flows, and activity slows the later runs', () => {
     const m = model();
