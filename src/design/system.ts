@@ -54,18 +54,12 @@ export interface DesignSystem {
 }
 
 /**
- * Build the design system for a case and compiled kinetics.
- * @param theta physical parameter values in `kinetics.parameterNames` order (copied)
- * @param hook scales the intrinsic rates (pellet effectiveness); default none
+ * Basis scale per reaction: rate in the size coordinate's basis = scale * compiled rate. Throws
+ * E_CASE when a density needed for the conversion is missing.
  */
-export function buildSystem(kinetics: CompiledKinetics, kase: DesignCase, theta: ArrayLike<number>, hook?: RateHook): DesignSystem {
-  const nS = kinetics.speciesNames.length;
+function basisScale(kinetics: CompiledKinetics, kase: DesignCase, coordinate: 'W' | 'V' | 't'): Float64Array {
   const nR = kinetics.reactionIds.length;
   const kind = kase.reactor.kind;
-  const gas = kase.reactor.phase === 'gas';
-  const coordinate: 'W' | 'V' | 't' = kind === 'packed-bed' ? 'W' : kind === 'batch' ? 't' : 'V';
-  const unit = coordinate === 'W' ? 'kg' : coordinate === 'V' ? 'm3' : 's';
-  // Basis scale per reaction: rate in the coordinate's basis = scale * compiled rate.
   const scale = new Float64Array(nR);
   for (let i = 0; i < nR; i++) {
     const b = kinetics.basis[i];
@@ -82,6 +76,22 @@ export function buildSystem(kinetics: CompiledKinetics, kase: DesignCase, theta:
       });
     }
   }
+  return scale;
+}
+
+/**
+ * Build the design system for a case and compiled kinetics.
+ * @param theta physical parameter values in `kinetics.parameterNames` order (copied)
+ * @param hook scales the intrinsic rates (pellet effectiveness); default none
+ */
+export function buildSystem(kinetics: CompiledKinetics, kase: DesignCase, theta: ArrayLike<number>, hook?: RateHook): DesignSystem {
+  const nS = kinetics.speciesNames.length;
+  const nR = kinetics.reactionIds.length;
+  const kind = kase.reactor.kind;
+  const gas = kase.reactor.phase === 'gas';
+  const coordinate: 'W' | 'V' | 't' = kind === 'packed-bed' ? 'W' : kind === 'batch' ? 't' : 'V';
+  const unit = coordinate === 'W' ? 'kg' : coordinate === 'V' ? 'm3' : 's';
+  const scale = basisScale(kinetics, kase, coordinate);
   const hasPressure = gas && (kind === 'packed-bed' || kind === 'plug-flow') && (kase.tubes !== undefined || (kase.alpha ?? 0) > 0);
   const dim = nS + (hasPressure ? 1 : 0);
   const y0 = new Float64Array(dim);
