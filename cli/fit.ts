@@ -9,6 +9,7 @@ import { formatTransport } from './transport-text';
 import type { Command } from 'commander';
 import { join } from 'node:path';
 import { RateloomError } from '../src/core/errors';
+import { DEFAULT_VERDICT_RULES } from '../src/estimation/verdict';
 import { buildHandoff, type StudyFit } from '../src/workflow/fit-study';
 import { fitStudyParallel } from '../src/parallel/fit-parallel';
 import { AUTO_RULE_TEXT, type WorkersSetting } from '../src/parallel/auto';
@@ -40,6 +41,7 @@ export interface FitFlags {
   report?: boolean;
   starts?: string;
   seed?: string;
+  maxIterations?: string;
   level?: string;
   strict?: boolean;
   force?: boolean;
@@ -78,7 +80,9 @@ export function formatFit(study: Study, sf: StudyFit): string {
   for (const r of fit.verdict.reasons) L.push(`  - [${r.code}] ${r.message}`);
   L.push(`Observations ${s.n}, free parameters ${s.p}, degrees of freedom ${s.dof}; ${s.iterations} iterations, ${s.evaluations} evaluations`);
   L.push(`Weighted SSR ${g(s.ssr)}; residual std dev ${g(s.residualStdDev)} (in units of sigma); AICc ${g(s.aicc, 6)}; BIC ${g(s.bic, 6)}`);
-  L.push(`Covariance: ${s.covarianceBasis === 'known-sigma' ? "(J'J)^-1, measurement sigma taken as known" : "s^2 (J'J)^-1, sigma scale estimated from the residuals"}`);
+  const weights = sf.data.weightsOnly?.length ? ` (error model ${sf.data.weightsOnly.join(', ')} gives relative weights only)` : '';
+  L.push(`Covariance: ${s.covarianceBasis === 'known-sigma' ? "(J'J)^-1, measurement sigma taken as known; chi-square test of the fit" : `s^2 (J'J)^-1, sigma scale estimated from the residuals${weights}`}`);
+  if (s.chiSquarePValue !== null) L.push(`Chi-square: ${g(s.chiSquare)} on ${s.dof} dof, p = ${g(s.chiSquarePValue, 3)} (misfit below p = ${DEFAULT_VERDICT_RULES.misfitPValue})`);
   if (s.lackOfFit) {
     const l = s.lackOfFit;
     L.push(`Lack of fit: F = ${g(l.F)} on (${l.dofLack}, ${l.dofPure}) dof, p = ${g(l.pValue, 3)}${l.pValue < 0.05 ? ' - the rate law misses something the replicates can see' : ' - no evidence of lack of fit'}`);
@@ -108,9 +112,7 @@ export function formatFit(study: Study, sf: StudyFit): string {
     L.push(table([['parameter', 'start', 'unit', 'how'], ...sv.estimated.map((e) => [e.name, g(e.value, 4), e.unit, e.detail])]));
     for (const n of sv.notes) L.push(`  note: ${n}`);
   }
-  if (sf.minima && sf.minima.length > 1) {
-    L.push('', `Multistart found ${sf.minima.length} distinct minima (weighted SSR): ${sf.minima.map((m) => `${g(m.ssr, 6)} (${m.count} starts)`).join(', ')}`);
-  }
+  if (sf.starts) L.push('', ...formatStarts(sf));
   if (fit.influential.length) {
     L.push('', 'Influential observations:');
     for (const o of fit.influential) {
@@ -125,6 +127,17 @@ export function formatFit(study: Study, sf: StudyFit): string {
   return L.join('\n');
 }
 
+/** The multistart: every start with its end SSR, status and the minimum it reached. */
+function formatStarts(sf: StudyFit): string[] {
+  const starts = sf.starts ?? [];
+  const minima = sf.minima ?? [];
+  const L = [`Multistart: ${starts.length} starts (start 0 is the given values; the others are a Latin hypercube, see --starts); ${minima.length} distinct minim${minima.length === 1 ? 'um' : 'a'} (weighted SSR): ${minima.map((m) => `${g(m.ssr, 6)} (${m.count} starts)`).join(', ') || 'none'}`];
+  const rows = [['start', 'end SSR', 'status', 'iterations', 'minimum']];
+  for (const r of starts) rows.push([String(r.index), g(r.ssr, 6), r.status, String(r.iterations), r.minimum === null ? 'not chosen' : `#${r.minimum + 1}`]);
+  L.push(table(rows));
+  return L;
+}
+
 export function registerFit(program: Command): void {
   program
     .command('fit')
@@ -137,6 +150,7 @@ export function registerFit(program: Command): void {
     .option('--no-report', 'skip the HTML and Markdown report')
     .option('--starts <n>', 'multistart: Latin-hypercube starts in addition to the given start (default 0, or 20 when a starting value was estimated)')
     .option('--seed <n>', 'seed of the multistart design', '1')
+    .option('--max-iterations <n>', 'largest number of accepted solver steps per start (default 200)')
     .option('--level <p>', 'confidence level of the intervals', '0.95')
     .option('--strict', 'fail on any rejected data row')
     .option('--force', 'overwrite existing output files')
@@ -147,6 +161,7 @@ export function registerFit(program: Command): void {
       await runCommand(!!flags.json, async () => {
         const starts = numberFlag(flags.starts, 'starts', (n) => Number.isInteger(n) && n >= 0, 'Give a whole number of starts, e.g. --starts 20.');
         const seed = numberFlag(flags.seed, 'seed', Number.isInteger, 'Give a whole-number seed, e.g. --seed 7.') ?? 1;
+        const maxIterations = numberFlag(flags.maxIterations, 'max-iterations', (n) => Number.isInteger(n) && n >= 1, 'Give a whole number of iterations >= 1, e.g. --max-iterations 500.');
         const level = numberFlag(flags.level, 'level', (n) => n > 0 && n < 1, 'Give a level between 0 and 1, e.g. --level 0.95.') ?? 0.95;
         const workers = workersFlag(flags.workers);
         const stem = flags.name ?? studyStem(studyPath);
@@ -156,7 +171,7 @@ export function registerFit(program: Command): void {
         assertWritable(planned, { force: !!flags.force });
         const progress = progressReporter(!!flags.json, 'multistart');
         const profileProgress = progressReporter(!!flags.json, 'profile intervals');
-        const sf = await fitStudyParallel(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, ...(starts !== undefined ? { starts } : {}), seed, level, workers, ...(progress ? { progress } : {}), ...(profileProgress ? { profileProgress } : {}) });
+        const sf = await fitStudyParallel(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, ...(starts !== undefined ? { starts } : {}), ...(maxIterations !== undefined ? { maxIterations } : {}), seed, level, workers, ...(progress ? { progress } : {}), ...(profileProgress ? { profileProgress } : {}) });
         const handoff = buildHandoff(study, sf);
         const handoffPath = writeAtomic(planned[0], toJson(handoff) + '\n', { force: !!flags.force });
         let reportPaths: { html: string; markdown: string } | undefined;
@@ -177,6 +192,7 @@ export function registerFit(program: Command): void {
             fit: sf.fit,
             derived: sf.derived,
             ...(sf.minima ? { minima: sf.minima } : {}),
+            ...(sf.starts ? { starts: sf.starts } : {}),
             ...(sf.startValues ? { startValues: { estimated: sf.startValues.estimated, points: sf.startValues.points, notes: sf.startValues.notes } } : {}),
             ...(sf.transport ? { transport: sf.transport } : {}),
             data: { rowsIn: report.rowsIn, rowsUsed: report.rowsUsed, rowsRejected: report.rowsRejected },

@@ -4,17 +4,24 @@
  * from a computer code", Technometrics 21, 239-245) in the estimation space, inside the bounds, or in
  * a span around the given start where a bound is infinite (log parameters: +- `logSpanDecades`
  * decades; others: +- `linearSpan` x |start|). The generator is the seeded mulberry32 (random.ts),
- * so a seed reproduces the design. The solver (lm.ts) runs from each start and from the given start;
- * converged results are grouped into distinct minima (same when the relative SSR difference is below
- * `ssrTolerance` and every estimation-space coordinate differs by less than
- * `distanceTolerance` x max(1, |x|)), best (lowest SSR) first. The best minimum is returned as a full
- * FitResult. No console output: progress goes through the optional callback.
+ * so a seed reproduces the design. The given start is always start 0 of the design, so the user's
+ * own start is always run and listed. The solver (lm.ts) runs from each start; each end point then
+ * gets the fit's verdict (verdict.ts, without profiles), and every start is listed with its end
+ * point, SSR and status. Only ends that reached a genuine minimum (verdict trustworthy, or failing
+ * only for misfit or identifiability: `minimumFound`) are candidates; ends at a degenerate solution
+ * (model identically zero, parameters at overflow), at a singular point, or where the search failed
+ * are marked and never chosen while a candidate exists. Candidates are grouped into distinct minima
+ * (same when the relative SSR difference is below `ssrTolerance` and every estimation-space
+ * coordinate differs by less than `distanceTolerance` x max(1, |x|)), best (lowest SSR) first. The
+ * best minimum is returned as a full FitResult. No console output: progress goes through the
+ * optional callback.
  */
 import { outcome, type Outcome, type Warning } from '../core/outcome';
 import { toExternal } from '../core/parameter';
 import type { Parameter } from '../core/parameter';
 import { assembleFit } from './fit';
 import type { FitData, FitOptions, FitResult } from './fit-types';
+import { minimumFound } from './verdict';
 import type { LmResult } from './lm';
 import type { RegressionModel } from './model';
 import { mulberry32 } from './random';
@@ -51,6 +58,25 @@ export interface Minimum {
   startIndices: number[];
 }
 
+/** One start of a multistart and where it ended. */
+export interface StartRun {
+  /** Position in the design (0 = the given start). */
+  index: number;
+  /** Starting values of the free parameters (SI). */
+  start: { name: string; value: number }[];
+  /** End point of the free parameters (SI). */
+  end: { name: string; value: number }[];
+  /** Weighted SSR at the end point. */
+  ssr: number;
+  /** Status of the end point: the solver's convergence code when its verdict is trustworthy, else the verdict status ('degenerate', 'misfit', ...). */
+  status: FitStatus;
+  iterations: number;
+  /** The end point is a genuine minimum and took part in the choice of the best. */
+  candidate: boolean;
+  /** Position in `minima` of the minimum it reached; null when not a candidate. */
+  minimum: number | null;
+}
+
 export interface MultistartResult extends Outcome<FitStatus> {
   /** Full result at the best minimum. */
   best: FitResult;
@@ -62,6 +88,8 @@ export interface MultistartResult extends Outcome<FitStatus> {
   convergedStarts: number;
   /** The starting points used (estimation space, free parameters), index 0 = the given start. */
   design: number[][];
+  /** Every start with its end point, SSR and status, in design order. */
+  runs: StartRun[];
 }
 
 /** Latin-hypercube design of `count` points in [lo_j, hi_j]. */
@@ -113,71 +141,98 @@ export function runStart(prep: PreparedFit, x0: readonly number[]): LmResult {
 
 /** The grouping of the starts' results into distinct minima (see the file header). */
 export interface StartGroups {
-  /** Distinct minima from converged runs, lowest SSR first. */
+  /** Distinct minima from candidate ends, lowest SSR first. */
   minima: Minimum[];
-  /** Solver result of the best converged run, or of the lowest-SSR run when none converged. */
+  /** Solver result of the best candidate, or (none) of the lowest-SSR end that is no degenerate or failed one, or of all. */
   bestLm: LmResult;
-  /** Warnings on the multistart (several minima, best found once). */
+  /** Every start, in design order. */
+  runs: StartRun[];
+  /** Warnings on the multistart (several minima, best found once, starts not chosen). */
   warnings: Warning[];
   convergedStarts: number;
 }
 
-/**
- * Group the solver results of the design's starts (`results[s]` from `design[s]`) into distinct
- * minima and pick the best; pure, so the starts may have run anywhere (worker threads included).
- */
-export function groupStarts(prep: PreparedFit, design: readonly number[][], results: readonly LmResult[], options: MultistartOptions = {}): StartGroups {
-  const free = prep.freeIndex;
-  const total = design.length;
-  const runs = results.map((lm, start) => ({ lm, start }));
-  const ssrTol = options.ssrTolerance ?? 1e-6;
-  const distTol = options.distanceTolerance ?? 1e-4;
-  const ok = runs.filter((r) => r.lm.success).sort((a, b) => a.lm.ssr - b.lm.ssr);
-  const groups: { lm: LmResult; starts: number[] }[] = [];
-  for (const r of ok) {
-    const same = groups.find((g) => {
-      const dS = Math.abs(g.lm.ssr - r.lm.ssr) / Math.max(g.lm.ssr, r.lm.ssr, Number.MIN_VALUE);
-      if (dS > ssrTol) return false;
-      for (let k = 0; k < free.length; k++) {
-        if (Math.abs(g.lm.x[k] - r.lm.x[k]) > distTol * Math.max(1, Math.abs(g.lm.x[k]))) return false;
-      }
-      return true;
-    });
-    if (same) same.starts.push(r.start);
-    else groups.push({ lm: r.lm, starts: [r.start] });
-  }
-  const minima: Minimum[] = groups.map((g) => ({
-    ssr: g.lm.ssr,
-    values: free.map((j, k) => ({ name: prep.parameters[j].name, value: toExternal(prep.parameters[j], g.lm.x[k]) })),
-    internal: Array.from(g.lm.x),
-    count: g.starts.length,
-    startIndices: g.starts,
-  }));
-  // Best converged run, or the lowest-SSR run of all when none converged (its status says so).
-  const bestLm = groups.length ? groups[0].lm : runs.slice().sort((a, b) => a.lm.ssr - b.lm.ssr)[0].lm;
+const named = (prep: PreparedFit, x: ArrayLike<number>) => prep.freeIndex.map((j, k) => ({ name: prep.parameters[j].name, value: toExternal(prep.parameters[j], x[k]) }));
+
+/** The same minimum: relative SSR difference and every coordinate within the tolerances. */
+function sameMinimum(a: LmResult, b: LmResult, ssrTol: number, distTol: number): boolean {
+  const dS = Math.abs(a.ssr - b.ssr) / Math.max(a.ssr, b.ssr, Number.MIN_VALUE);
+  if (dS > ssrTol) return false;
+  for (let k = 0; k < a.x.length; k++) if (Math.abs(a.x[k] - b.x[k]) > distTol * Math.max(1, Math.abs(a.x[k]))) return false;
+  return true;
+}
+
+/** Warnings about the starts: several minima, best reached once, ends that were never candidates. */
+function startWarnings(groups: { lm: LmResult; starts: number[] }[], runs: StartRun[]): Warning[] {
   const warnings: Warning[] = [];
   if (groups.length > 1) {
     warnings.push({
       code: 'multiple-minima',
-      message: `${groups.length} distinct minima found from ${total} starts; the best has SSR ${groups[0].lm.ssr.toPrecision(6)}, the next ${groups[1].lm.ssr.toPrecision(6)}`,
+      message: `${groups.length} distinct minima found from ${runs.length} starts; the best has SSR ${groups[0].lm.ssr.toPrecision(6)}, the next ${groups[1].lm.ssr.toPrecision(6)}`,
     });
   }
-  if (groups.length && groups[0].starts.length === 1 && total > 1) {
+  if (groups.length && groups[0].starts.length === 1 && runs.length > 1) {
     warnings.push({ code: 'best-found-once', message: 'the best minimum was reached from only one start; more starts may find a better one' });
   }
-  return { minima, bestLm, warnings, convergedStarts: ok.length };
+  const rejected = runs.filter((r) => !r.candidate);
+  if (rejected.length) {
+    const counts = new Map<string, number>();
+    for (const r of rejected) counts.set(r.status, (counts.get(r.status) ?? 0) + 1);
+    warnings.push({
+      code: 'starts-not-chosen',
+      message: `${rejected.length} of ${runs.length} starts ended where no trustworthy minimum is (${[...counts].map(([k, n]) => `${n} ${k}`).join(', ')}) and were not chosen`,
+      path: rejected.map((r) => r.index),
+    });
+  }
+  return warnings;
+}
+
+/**
+ * Judge every start's end point (its verdict, without profiles), group the candidates into
+ * distinct minima and pick the best; pure, so the starts may have run anywhere (worker threads
+ * included).
+ */
+export function groupStarts(prep: PreparedFit, design: readonly number[][], results: readonly LmResult[], options: MultistartOptions = {}): StartGroups {
+  const judged = results.map((lm, index) => ({ lm, index, fit: assembleFit(prep, lm, false) }));
+  const ssrTol = options.ssrTolerance ?? 1e-6;
+  const distTol = options.distanceTolerance ?? 1e-4;
+  const candidates = judged.filter((r) => minimumFound(r.fit)).sort((a, b) => a.lm.ssr - b.lm.ssr);
+  const groups: { lm: LmResult; starts: number[] }[] = [];
+  const minimumOf = new Map<number, number>();
+  for (const r of candidates) {
+    let g = groups.findIndex((x) => sameMinimum(x.lm, r.lm, ssrTol, distTol));
+    if (g < 0) g = groups.push({ lm: r.lm, starts: [] }) - 1;
+    groups[g].starts.push(r.index);
+    minimumOf.set(r.index, g);
+  }
+  const minima: Minimum[] = groups.map((g) => ({ ssr: g.lm.ssr, values: named(prep, g.lm.x), internal: Array.from(g.lm.x), count: g.starts.length, startIndices: g.starts }));
+  const runs: StartRun[] = judged.map((r) => ({
+    index: r.index,
+    start: named(prep, design[r.index]),
+    end: named(prep, r.lm.x),
+    ssr: r.lm.ssr,
+    status: r.fit.status,
+    iterations: r.lm.iterations,
+    candidate: minimumOf.has(r.index),
+    minimum: minimumOf.get(r.index) ?? null,
+  }));
+  const bySsr = (xs: typeof judged) => xs.slice().sort((a, b) => a.lm.ssr - b.lm.ssr)[0];
+  const usable = judged.filter((r) => !['degenerate', 'model-failure', 'no-search'].includes(r.fit.verdict.status));
+  const bestLm = groups.length ? groups[0].lm : (bySsr(usable) ?? bySsr(judged)).lm;
+  return { minima, bestLm, runs, warnings: startWarnings(groups, runs), convergedStarts: judged.filter((r) => r.lm.success).length };
 }
 
 /** The MultistartResult from the grouped starts and the full fit at the best minimum. */
 export function multistartResult(design: number[][], groups: StartGroups, best: FitResult): MultistartResult {
   const total = design.length;
   return {
-    ...outcome(FIT_STATUS, best.status, [...best.warnings, ...groups.warnings], `best of ${total} starts (${groups.convergedStarts} converged)`),
+    ...outcome(FIT_STATUS, best.status, [...best.warnings, ...groups.warnings], `best of ${total} starts (${groups.minima.reduce((n, m) => n + m.count, 0)} reached a minimum)`),
     best,
     minima: groups.minima,
     starts: total,
     convergedStarts: groups.convergedStarts,
     design,
+    runs: groups.runs,
   };
 }
 

@@ -70,6 +70,7 @@ export async function fitStudyParallel(study: Study, options: ParallelFitOptions
   try {
     let fit: FitResult;
     let minima: StudyFit['minima'];
+    let runs: StudyFit['starts'];
     if (plan.starts > 0) {
       const design = multistartDesign(prep, msOptions);
       const total = design.length;
@@ -81,6 +82,7 @@ export async function fitStudyParallel(study: Study, options: ParallelFitOptions
       const groups = groupStarts(prep, design, results, msOptions);
       fit = assembleFit(prep, groups.bestLm, false);
       minima = groups.minima;
+      runs = groups.runs;
     } else {
       fit = assembleFit(prep, solveFree(prep, prep.thetaFull).result, false);
     }
@@ -94,7 +96,7 @@ export async function fitStudyParallel(study: Study, options: ParallelFitOptions
       });
       fit = applyProfiles(fit, profiles, fitOptions.verdict);
     }
-    return finishStudyFit(study, plan, fit, minima);
+    return finishStudyFit(study, plan, fit, minima, runs);
   } finally {
     await (await poolP).close();
   }

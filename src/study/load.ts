@@ -46,7 +46,7 @@ interface RawStudy {
   referenceTemperature?: number | MeasureSpec;
   data: SourceSpec[];
   parameters: ParameterSpec[];
-  errorModels?: Record<string, { absolute?: MeasureSpec; relative?: number; replicates?: true }>;
+  errorModels?: Record<string, { absolute?: MeasureSpec; relative?: number; replicates?: true; size?: 'known' | 'weights' }>;
   candidates?: { name: string; description?: string; nests?: string; reactions: Record<string, RateLawSpec>; parameters?: ParameterSpec[] }[];
   checks?: Partial<CheckSettings> & { strict?: boolean };
   transport?: unknown;
@@ -178,13 +178,13 @@ function reactorSpec(raw: RawStudy['reactor'], speciesNames: readonly string[]):
 }
 
 function errorModels(raw: RawStudy['errorModels']): Record<string, ErrorModel> {
-  const out: Record<string, ErrorModel> = { [DEFAULT_ERROR_MODEL]: { name: DEFAULT_ERROR_MODEL, kind: 'unweighted', absolute: 0, relative: 0 } };
+  const out: Record<string, ErrorModel> = { [DEFAULT_ERROR_MODEL]: { name: DEFAULT_ERROR_MODEL, kind: 'unweighted', absolute: 0, relative: 0, sizeKnown: false } };
   for (const [name, m] of Object.entries(raw ?? {})) {
     const path = ['errorModels', name];
     if (name === DEFAULT_ERROR_MODEL) throw new RateloomError('E_VALUE', `'${DEFAULT_ERROR_MODEL}' is reserved for responses without an error model`, { path });
     if (m.replicates) {
-      if (m.absolute || m.relative !== undefined) throw new RateloomError('E_SCHEMA', "'replicates' cannot be combined with 'absolute' or 'relative'", { path });
-      out[name] = { name, kind: 'replicates', absolute: 0, relative: 0 };
+      if (m.absolute || m.relative !== undefined || m.size !== undefined) throw new RateloomError('E_SCHEMA', "'replicates' cannot be combined with 'absolute', 'relative' or 'size'", { path });
+      out[name] = { name, kind: 'replicates', absolute: 0, relative: 0, sizeKnown: true };
       continue;
     }
     if (!m.absolute && m.relative === undefined) throw new RateloomError('E_MISSING_FIELD', "an error model needs 'absolute', 'relative' (or both) or 'replicates': true", { path });
@@ -200,7 +200,7 @@ function errorModels(raw: RawStudy['errorModels']): Record<string, ErrorModel> {
       if (!(absolute > 0)) throw new RateloomError('E_VALUE', 'absolute sigma must be above zero', { path: [...path, 'absolute', 'value'] });
     }
     const relative = m.relative ?? 0;
-    out[name] = { name, kind: m.absolute && m.relative !== undefined ? 'combined' : m.absolute ? 'absolute' : 'relative', absolute, relative, ...(unit ? { unit } : {}) };
+    out[name] = { name, kind: m.absolute && m.relative !== undefined ? 'combined' : m.absolute ? 'absolute' : 'relative', absolute, relative, sizeKnown: (m.size ?? 'known') === 'known', ...(unit ? { unit } : {}) };
   }
   return out;
 }

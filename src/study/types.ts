@@ -76,6 +76,12 @@ export interface ErrorModel {
   unit?: string;
   /** Degrees of freedom behind a replicates sigma. */
   dof?: number;
+  /**
+   * True when the model gives the measurement's standard deviation (the study's size 'known', the
+   * default; replicates too); false when it gives only relative weights (size 'weights') and for
+   * 'unweighted'. Any observation whose model is not known makes the fit estimate the scale.
+   */
+  sizeKnown: boolean;
 }
 
 /** Name of the error model used by observations that name none. */

@@ -5,6 +5,9 @@
  * sigma of an observation: its own sigma column when given, else its response's error model
  * (relative sigma is taken on the measured value, common practice: weights then stay fixed during
  * the fit). 'unweighted' responses get sigma = 1 and the scale is estimated from the residuals.
+ * The scale is known (sigmaKnown: covariance (J'J)^-1, chi-square test) only when every
+ * observation has a sigma column or an error model whose size is known; one 'unweighted' response
+ * or one error model with size 'weights' makes the fit estimate one common scale factor.
  */
 import type { FitData } from '../estimation/fit-types';
 import { sigmaFromModel, type Study } from '../study/types';
@@ -12,6 +15,8 @@ import { sigmaFromModel, type Study } from '../study/types';
 export interface StudyFitData extends FitData {
   /** Per observation: how sigma was obtained. */
   sigmaSource: Array<'column' | 'error-model' | 'unweighted'>;
+  /** Error models in use that give only relative weights (size 'weights'), by name. */
+  weightsOnly: string[];
 }
 
 export function studyFitData(study: Study): StudyFitData {
@@ -23,6 +28,7 @@ export function studyFitData(study: Study): StudyFitData {
   for (const g of study.replicateGroups) for (const r of g.runIds) repOf.set(r, g.id);
   const groups: string[] = [];
   let unweighted = 0;
+  const weightsOnly = new Set<string>();
   for (const o of study.observations) {
     measured[o.index] = o.value;
     let s: number | undefined;
@@ -33,6 +39,7 @@ export function studyFitData(study: Study): StudyFitData {
       const m = study.errorModels[o.errorModel];
       s = m ? sigmaFromModel(m, o.value) : undefined;
       sigmaSource[o.index] = s !== undefined && s > 0 ? 'error-model' : 'unweighted';
+      if (m && m.kind !== 'unweighted' && !m.sizeKnown) weightsOnly.add(m.name);
     }
     if (s === undefined || !(s > 0)) {
       s = 1;
@@ -43,5 +50,5 @@ export function studyFitData(study: Study): StudyFitData {
     const rep = repOf.get(o.runId) ?? `run:${o.runId}`;
     groups[o.index] = `${rep}|${o.response}|${o.species ?? ''}|${o.position ?? ''}`;
   }
-  return { measured, sigma, sigmaKnown: unweighted === 0, groups, sigmaSource };
+  return { measured, sigma, sigmaKnown: unweighted === 0 && weightsOnly.size === 0, groups, sigmaSource, weightsOnly: [...weightsOnly] };
 }

@@ -17,6 +17,14 @@ const COVARIANCE_TEXT: Record<string, string> = {
   'known-sigma': '(JᵀJ)⁻¹ at the optimum (measurement sigma taken as known)',
 };
 
+/** How the covariance was formed, and why: error models with relative weights only are named. */
+function covarianceText(sf: StudyFit): string {
+  const basis = sf.fit.statistics.covarianceBasis;
+  const text = COVARIANCE_TEXT[basis] ?? basis;
+  const w = sf.data.weightsOnly ?? [];
+  return w.length && basis === 's2-scaled' ? `${text}; error model${w.length > 1 ? 's' : ''} ${w.map((n) => `'${n}'`).join(', ')} give${w.length > 1 ? '' : 's'} relative weights only, so no chi-square test is made` : text;
+}
+
 function parameterRows(sf: StudyFit): ParameterRowData[] {
   const flagsFor = new Map<string, string[]>();
   for (const w of sf.fit.warnings) {
@@ -157,7 +165,7 @@ export function fitReportData(study: Study, sf: StudyFit, comparison?: Compariso
       residualUnit: '1',
       aicc: s.aicc ?? NaN,
       bic: s.bic,
-      covarianceBasis: COVARIANCE_TEXT[s.covarianceBasis] ?? s.covarianceBasis,
+      covarianceBasis: covarianceText(sf),
       lackOfFit: lof
         ? {
             F: lof.F,

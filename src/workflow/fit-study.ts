@@ -4,7 +4,7 @@
  */
 import { tankBranchWarnings } from './tank-branches';
 import { fitModel } from '../estimation/fit';
-import { multistartFit, type Minimum } from '../estimation/multistart';
+import { multistartFit, type Minimum, type StartRun } from '../estimation/multistart';
 import type { FitOptions, FitResult } from '../estimation/fit-types';
 import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics } from '../design/handoff';
 import { RateloomError, closestName } from '../core/errors';
@@ -44,6 +44,8 @@ export interface StudyFit {
   data: StudyFitData;
   /** Distinct minima found by the multistart, lowest SSR first (absent for a single fit). */
   minima?: Minimum[];
+  /** Every start of the multistart with its end point, SSR and status (absent for a single fit). */
+  starts?: StartRun[];
   /** Pre-exponential factors (Arrhenius) and van 't Hoff factors with their intervals. */
   derived: DerivedQuantity[];
   /** The starting values rateloom estimated, and how (absent when the study gave every value). */
@@ -105,7 +107,7 @@ export function planStudyFit(study: Study, options: StudyFitOptions = {}): Study
 }
 
 /** The StudyFit of a plan from its finished fit (observations named by run, derived quantities). */
-export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult, minima?: Minimum[]): StudyFit {
+export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult, minima?: Minimum[], starts?: StartRun[]): StudyFit {
   const branches = tankBranchWarnings(study, plan.model, Float64Array.from(fit.parameters, (p) => p.value));
   const named = withDriftWarning(nameObservations(branches.length ? { ...fit, warnings: [...fit.warnings, ...branches] } : fit, study), study);
   const derived = derivedQuantities(named, plan.variant.reactions.map((r) => r.rate), study.referenceTemperature);
@@ -117,6 +119,7 @@ export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult,
     model: plan.model,
     data: plan.data,
     ...(minima ? { minima } : {}),
+    ...(starts ? { starts } : {}),
     derived,
     ...(plan.startValues ? { startValues: plan.startValues } : {}),
   };
@@ -132,7 +135,7 @@ export function fitPlannedStudy(study: Study, plan: StudyFitPlan, options: Study
   const { model, variant, data, starts } = plan;
   if (starts > 0) {
     const ms = multistartFit(model, variant.parameters, data, { ...options, starts, seed: options.seed ?? 1 });
-    return finishStudyFit(study, plan, ms.best, ms.minima);
+    return finishStudyFit(study, plan, ms.best, ms.minima, ms.runs);
   }
   return finishStudyFit(study, plan, fitModel(model, variant.parameters, data, options));
 }
