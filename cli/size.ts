@@ -1,7 +1,8 @@
 /**
  * `rateloom size KINETICS CASE`: size the production reactor from fitted kinetics, with the
  * kinetic uncertainty carried through. Prints the size with units, percentiles, tubes, outlet,
- * warnings and always the cautions. Exit 0 sized, 1 unreachable or untrustworthy, 2 bad input.
+ * warnings and always the cautions. Exit 0 sized from a trustworthy hand-off, 1 unreachable or
+ * untrustworthy (the result's verdict), 2 bad input (a hand-off refused by its verdict included).
  */
 import { formatPelletSizing } from './pellet-text';
 import type { Command } from 'commander';
@@ -44,6 +45,9 @@ stays within tubes.allowedPressureDrop, so only parameter sets beyond it may nee
 Targets: { "conversion": X, "species": S } | { "production": "2 mol/s", "species": P } | { "size": "150 kg" }.
 Reactor kinds: packed-bed (size in kg catalyst), plug-flow (m3), stirred-tank (m3), batch (s).
 Worker threads (Monte Carlo draws): ${AUTO_RULE_TEXT}
+The hand-off must come unchanged (content hash) from a trustworthy fit with a positive-definite
+covariance; otherwise size refuses it (exit 2) unless --accept-untrustworthy, and then every
+output carries a caution saying why and the exit code is 1.
 Exit codes: 0 sized, 1 target unreachable or result not trustworthy, 2 bad input.`;
 
 interface SizeFlags {
@@ -54,6 +58,7 @@ interface SizeFlags {
   report?: string;
   force?: boolean;
   workers?: string;
+  acceptUntrustworthy?: boolean;
 }
 
 function intFlag(v: string | undefined, name: string, min: number): number | undefined {
@@ -72,6 +77,8 @@ export function formatSizing(r: SizingResult): string {
   const L: string[] = [];
   L.push(`Case: ${r.case} (${r.reactor.kind}, ${r.reactor.phase})`);
   L.push(`Status: ${r.status} - ${r.message}`);
+  L.push(`Verdict: ${r.verdict.trustworthy ? 'trustworthy' : `NOT TRUSTWORTHY (${r.verdict.status})`}`);
+  for (const x of r.verdict.reasons) L.push(`  - [${x.code}] ${x.message}`);
   if (r.equilibrium) {
     const e = r.equilibrium;
     L.push(
@@ -145,6 +152,7 @@ export function registerSize(program: Command): void {
     .option('--out <file>', 'also write the JSON result to this file')
     .option('--report <dir>', 'also write the sizing report (HTML + Markdown) into this folder')
     .option('--force', 'overwrite --out and report files if they exist')
+    .option('--accept-untrustworthy', 'size even a hand-off whose fit is not trustworthy, whose content changed or whose covariance is singular (every output then says so)')
     .option(...WORKERS_OPTION)
     .addHelpText('after', EXAMPLE)
     .action(async (kineticsPath: string, casePath: string, flags: SizeFlags) => {
@@ -168,6 +176,7 @@ export function registerSize(program: Command): void {
             ...(draws !== undefined ? { draws } : {}),
             ...(seed !== undefined ? { seed } : {}),
             ...(onProgress ? { onProgress } : {}),
+            ...(flags.acceptUntrustworthy ? { acceptUntrustworthy: true } : {}),
           },
         }, { handoff: handoffRaw, case: caseRaw }, { workers });
         const outputs: { result?: string; html?: string; markdown?: string } = {};
@@ -177,7 +186,7 @@ export function registerSize(program: Command): void {
           outputs.html = r.html;
           outputs.markdown = r.markdown;
         }
-        return { json: Object.keys(outputs).length ? { ...result, outputs } : result, text: formatSizing(result), trustworthy: result.success };
+        return { json: Object.keys(outputs).length ? { ...result, outputs } : result, text: formatSizing(result), trustworthy: result.verdict.trustworthy };
       });
     });
 }

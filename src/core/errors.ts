@@ -27,6 +27,7 @@ export const ERROR_CODES = {
   E_CSV: 'Correct the CSV cell or row named in the message.',
   E_DATA: 'Correct or remove the data named in the message.',
   E_CASE: 'Correct the production case file.',
+  E_HANDOFF_UNTRUSTED: 'Fit again until the verdict is trustworthy and size the hand-off it writes, unchanged; or pass --accept-untrustworthy to size it anyway.',
   E_INTERNAL: 'This is a rateloom bug; please report it with the input that caused it.',
 } as const;
 

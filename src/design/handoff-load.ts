@@ -117,6 +117,14 @@ export function parseHandoff(raw: unknown): FittedKinetics {
     for (const [k, v] of Object.entries(cov2.feedMoleFraction)) checkRange(v, ['coverage', 'feedMoleFraction', k]);
   }
   req(raw, 'labReactor', [], 'object');
+  const verdict = req(raw, 'verdict', [], 'object') as Obj;
+  req(verdict, 'trustworthy', ['verdict'], 'boolean');
+  req(verdict, 'status', ['verdict'], 'string');
+  const cs = req(raw, 'covarianceStatus', [], 'string');
+  if (cs !== 'positive-definite' && cs !== 'singular' && cs !== 'unavailable') {
+    throw new RateloomError('E_VALUE', `covarianceStatus '${String(cs)}' must be 'positive-definite', 'singular' or 'unavailable'`, { path: ['covarianceStatus'] });
+  }
+  req(raw, 'contentHash', [], 'string');
   return raw as unknown as FittedKinetics;
 }
 

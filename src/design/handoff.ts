@@ -7,7 +7,8 @@ import type { ReactorSpec } from '../reactors/types';
 import type { Transform } from '../core/parameter';
 
 export const HANDOFF_FORMAT = 'rateloom.fitted-kinetics';
-export const HANDOFF_VERSION = 1;
+/** Version 2 added the verdict, the covariance status and the content hash. */
+export const HANDOFF_VERSION = 2;
 
 export interface HandoffParameter {
   name: string;
@@ -50,6 +51,12 @@ export interface FittedKinetics {
   statistics: { n: number; p: number; dof: number; residualStdDev: number; covarianceBasis: string };
   /** Fit status at hand-off time. */
   fitStatus: string;
+  /** The fit's verdict (estimation/verdict.ts): trustworthy or not, its status and every reason. */
+  verdict: { trustworthy: boolean; status: string; message: string; reasons: { code: string; message: string }[] };
+  /** Whether `covariance` is a usable positive-definite matrix, or was singular / unavailable at the fit (then it is all zeros). */
+  covarianceStatus: 'positive-definite' | 'singular' | 'unavailable';
+  /** 'sha256:<hex>' of the document without this field (design/handoff-hash.ts); `size` checks it. */
+  contentHash: string;
   /** The lab reactor the data came from. */
   labReactor: ReactorSpec;
   /** What the data covered: temperature (K), pressure (Pa), feed mole fractions per species, conversion of the key reactant. */

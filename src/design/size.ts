@@ -22,6 +22,11 @@ import { extrapolationWarnings } from './extrapolation';
 import { heatCheck, type HeatCheck } from './heat';
 import { cautions } from './cautions';
 import { PELLET_CAUTIONS, pelletSizing, systemWithPellet, type PelletSizing } from './pellet-sizing';
+import type { HandoffVerdict } from './handoff-verdict';
+import { finishGated, gateSizing, type SizingVerdict } from './size-gate';
+
+/** A sizing result before the hand-off gate adds its verdict (size-gate.ts). */
+type UngatedResult = Omit<SizingResult, 'kinetics' | 'verdict'>;
 
 export type SizingStatus =
   | 'sized'
@@ -45,6 +50,12 @@ export const SIZING_STATUS: StatusTable<SizingStatus> = {
 export interface SizingOptions {
   /** Monte Carlo draws; default from the case (10000). 0 skips Monte Carlo (delta method only). */
   draws?: number;
+  /**
+   * Size even from a hand-off whose verdict is not trustworthy (untrustworthy fit, changed content,
+   * singular covariance); the result then says so in its cautions and is not trustworthy. Default
+   * false: such a hand-off is refused (size-gate.ts).
+   */
+  acceptUntrustworthy?: boolean;
   /** PRNG seed; default from the case. */
   seed?: number;
   /** Confidence levels (fractions); default from the case ([0.9, 0.95]). */
@@ -104,6 +115,10 @@ export interface SizingResult extends Outcome<SizingStatus> {
   pellet?: PelletSizing;
   /** Always present, whatever the status. */
   cautions: string[];
+  /** The hand-off's verdict (handoff-verdict.ts). */
+  kinetics: HandoffVerdict;
+  /** Whether the sizing may be trusted: sized, and from a trustworthy hand-off (size-gate.ts). Decides the exit code and the report badge. */
+  verdict: SizingVerdict;
 }
 
 const QUANTITY = { kg: 'catalyst mass', m3: 'volume', s: 'batch time' } as const;
@@ -170,10 +185,11 @@ export function drawEvaluator(sizer: Sizer): (s: Sizer) => DrawEval {
 
 /** Size (or rate) the production reactor of a case. */
 export function sizeReactor(input: SizingInput): SizingResult {
-  const steps = sizingSteps(input);
+  const gate = gateSizing(input);
+  const steps = sizingSteps(gate.input);
   let next = steps.next();
   while (!next.done) next = steps.next(undefined);
-  return next.value;
+  return finishGated(next.value, gate.kinetics);
 }
 
 /**
@@ -182,14 +198,15 @@ export function sizeReactor(input: SizingInput): SizingResult {
  * the serial ones. A pass the provider leaves undefined is drawn here.
  */
 export async function sizeReactorWith(input: SizingInput, provider: DrawProvider): Promise<SizingResult> {
-  const steps = sizingSteps(input);
+  const gate = gateSizing(input);
+  const steps = sizingSteps(gate.input);
   let next = steps.next();
   while (!next.done) next = steps.next(await provider(next.value));
-  return next.value;
+  return finishGated(next.value, gate.kinetics);
 }
 
 /** The sizing, yielding each Monte Carlo pass it needs (answered with precomputed draws or undefined). */
-function* sizingSteps(input: SizingInput): Generator<DrawRequest, SizingResult, DrawValues | undefined> {
+function* sizingSteps(input: SizingInput): Generator<DrawRequest, UngatedResult, DrawValues | undefined> {
   const { handoff, kinetics, kase } = input;
   const opts = input.options ?? {};
   const map = parameterMap(handoff, kinetics.parameterNames);
@@ -203,7 +220,7 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, SizingResult, 
     target: kase.target,
     cautions: kase.pellet ? [...cautions(handoff), ...PELLET_CAUTIONS] : cautions(handoff),
   };
-  const fail = (status: SizingStatus, detail: string, extra: Partial<SizingResult> = {}): SizingResult => ({
+  const fail = (status: SizingStatus, detail: string, extra: Partial<UngatedResult> = {}): UngatedResult => ({
     ...outcome(SIZING_STATUS, status, warnings, detail),
     ...base,
     ...extra,
@@ -330,7 +347,7 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, SizingResult, 
     out.hi = hi;
     out.band = { lower: 0.05, upper: 0.95, draws: unc.outletBand.draws };
   }
-  const result: SizingResult = {
+  const result: UngatedResult = {
     ...outcome(SIZING_STATUS, t.kind === 'size' ? 'rated' : 'sized', warnings),
     ...base,
     size: { value: nominal, unit: sys.unit, quantity: QUANTITY[sys.unit] },

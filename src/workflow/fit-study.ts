@@ -7,6 +7,7 @@ import { fitModel } from '../estimation/fit';
 import { multistartFit, type Minimum, type StartRun } from '../estimation/multistart';
 import type { FitOptions, FitResult } from '../estimation/fit-types';
 import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics } from '../design/handoff';
+import { handoffHash } from '../design/handoff-hash';
 import { RateloomError, closestName } from '../core/errors';
 import type { Study } from '../study/types';
 import { studyCoverage } from './coverage';
@@ -165,7 +166,7 @@ export function buildHandoff(study: Study, sf: StudyFit): FittedKinetics {
   const variant = findVariant(study, sf.variant);
   const activity = new Set(study.activity?.parameters ?? []);
   const { fit } = sf;
-  return {
+  const doc: Omit<FittedKinetics, 'contentHash'> = {
     format: HANDOFF_FORMAT,
     formatVersion: HANDOFF_VERSION,
     tool: { name: 'rateloom', version: VERSION },
@@ -201,6 +202,8 @@ export function buildHandoff(study: Study, sf: StudyFit): FittedKinetics {
       covarianceBasis: fit.statistics.covarianceBasis,
     },
     fitStatus: fit.status,
+    verdict: { trustworthy: fit.verdict.trustworthy, status: fit.verdict.status, message: fit.verdict.message, reasons: fit.verdict.reasons.map((r) => ({ code: r.code, message: r.message })) },
+    covarianceStatus: fit.covariance.internal ? 'positive-definite' : fit.verdict.status === 'singular' ? 'singular' : 'unavailable',
     labReactor: study.reactor,
     coverage: studyCoverage(study),
     ...(study.activity ? { catalyst: freshCatalyst(study) } : {}),
@@ -225,4 +228,5 @@ function freshCatalyst(study: Study): NonNullable<FittedKinetics['catalyst']> {
     activityModel: model,
     note: `Rate constants of the fresh catalyst (activity 1): the lab campaign was fitted with the ${model} activity model, whose parameters (${study.activity?.parameters.join(', ')}) are not part of this hand-off. A size from these kinetics does not allow for deactivation.`,
   };
+  return { ...doc, contentHash: handoffHash(doc) };
 }

@@ -51,4 +51,29 @@ describe('rateloom size', () => {
     expect(doc.error.fix).toContain("'temperature'");
     expect(doc.error.location.file).toBe(p);
   }, 60000);
+
+  it('refuses a hand-off edited by hand (exit 2); with --accept-untrustworthy it sizes, exits 1 and every output says why', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'rl-size-'));
+    const h = JSON.parse(readFileSync(KIN, 'utf8'));
+    h.parameters[0].value *= 10;
+    h.parameters[0].internalValue += Math.log(10);
+    const p = join(dir, 'edited.kinetics.json');
+    writeFileSync(p, JSON.stringify(h, null, 2));
+    const refused = run(p, CASE, '--json', '--draws', '0');
+    expect(refused.status).toBe(2);
+    const err = JSON.parse(refused.stdout).error;
+    expect(err.code).toBe('E_HANDOFF_UNTRUSTED');
+    expect(err.message).toContain('content hash does not match');
+    expect(err.fix).toContain('--accept-untrustworthy');
+    const json = run(p, CASE, '--json', '--draws', '0', '--accept-untrustworthy');
+    expect(json.status).toBe(1);
+    const doc = JSON.parse(json.stdout);
+    expect(doc.verdict.trustworthy).toBe(false);
+    expect(doc.verdict.status).toBe('hash-mismatch');
+    expect(doc.cautions[0]).toMatch(/^NOT TRUSTWORTHY KINETICS/);
+    const text = run(p, CASE, '--draws', '0', '--accept-untrustworthy', '--report', dir);
+    expect(text.status).toBe(1);
+    expect(text.stdout).toContain('NOT TRUSTWORTHY KINETICS');
+    for (const f of ['bed-sizing.html', 'bed-sizing.md']) expect(readFileSync(join(dir, f), 'utf8')).toContain('NOT TRUSTWORTHY KINETICS');
+  }, 60000);
 });

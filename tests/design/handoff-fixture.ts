@@ -1,6 +1,18 @@
 /** Build small, invented fitted-kinetics hand-off documents for design tests. */
 import type { RateLawSpec } from '../../src/kinetics/spec';
 import type { FittedKinetics, HandoffParameter } from '../../src/design/handoff';
+import { handoffHash } from '../../src/design/handoff-hash';
+
+/**
+ * Record a trustworthy verdict, a positive-definite covariance status and the content hash on an
+ * invented hand-off (as \`rateloom fit\` does for a trustworthy fit); call again after changing it.
+ */
+export function seal(h: FittedKinetics): FittedKinetics {
+  h.verdict = { trustworthy: true, status: 'converged', message: 'invented test hand-off', reasons: [] };
+  h.covarianceStatus = 'positive-definite';
+  h.contentHash = handoffHash(h);
+  return h;
+}
 
 export function param(name: string, value: number, transform: 'log' | 'none', unit = '1', sd: number | null = null): HandoffParameter {
   return { name, unit, value, stdError: sd, fixed: false, transform, internalValue: transform === 'log' ? Math.log(value) : value };
@@ -14,9 +26,9 @@ export function handoff(
   coverage: FittedKinetics['coverage'],
   Tref: number,
 ): FittedKinetics {
-  return {
+  return seal({
     format: 'rateloom.fitted-kinetics',
-    formatVersion: 1,
+    formatVersion: 2,
     tool: { name: 'rateloom', version: '0.1.0' },
     study: 'invented test study',
     model: 'base',
@@ -27,9 +39,12 @@ export function handoff(
     covariance: { space: 'internal', ...cov },
     statistics: { n: 30, p: parameters.length, dof: 30 - parameters.length, residualStdDev: 0.01, covarianceBasis: 'test' },
     fitStatus: 'converged',
+    verdict: { trustworthy: true, status: 'converged', message: '', reasons: [] },
+    covarianceStatus: 'positive-definite',
+    contentHash: '',
     labReactor: { kind: 'packed-bed', phase: 'gas' },
     coverage,
-  };
+  });
 }
 
 /**
@@ -52,7 +67,7 @@ export function tubeBundleHandoff(coverage: FittedKinetics['coverage'] = { tempe
     { name: 'C', molarMass: 0.06 },
     { name: 'N2', formula: 'N2' },
   ];
-  return h;
+  return seal(h);
 }
 
 /** Production case file (raw JSON) of the tube-bundle scenario; `extra` adds or replaces fields. */
