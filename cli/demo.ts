@@ -216,7 +216,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
     sizing.push({
       case: result.case,
       status: result.status,
-      success: result.verdict.trustworthy,
+      success: result.success,
       size: result.size?.value ?? null,
       unit: result.size?.unit ?? null,
       p90: pct(0.9),

@@ -59,6 +59,23 @@ export function parseHandoff(raw: unknown): FittedKinetics {
   });
   const Tref = req(raw, 'referenceTemperature', [], 'number') as number;
   if (!(Tref > 0)) throw new RateloomError('E_VALUE', 'reference temperature must be positive (K)', { path: ['referenceTemperature'] });
+  const names = checkParameters(raw);
+  checkCovariance(raw, names);
+  const cov2 = req(raw, 'coverage', [], 'object') as Obj;
+  const T = req(cov2, 'temperature', ['coverage'], 'object') as Obj;
+  checkRange(T, ['coverage', 'temperature']);
+  if (cov2.pressure !== undefined) checkRange(cov2.pressure, ['coverage', 'pressure']);
+  if (cov2.conversion !== undefined) checkRange(cov2.conversion, ['coverage', 'conversion']);
+  if (cov2.feedMoleFraction !== undefined) {
+    if (!isObj(cov2.feedMoleFraction)) throw new RateloomError('E_TYPE', 'feedMoleFraction must be an object', { path: ['coverage', 'feedMoleFraction'] });
+    for (const [k, v] of Object.entries(cov2.feedMoleFraction)) checkRange(v, ['coverage', 'feedMoleFraction', k]);
+  }
+  checkVerdict(raw);
+  return raw as unknown as FittedKinetics;
+}
+
+/** Parameters: unique names, finite values, a known transform, internal value matching it. */
+function checkParameters(raw: Obj): Set<string> {
   const params = req(raw, 'parameters', [], 'array') as unknown[];
   const names = new Set<string>();
   params.forEach((p, i) => {
@@ -79,6 +96,11 @@ export function parseHandoff(raw: unknown): FittedKinetics {
     }
     req(p, 'fixed', path, 'boolean');
   });
+  return names;
+}
+
+/** Covariance: names of known parameters, a square matrix of finite numbers, symmetric, diagonal >= 0. */
+function checkCovariance(raw: Obj, names: Set<string>): void {
   const cov = req(raw, 'covariance', [], 'object') as Obj;
   const cnames = req(cov, 'names', ['covariance'], 'array') as unknown[];
   const matrix = req(cov, 'matrix', ['covariance'], 'array') as unknown[];
@@ -107,15 +129,10 @@ export function parseHandoff(raw: unknown): FittedKinetics {
       }
     }
   }
-  const cov2 = req(raw, 'coverage', [], 'object') as Obj;
-  const T = req(cov2, 'temperature', ['coverage'], 'object') as Obj;
-  checkRange(T, ['coverage', 'temperature']);
-  if (cov2.pressure !== undefined) checkRange(cov2.pressure, ['coverage', 'pressure']);
-  if (cov2.conversion !== undefined) checkRange(cov2.conversion, ['coverage', 'conversion']);
-  if (cov2.feedMoleFraction !== undefined) {
-    if (!isObj(cov2.feedMoleFraction)) throw new RateloomError('E_TYPE', 'feedMoleFraction must be an object', { path: ['coverage', 'feedMoleFraction'] });
-    for (const [k, v] of Object.entries(cov2.feedMoleFraction)) checkRange(v, ['coverage', 'feedMoleFraction', k]);
-  }
+}
+
+/** The lab reactor, the fit's verdict, the covariance status and the content hash are present. */
+function checkVerdict(raw: Obj): void {
   req(raw, 'labReactor', [], 'object');
   const verdict = req(raw, 'verdict', [], 'object') as Obj;
   req(verdict, 'trustworthy', ['verdict'], 'boolean');
@@ -125,7 +142,6 @@ export function parseHandoff(raw: unknown): FittedKinetics {
     throw new RateloomError('E_VALUE', `covarianceStatus '${String(cs)}' must be 'positive-definite', 'singular' or 'unavailable'`, { path: ['covarianceStatus'] });
   }
   req(raw, 'contentHash', [], 'string');
-  return raw as unknown as FittedKinetics;
 }
 
 function checkRange(v: unknown, path: FieldPath): void {

@@ -127,9 +127,22 @@ export function compareModels(rivals: readonly RivalFit[], options: CompareOptio
   ];
   const indistinguishable = ranking.filter((m) => m.converged && (m.delta as number) < 2).map((m) => m.name);
 
+  const nestedTests = nestedTestsOf(rivals, options.nested ?? [], basis, alpha, warnings);
+
+  return { criterion, ranking, nestedTests, indistinguishable, verdict: verdictText(ranking, indistinguishable, nestedTests, criterion, alpha), warnings };
+}
+
+/** Likelihood-ratio (chi-square, known sigma) or F tests of the nested pairs; skipped pairs add a warning. */
+function nestedTestsOf(
+  rivals: readonly RivalFit[],
+  nested: ReadonlyArray<readonly [string, string]>,
+  basis: FitResult['statistics']['covarianceBasis'],
+  alpha: number,
+  warnings: Warning[],
+): NestedTest[] {
   const byName = new Map(rivals.map((r) => [r.name, r]));
   const nestedTests: NestedTest[] = [];
-  for (const [sName, lName] of options.nested ?? []) {
+  for (const [sName, lName] of nested) {
     const s = byName.get(sName);
     const l = byName.get(lName);
     if (!s || !l) {
@@ -160,8 +173,7 @@ export function compareModels(rivals: readonly RivalFit[], options: CompareOptio
       nestedTests.push({ simpler: sName, larger: lName, test: 'F', statistic: F, dof1: d1, dof2: d2, pValue, largerSignificantlyBetter: pValue < alpha });
     }
   }
-
-  return { criterion, ranking, nestedTests, indistinguishable, verdict: verdictText(ranking, indistinguishable, nestedTests, criterion, alpha), warnings };
+  return nestedTests;
 }
 
 function verdictText(ranking: RankedModel[], tied: string[], tests: NestedTest[], criterion: string, alpha: number): string {

@@ -6,6 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { makeParameter } from '../../src/core/parameter';
 import { fitModel } from '../../src/estimation/fit';
+import { multistartFit } from '../../src/estimation/multistart';
 import type { SolverName } from '../../src/estimation/fit-types';
 import type { RegressionModel } from '../../src/estimation/model';
 import { readNist, type NistDataset } from './nist-strd-data';
@@ -91,6 +92,35 @@ describe('NIST StRD nonlinear regression, card package ml-levenberg-marquardt (w
           // Source: NIST StRD, <name>, certified values.
           expect(relErr(p.stdError ?? NaN, d.certifiedStdDev[i])).toBeLessThan(5e-4);
         });
+      });
+    });
+  }
+});
+
+describe('NIST StRD nonlinear regression, multistart (--starts 20) from both official starts', () => {
+  for (const name of Object.keys(MODELS)) {
+    const d = readNist(name);
+    d.starts.forEach((start, s) => {
+      it(`${name} from start ${s + 1}: the certified values with a trustworthy verdict, or an untrustworthy verdict`, () => {
+        const params = start.map((v, i) => makeParameter({ name: `b${i + 1}`, value: v }));
+        const data = { measured: Float64Array.from(d.y), sigma: new Float64Array(d.y.length).fill(1), sigmaKnown: false };
+        const ms = multistartFit(nistModel(d, MODELS[d.name]), params, data, { starts: 20, seed: 1, profile: false });
+        // The given start is start 0 and is listed with its end point.
+        expect(ms.runs[0].start.map((p) => p.value)).toEqual(start);
+        const fit = ms.best;
+        if (!fit.verdict.trustworthy) {
+          expect(fit.success).toBe(false);
+          expect(fit.status).not.toMatch(/^converged/);
+          return;
+        }
+        fit.parameters.forEach((p, i) => {
+          // Source: NIST StRD, <name>, certified values (estimates to 6 significant digits).
+          expect(relErr(p.value, d.certified[i])).toBeLessThan(5e-6);
+          // Source: NIST StRD, <name>, certified values (standard deviations to 4 significant digits).
+          expect(relErr(p.stdError ?? NaN, d.certifiedStdDev[i])).toBeLessThan(5e-4);
+        });
+        // Source: NIST StRD, <name>, certified residual sum of squares.
+        expect(relErr(fit.statistics.ssr, d.rss)).toBeLessThan(1e-6);
       });
     });
   }
