@@ -208,6 +208,7 @@ export function buildHandoff(study: Study, sf: StudyFit): FittedKinetics {
     coverage: studyCoverage(study),
     ...(study.activity ? { catalyst: freshCatalyst(study) } : {}),
   };
+  return { ...doc, contentHash: handoffHash(doc) };
 }
 
 /**
@@ -228,5 +229,4 @@ function freshCatalyst(study: Study): NonNullable<FittedKinetics['catalyst']> {
     activityModel: model,
     note: `Rate constants of the fresh catalyst (activity 1): the lab campaign was fitted with the ${model} activity model, whose parameters (${study.activity?.parameters.join(', ')}) are not part of this hand-off. A size from these kinetics does not allow for deactivation.`,
   };
-  return { ...doc, contentHash: handoffHash(doc) };
 }
