@@ -10,6 +10,7 @@ import { registerSize } from './size';
 import { registerCheck } from './check';
 import { registerSimulate } from './simulate';
 import { registerDemo } from './demo';
+import { registerPlan } from './plan';
 
 const program = new Command();
 program
@@ -27,6 +28,7 @@ registrations.push(registerSize);
 registrations.push(registerFit);
 registrations.push(registerCompare);
 registrations.push(registerDemo);
+registrations.push(registerPlan);
 
 for (const r of registrations) r(program);
 

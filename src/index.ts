@@ -68,3 +68,7 @@ export { sizeReactor, type SizingResult, type SizingOptions } from './design/siz
 // Reports.
 export { renderFitReport, renderSizingReport } from './report';
 export type { FitReportData, SizingReportData, RenderedReport } from './report';
+
+// Planning the next lab runs (precision or model discrimination).
+export { planRuns, PLAN_STATUS, parseLimits, LIMITS_SCHEMA, greedyExchange, criterionValue } from './planning';
+export type { PlanOptions, PlanResult, PlannedRun, LabLimits, CriterionKind, ExchangeProblem, ExchangeResult } from './planning';

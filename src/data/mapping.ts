@@ -90,7 +90,8 @@ export interface MappedSource {
   rateNotes?: string[];
 }
 
-const RESPONSE_QUANTITY: Record<ResponseKind, Quantity> = {
+/** The quantity (for units) of each response kind. */
+export const RESPONSE_QUANTITY: Record<ResponseKind, Quantity> = {
   'outlet-flow': 'molar-flow',
   'outlet-concentration': 'concentration',
   conversion: 'dimensionless',

@@ -497,6 +497,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     candidates,
     replicateGroups,
     ...(raw.transport !== undefined ? { transport: loadTransport(raw.transport, speciesNames, raw.reactions.map((r) => r.id)) } : {}),
+    sources: raw.data,
   };
   study.referenceTemperatureApplies = referenceTemperatureMatters(study);
   const notes = perRun.flatMap((m) => m.rateNotes ?? []);

@@ -7,7 +7,7 @@ import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec';
 import type { Parameter } from '../core/parameter';
 import type { ReactorSpec, RunConditions } from '../reactors/types';
 import type { ReplicateGroup, ValidationReport } from '../data/report';
-import type { ResponseKind } from '../data/spec';
+import type { ResponseKind, SourceSpec } from '../data/spec';
 import type { RunParameterRef } from '../data/run-parameters';
 import type { PelletSpec } from '../pellets/types';
 import type { PelletFluid } from '../pellets/load';
@@ -166,6 +166,9 @@ export interface Study {
   lab?: LabData;
   /** Catalyst activity model (activity section), when given and not 'none'. */
   activity?: Activity;
+  /** The data sources as written in the study file (column mapping and units), for writers that
+   * produce CSV in the study's own layout (the run planner). */
+  sources?: SourceSpec[];
 }
 
 export interface LoadedStudy {

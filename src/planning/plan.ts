@@ -1,0 +1,127 @@
+/**
+ * The run planner: given a study, its fit(s) and the lab's limits, propose the next N runs, for
+ * precision (D-, Ds-, A-optimal; precision.ts) or to tell rival rate laws apart (Box-Hill or
+ * Hunter-Reiner; discrimination.ts). Returns the runs in the study's own CSV layout, why each was
+ * chosen, and the expected precision or model probabilities after them. Bad input throws
+ * RateloomError; a fit that cannot be trusted is planned with a warning and an unsuccessful status.
+ */
+import { RateloomError } from '../core/errors';
+import { outcome, type StatusTable, type Warning } from '../core/outcome';
+import type { Study } from '../study/types';
+import type { StudyFit } from '../workflow/fit-study';
+import type { CriterionKind } from './criteria';
+import { planContext, pointOfFit, type PlanContext } from './context';
+import { rowsCsv } from './layout';
+import type { LabLimits } from './limits';
+import { planPrecision, type PrecisionPlan } from './precision';
+import { conditionsOf, factorSummary, oldRunPoints, plannedRows } from './rows';
+import type { DiscriminationCriterion, PlanMode, PlanResult, PlanStatus, PlannedRun } from './types';
+
+export const PLAN_STATUS: StatusTable<PlanStatus> = {
+  planned: { success: true, message: 'runs planned' },
+  'fewer-runs': { success: false, message: 'fewer runs than asked: the spacing rule or the limits leave no more admissible candidates' },
+  'fit-not-trustworthy': { success: false, message: 'runs planned on a fit that cannot be trusted: treat the plan as a rough guide' },
+  'no-candidates': { success: false, message: 'no candidate run inside the limits can be run (see the excluded candidates)' },
+};
+
+export interface PlanOptions {
+  /** Runs to plan (integer >= 1). Required. */
+  runs: number;
+  /** 'precision' (default) or 'discrimination' (needs two or more fitted rate-law sets). */
+  mode?: PlanMode;
+  /** Precision criterion: 'D' (default), 'Ds' (with `subset`) or 'A'. */
+  criterion?: CriterionKind;
+  /** Ds: names of the parameters of interest, for example the activation energies. No default. */
+  subset?: string[];
+  /** Discrimination criterion: 'box-hill' (default) or 'hunter-reiner'. */
+  discrimination?: DiscriminationCriterion;
+  /** Parameter draws from the fit's covariance to average the criterion over; default 0 (local design). */
+  draws?: number;
+  /** Seed of the draws and of the posterior simulation; default 1. */
+  seed?: number;
+  /** Confidence level of the interval widths; default 0.95. */
+  level?: number;
+  /** Prefix of the planned run ids; default 'N' (N1, N2, ...; changed when the study uses such ids). */
+  idPrefix?: string;
+}
+
+function checkOptions(o: PlanOptions, fits: readonly StudyFit[]): void {
+  if (!Number.isInteger(o.runs) || o.runs <= 0) throw new RateloomError('E_VALUE', `the number of runs to plan must be a whole number of at least 1, not ${o.runs}`, { path: ['runs'], fix: 'Ask for 1 or more runs (for example --runs 8).' });
+  if (o.draws !== undefined && (!Number.isInteger(o.draws) || o.draws < 0)) throw new RateloomError('E_VALUE', `draws must be a whole number >= 0, not ${o.draws}`, { path: ['draws'] });
+  if (o.level !== undefined && !(o.level > 0 && o.level < 1)) throw new RateloomError('E_VALUE', `level must lie between 0 and 1, not ${o.level}`, { path: ['level'] });
+  if (!fits.length) throw new RateloomError('E_VALUE', 'planning needs a fit of the study', { path: ['fits'] });
+}
+
+/** Reported runs from chosen candidates with their reasons. */
+function reportRuns(ctx: PlanContext, chosen: number[], reasons: string[], contributions: number[], prefix: string): { runs: PlannedRun[]; csv: string } {
+  const rows = plannedRows(ctx.study, chosen, ctx.candidates.rows, prefix);
+  const runs = rows.map((row, k) => ({
+    id: row.id,
+    conditions: conditionsOf(row, ctx.src, ctx.limits),
+    reason: reasons[k],
+    contribution: contributions[k],
+    predictedConversion: ctx.conversions[chosen[k]],
+    scaled: Array.from(ctx.candidates.points[chosen[k]]),
+  }));
+  const csv = rowsCsv(ctx.src, rows, 'Runs planned by rateloom: conditions filled, measured columns empty (fill them in the lab).');
+  return { runs, csv };
+}
+
+const CRITERION_TEXT: Record<CriterionKind, string> = {
+  D: 'log det of the information',
+  Ds: 'minus log det of the covariance of the parameters of interest',
+  A: 'the A-criterion (minus the mean ratio of variance after to variance now)',
+};
+
+function precisionReasons(pp: PrecisionPlan, kind: CriterionKind): string[] {
+  return pp.contributions.map((c, k) => {
+    const informs = pp.informs[k].length ? `; it cuts the variance of ${pp.informs[k].join(' and ')}` : '';
+    return `${kind}-optimal: without it ${CRITERION_TEXT[kind]} would drop by ${c.toPrecision(3)}${informs}`;
+  });
+}
+
+function statusOf(ctx: PlanContext, chosen: number, n: number, fitOk: boolean): PlanStatus {
+  if (!ctx.usable.length) return 'no-candidates';
+  if (!fitOk) return 'fit-not-trustworthy';
+  return chosen < n ? 'fewer-runs' : 'planned';
+}
+
+function precisionResult(study: Study, limits: LabLimits, sf: StudyFit, o: PlanOptions, ctx: PlanContext, warnings: Warning[]): PlanResult {
+  const kind = o.criterion ?? 'D';
+  const level = o.level ?? 0.95;
+  const pp = ctx.usable.length
+    ? planPrecision(ctx, sf, { n: o.runs, criterion: kind, ...(o.subset ? { subset: o.subset } : {}), draws: o.draws ?? 0, seed: o.seed ?? 1, level })
+    : null;
+  for (const w of pp?.warnings ?? []) warnings.push({ code: 'local-design', message: w });
+  const { runs, csv } = reportRuns(ctx, pp?.chosen ?? [], pp ? precisionReasons(pp, kind) : [], pp?.contributions ?? [], o.idPrefix ?? 'N');
+  const status = statusOf(ctx, runs.length, o.runs, sf.fit.success);
+  return {
+    ...outcome(PLAN_STATUS, status, warnings),
+    mode: 'precision',
+    criterion: kind,
+    ...(kind === 'Ds' && o.subset ? { subset: o.subset } : {}),
+    model: sf.variant,
+    draws: pp?.draws ?? 0,
+    runs,
+    csv,
+    precision: pp?.precision ?? [],
+    level,
+    candidates: { count: ctx.candidates.runs.length, usable: ctx.usable.length, excluded: ctx.excluded },
+    oldRuns: oldRunPoints(study, ctx.src, limits),
+    factors: factorSummary(ctx.src, limits),
+  };
+}
+
+/** Plan the next runs of a study. `fits`: the fit to plan for (precision), or every rival's fit. */
+export function planRuns(study: Study, limits: LabLimits, fits: readonly StudyFit[], options: PlanOptions): PlanResult {
+  checkOptions(options, fits);
+  const warnings: Warning[] = [];
+  for (const f of fits) {
+    if (!f.fit.success) warnings.push({ code: 'fit-not-trustworthy', message: `the fit of '${f.variant}' is not trustworthy (${f.fit.status}: ${f.fit.message}); the plan rests on it`, path: [f.variant] });
+  }
+  const mode = options.mode ?? 'precision';
+  if (mode === 'discrimination') throw new RateloomError('E_VALUE', 'discrimination mode is not available yet', { path: ['mode'] });
+  const sf = fits[0];
+  const ctx = planContext(study, limits, pointOfFit(sf));
+  return precisionResult(study, limits, sf, options, ctx, warnings);
+}
