@@ -12,6 +12,7 @@ import { formatRejection } from '../src/data/validation';
 import type { ValidationReport } from '../src/data/report';
 import { readText } from './io';
 import { runCommand } from './run';
+import { studyLoadOptions } from './study-input';
 import { g } from './format';
 import { formatTransport } from './transport-text';
 import { checkLabTransport } from '../src/workflow/lab-transport';
@@ -89,7 +90,7 @@ export function registerCheck(program: Command): void {
     .action(async (studyPath: string, flags: { strict?: boolean; json?: boolean }) => {
       await runCommand(flags.json === true, () => {
         const text = readText(studyPath, 'study file');
-        const { study, report } = loadStudy(text, studyPath, (abs) => readText(abs, 'data file'), flags.strict ? { strict: true } : {});
+        const { study, report } = loadStudy(text, studyPath, (abs) => readText(abs, 'data file'), studyLoadOptions(!!flags.strict));
         const summary = summarizeStudy(study, report);
         const transport = checkLabTransport(study);
         const ok = summary.observations > 0 && summary.degreesOfFreedom > 0;

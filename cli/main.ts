@@ -4,6 +4,7 @@
  */
 import { Command } from 'commander';
 import { configureUsageErrors } from './run';
+import { setAllowDataOutside } from './study-input';
 import { registerFit } from './fit';
 import { registerCompare } from './compare';
 import { registerSize } from './size';
@@ -16,7 +17,8 @@ const program = new Command();
 program
   .name('rateloom')
   .description('Chemical kinetics regression and isothermal reactor sizing')
-  .version('0.1.0');
+  .version('0.1.0')
+  .option('--allow-data-outside', "accept CSV files outside the study file's folder (default: refused)");
 configureUsageErrors(program);
 
 // Command registrations (one file per command):
@@ -40,6 +42,7 @@ for (const c of program.commands) c.addHelpText('after', MODEL_REFERENCE);
 // An option that takes a value must not swallow the next flag ('--out --json' would write into a
 // folder named '--json'): refuse it as a usage error.
 program.hook('preAction', (_root, action) => {
+  setAllowDataOutside(action.optsWithGlobals().allowDataOutside === true);
   for (const opt of action.options) {
     const key = opt.attributeName();
     const v = action.getOptionValue(key);

@@ -9,6 +9,7 @@ import { loadStudy } from '../src/study/load';
 import { applyParameterValues, simulateStudy, type SimulationResult } from '../src/study/simulate';
 import { readJson, readText } from './io';
 import { runCommand } from './run';
+import { studyLoadOptions } from './study-input';
 import { g } from './format';
 
 const EXAMPLE = `
@@ -65,7 +66,7 @@ export function registerSimulate(program: Command): void {
     .addHelpText('after', EXAMPLE)
     .action(async (studyPath: string, flags: { params?: string; profile?: boolean; candidate?: string; json?: boolean }) => {
       await runCommand(flags.json === true, () => {
-        const { study } = loadStudy(readText(studyPath, 'study file'), studyPath, (abs) => readText(abs, 'data file'));
+        const { study } = loadStudy(readText(studyPath, 'study file'), studyPath, (abs) => readText(abs, 'data file'), studyLoadOptions());
         let params = study.parameters;
         if (flags.candidate !== undefined) {
           const c = study.candidates.find((x) => x.name === flags.candidate);

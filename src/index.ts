@@ -36,7 +36,7 @@ export { integrate, newton, brent, findAllRoots, solveLinear } from './numerics'
 export type { OdeOptions, OdeResult, OdeEvent } from './numerics';
 
 // Data and study files.
-export { readCsv } from './data';
+export { readCsv, decodeInput, DEFAULT_MAX_INPUT_BYTES, type InputEncoding, type DecodedText } from './data';
 export type { ValidationReport, Rejection } from './data';
 export { loadStudy, STUDY_SCHEMA } from './study';
 export type { Study, LoadedStudy, Observation, StudyRun, ErrorModel, CandidateSet } from './study';

@@ -163,6 +163,14 @@ export function findJsonSyntaxError(text: string): JsonSyntaxProblem | undefined
  */
 export function parseJsonText(text: string, file: string, what = 'JSON file'): unknown {
   const clean = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  const deep = tooDeepAt(clean, MAX_JSON_DEPTH);
+  if (deep !== undefined) {
+    const p = lineColumn(clean, deep);
+    throw new RateloomError('E_JSON', `${what} nests objects and arrays more than ${MAX_JSON_DEPTH} levels deep`, {
+      location: { file, line: p.line, column: p.column },
+      fix: `Flatten the document: a rateloom file needs far fewer than ${MAX_JSON_DEPTH} levels.`,
+    });
+  }
   try {
     return JSON.parse(clean);
   } catch (e) {
@@ -173,4 +181,36 @@ export function parseJsonText(text: string, file: string, what = 'JSON file'): u
       fix: p ? `Correct the JSON at line ${p.line}, column ${p.column}; a JSON checker in your editor shows the exact spot.` : 'Correct the JSON syntax.',
     });
   }
+}
+
+/** Deepest nesting of objects and arrays accepted in a JSON input (study, case, hand-off files). */
+export const MAX_JSON_DEPTH = 64;
+
+/** 1-based line and column of a 0-based offset. */
+function lineColumn(s: string, offset: number): { line: number; column: number } {
+  let line = 1;
+  let lineStart = 0;
+  for (let k = s.indexOf('\n'); k >= 0 && k < offset; k = s.indexOf('\n', k + 1)) {
+    line++;
+    lineStart = k + 1;
+  }
+  return { line, column: offset - lineStart + 1 };
+}
+
+/**
+ * Offset of the first '[' or '{' that opens a container deeper than `limit` (strings skipped), or
+ * undefined. One loop, no recursion: safe on any input before JSON.parse and the recursive walks
+ * that follow it see the document.
+ */
+export function tooDeepAt(s: string, limit: number): number | undefined {
+  let depth = 0;
+  for (let i = 0; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    if (c === 34) {
+      for (i++; i < s.length && s.charCodeAt(i) !== 34; i++) if (s.charCodeAt(i) === 92) i++;
+    } else if (c === 91 || c === 123) {
+      if (++depth > limit) return i;
+    } else if (c === 93 || c === 125) depth--;
+  }
+  return undefined;
 }

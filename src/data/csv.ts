@@ -3,12 +3,15 @@
  * and comment lines starting with '#', trims cells, keeps the 1-based source line of each record.
  * Rows with the wrong number of cells are not thrown out here; the mapping step reports them.
  * A malformed file (an unclosed quote) is a RateloomError('E_CSV') with the line.
+ * The delimiter (comma, semicolon or tab) is detected from the header line (dialect.ts); a NUL
+ * character or a record longer than MAX_RECORD_CHARS is E_CSV at once.
  * Text without double quotes or carriage returns (the common lab export) takes a direct line
  * splitter that reproduces csv-parse's result for such text exactly (same cells, trimming, skipped
  * lines and line numbers); anything else goes through csv-parse.
  */
 import { parse } from 'csv-parse/sync';
 import { RateloomError, closestName } from '../core/errors';
+import { MAX_RECORD_CHARS, detectDelimiter, type CsvDelimiter } from './dialect';
 
 export interface CsvRow {
   /** 1-based line in the file where the record starts. */
@@ -20,6 +23,8 @@ export interface CsvTable {
   /** File name used in messages (as written in the study). */
   file: string;
   header: string[];
+  /** Cell delimiter detected from the header line. */
+  delimiter: CsvDelimiter;
   /** 1-based line of the header. */
   headerLine: number;
   rows: CsvRow[];
@@ -54,7 +59,7 @@ function isLeftTrim(c: number): boolean {
  * space (String.prototype.trimEnd); a record whose cells are all white space skipped; `lines` is
  * the 1-based line of the record.
  */
-function parsePlain(text: string): ParsedRecord[] {
+function parsePlain(text: string, file: string): ParsedRecord[] {
   const out: ParsedRecord[] = [];
   const n = text.length;
   let start = text.charCodeAt(0) === 0xfeff ? 1 : 0;
@@ -62,6 +67,7 @@ function parsePlain(text: string): ParsedRecord[] {
   while (start <= n) {
     let end = text.indexOf('\n', start);
     if (end < 0) end = n;
+    if (end - start > MAX_RECORD_CHARS) throw tooLong(file, line);
     let p = start;
     while (p < end && isLeftTrim(text.charCodeAt(p))) p++;
     if (p < end && text.charCodeAt(p) !== 35) {
@@ -86,28 +92,50 @@ function parsePlain(text: string): ParsedRecord[] {
   return out;
 }
 
-/** Parse CSV text. `file` is only used in messages. */
-export function readCsv(text: string, file: string): CsvTable {
-  let records: ParsedRecord[];
-  if (isPlain(text)) records = parsePlain(text);
-  else try {
-    records = parse(text, {
+function tooLong(file: string, line: number): RateloomError {
+  return new RateloomError('E_CSV', `record at line ${line} is longer than ${MAX_RECORD_CHARS} characters`, {
+    location: { file, line },
+    fix: 'Check the file: a lab CSV row is far shorter; an unclosed quote or a binary file can make one record swallow the rest.',
+  });
+}
+
+/** Records through csv-parse (RFC 4180 quoting), with its errors as E_CSV naming the line. */
+function parseQuoted(text: string, file: string, delimiter: CsvDelimiter): ParsedRecord[] {
+  try {
+    return parse(text, {
       bom: true,
+      delimiter,
       comment: '#',
       comment_no_infix: true,
       skip_empty_lines: true,
       skip_records_with_empty_values: true,
       trim: true,
       relax_column_count: true,
+      max_record_size: MAX_RECORD_CHARS,
       info: true,
     }) as unknown as ParsedRecord[];
   } catch (e) {
     const err = e as Error & { lines?: number; code?: string };
+    if (err.code === 'CSV_MAX_RECORD_SIZE') throw tooLong(file, err.lines ?? 0);
     throw new RateloomError('E_CSV', `cannot read CSV: ${err.message}`, {
       location: { file, ...(typeof err.lines === 'number' ? { line: err.lines } : {}) },
-      fix: 'Check quoting on the line given: a quoted cell must end with a closing double quote.',
+      fix: 'Check quoting on the line given: a quoted cell must end with a closing double quote (RFC 4180: a quote inside a quoted cell is written twice).',
     });
   }
+}
+
+/** Parse CSV text. `file` is only used in messages. */
+export function readCsv(text: string, file: string): CsvTable {
+  if (typeof text !== 'string') throw new RateloomError('E_TYPE', `CSV text of '${file}' must be a string, got ${text === null ? 'null' : typeof text}`, { location: { file } });
+  const nul = text.indexOf('\u0000');
+  if (nul >= 0) {
+    throw new RateloomError('E_CSV', `the file contains a NUL character (line ${text.slice(0, nul).split('\n').length}): it is binary, not CSV text`, {
+      location: { file, line: text.slice(0, nul).split('\n').length },
+      fix: 'Give a CSV text file (UTF-8, UTF-16 with byte-order mark, or windows-1252).',
+    });
+  }
+  const delimiter = detectDelimiter(text);
+  const records = delimiter === ',' && isPlain(text) ? parsePlain(text, file) : parseQuoted(text, file, delimiter);
   if (records.length === 0) {
     throw new RateloomError('E_CSV', 'the CSV file has no header row', { location: { file }, fix: 'Add a header row naming the columns.' });
   }
@@ -126,6 +154,7 @@ export function readCsv(text: string, file: string): CsvTable {
   return {
     file,
     header,
+    delimiter,
     headerLine: startLine(head),
     rows: rowsOf(records),
   };

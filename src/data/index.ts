@@ -4,3 +4,4 @@ export * from './spec';
 export * from './report';
 export * from './mapping';
 export * from './validation';
+export * from './decode';

@@ -11,6 +11,8 @@ import { RateloomError, closestName, type FieldPath } from '../core/errors';
 import type { Phase, ReactorKind } from '../reactors/types';
 import { unitFor, type Quantity, type UnitConversion } from '../units';
 import { columnIndex, type CsvRow, type CsvTable } from './csv';
+import { decimalCommaToPoint } from './dialect';
+import { PHYSICAL_RANGES, outsideRange, type PhysicalRange } from './ranges';
 import type { Rejection } from './report';
 import type { FieldSpec, LongSourceSpec, MeasureSpec, MeasuredSpec, PerRunColumns, PerRunSourceSpec, ResponseKind } from './spec';
 import type { RunParameterRef } from './run-parameters';
@@ -160,6 +162,24 @@ function checkErrorModel(ctx: MappingContext, name: string | undefined, path: Fi
   });
 }
 
+/** A cell as shown in a message: at most 40 characters. */
+function shortCell(cell: string): string {
+  return cell.length > 40 ? `${cell.slice(0, 40)}...` : cell;
+}
+
+/** The message of a row whose cell count differs from the header's, with a hint on decimal commas. */
+function columnCountMessage(cells: number, header: number, delimiter: string): string {
+  const hint = delimiter === ',' && cells > header ? " (decimal commas split cells in a comma-separated file: separate cells with ';' instead, or write decimal points)" : '';
+  return `row has ${cells} cells, the header has ${header}${hint}`;
+}
+
+/** True for a flow reactor's feed vector that is zero for every species. */
+function zeroFeed(feed: Float64Array | undefined, kind: ReactorKind): boolean {
+  if (!feed || kind === 'batch' || kind === 'semibatch') return false;
+  for (let j = 0; j < feed.length; j++) if (feed[j] !== 0) return false;
+  return true;
+}
+
 /** Reads cells of one row at a time (reset per row), collecting problems instead of throwing. */
 export class RowReader {
   problems: Rejection[] = [];
@@ -188,16 +208,17 @@ export class RowReader {
    * The SI value of a prepared field; undefined when empty (and `required` adds a problem).
    * `min`: 'nonneg' rejects negatives as 'negative', 'positive' rejects <= 0 as 'out-of-range'.
    */
-  num(p: Prepared, required: boolean, min: 'nonneg' | 'positive' | 'any', what = p.name): number | undefined {
+  num(p: Prepared, required: boolean, min: 'nonneg' | 'positive' | 'any', what = p.name, range?: PhysicalRange): number | undefined {
     if (p.constant !== undefined) return p.constant;
     const header = p.header as string;
-    const raw = this.text(p.column as number);
-    if (raw === '') {
+    const cell = this.text(p.column as number);
+    if (cell === '') {
       if (required) this.reject('missing', `${what} is required but the cell is empty`, header);
       return undefined;
     }
-    if (!NUMBER_RE.test(raw)) {
-      this.reject('non-numeric', `'${raw}' is not a number (${what})`, header);
+    const raw = NUMBER_RE.test(cell) ? cell : this.table.delimiter !== ',' ? decimalCommaToPoint(cell) : undefined;
+    if (raw === undefined) {
+      this.reject('non-numeric', `'${shortCell(cell)}' is not a number (${what})${this.table.delimiter === ',' && decimalCommaToPoint(cell) ? '; a decimal comma is read only in files whose cells are separated by semicolons or tabs' : ''}`, header);
       return undefined;
     }
     const x = Number(raw);
@@ -212,6 +233,11 @@ export class RowReader {
     }
     if (min === 'positive' && !(si > 0)) {
       this.reject('out-of-range', `${what} must be above zero (${raw} ${p.conv.unit} = ${si} ${p.conv.si})`, header);
+      return undefined;
+    }
+    const outside = range ? outsideRange(si, range, what) : undefined;
+    if (outside) {
+      this.reject('out-of-range', `${outside} (cell '${raw}' ${p.conv.unit})`, header);
       return undefined;
     }
     return si;
@@ -485,12 +511,13 @@ function readPerRunRow(plan: PerRunPlan, r: RowReader, row: CsvRow, ctx: Mapping
   if (id === '') r.reject('missing', 'run id is empty', cols.run);
   const group = plan.groupCol !== undefined ? r.text(plan.groupCol) : undefined;
   if (plan.groupCol !== undefined && group === '') r.reject('missing', 'run group is empty', cols.group);
-  const temperature = r.num(plan.T, true, 'positive');
-  const pressure = plan.P ? r.num(plan.P, plan.needPressure, 'positive') : undefined;
+  const temperature = r.num(plan.T, true, 'positive', plan.T.name, PHYSICAL_RANGES.temperature);
+  const pressure = plan.P ? r.num(plan.P, plan.needPressure, 'positive', plan.P.name, PHYSICAL_RANGES.pressure) : undefined;
   const sz = plan.size ? r.num(plan.size, true, 'nonneg') : undefined;
   const catalystMass = plan.W && plan.size !== plan.W ? r.num(plan.W, false, 'nonneg') : undefined;
-  const volumetricFlow = plan.v0 ? r.num(plan.v0, plan.needFlow, 'nonneg') : undefined;
+  const volumetricFlow = plan.v0 ? r.num(plan.v0, plan.needFlow, plan.isBatch || plan.isSemi ? 'nonneg' : 'positive') : undefined;
   const feed = readFeed(plan, r, ctx, temperature, pressure, volumetricFlow);
+  if (!r.problems.length && zeroFeed(feed, ctx.kind)) r.reject('out-of-range', `the feed is zero for every species: a ${ctx.kind} run needs a feed`);
   const initial = readInitial(plan, r, temperature, pressure);
   const initialVolume = plan.V0 ? r.num(plan.V0, plan.isSemi, 'nonneg') : undefined;
   const rateC = plan.composition ? readRateComposition(plan.composition, plan.nS, { temperature, pressure, volumetricFlow }, tools, ctx.phase === 'gas') : undefined;
@@ -544,7 +571,7 @@ export function mapPerRunSource(table: CsvTable, spec: PerRunSourceSpec, ctx: Ma
     const row = rows[i];
     r.reset(row);
     if (row.cells.length !== nCols) {
-      r.reject('column-count', `row has ${row.cells.length} cells, the header has ${nCols}`);
+      r.reject('column-count', columnCountMessage(row.cells.length, nCols, table.delimiter));
     } else {
       readPerRunRow(plan, r, row, ctx, tools, table.file, out, obs);
     }
@@ -585,7 +612,7 @@ export function mapLongSource(
   for (const row of table.rows) {
     r.reset(row);
     if (row.cells.length !== table.header.length) {
-      r.reject('column-count', `row has ${row.cells.length} cells, the header has ${table.header.length}`);
+      r.reject('column-count', columnCountMessage(row.cells.length, table.header.length, table.delimiter));
     } else {
       const id = r.text(runCol);
       if (id === '') r.reject('missing', 'run id is empty', cols.run);

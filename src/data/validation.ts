@@ -273,6 +273,33 @@ function leaves(keys: readonly Float64Array[], nan: readonly boolean[], order: I
   leaves(keys, nan, order, tmp, start, hi, k + 1, tol, out);
 }
 
+/** The exact conditions of a run as one string (hash key): equal keys mean equal conditions. */
+function conditionKey(r: MappedRun): string {
+  const vec = (v: Float64Array | undefined) => (v ? Array.prototype.join.call(v, ',') : '-');
+  return `${r.group ?? '\u0000'}\u0001${r.temperature}\u0001${r.pressure}\u0001${r.size}\u0001${r.catalystMass}\u0001${r.volumetricFlow}\u0001${r.initialVolume}\u0001${vec(r.feed)}\u0001${vec(r.initialConcentrations)}`;
+}
+
+/**
+ * One run per distinct exact condition key of a leaf; the others are joined to it at once (equal
+ * conditions are replicates under any tolerance). The pairwise tolerance comparison then runs
+ * over the distinct conditions only, so a leaf of n repeated runs costs O(n) (hashing) instead of
+ * O(n^2). Small leaves skip the hashing.
+ */
+function exactRepresentatives(leaf: readonly number[], runs: readonly MappedRun[], union: (a: number, b: number) => void): readonly number[] {
+  if (leaf.length <= 32) return leaf;
+  const firstOf = new Map<string, number>();
+  const reps: number[] = [];
+  for (const i of leaf) {
+    const key = conditionKey(runs[i]);
+    const first = firstOf.get(key);
+    if (first === undefined) {
+      firstOf.set(key, i);
+      reps.push(i);
+    } else union(first, i);
+  }
+  return reps;
+}
+
 /** Replicate groups: runs with equal conditions within the relative tolerance (two or more runs each). */
 export function findReplicates(runs: readonly MappedRun[], tol: number): ReplicateGroup[] {
   const parent = runs.map((_, i) => i);
@@ -296,10 +323,14 @@ export function findReplicates(runs: readonly MappedRun[], tol: number): Replica
   const order = new Int32Array(n);
   for (let i = 0; i < n; i++) order[i] = i;
   leaves(keys, nan, order, new Int32Array(n), 0, n, 0, tol, groups);
+  const union = (a: number, b: number): void => {
+    parent[find(b)] = find(a);
+  };
   for (const leaf of groups) {
-    for (let a = 0; a < leaf.length; a++) {
-      for (let b = a + 1; b < leaf.length; b++) {
-        if (sameConditions(runs[leaf[a]], runs[leaf[b]], tol)) parent[find(leaf[b])] = find(leaf[a]);
+    const reps = exactRepresentatives(leaf, runs, union);
+    for (let a = 0; a < reps.length; a++) {
+      for (let b = a + 1; b < reps.length; b++) {
+        if (sameConditions(runs[reps[a]], runs[reps[b]], tol)) union(reps[a], reps[b]);
       }
     }
   }

@@ -3,7 +3,6 @@
  * parameters, reactor and error models in SI -> CSV sources mapped and validated -> Study and
  * ValidationReport. Pure apart from the injected `readFile`.
  */
-import { dirname, isAbsolute, resolve } from 'node:path';
 import { buildChemistry } from '../chemistry/mechanism';
 import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec';
 import { RateloomError, isRateloomError } from '../core/errors';
@@ -11,7 +10,6 @@ import { parseJsonText } from '../core/json-text';
 import type { RateLawSpec } from '../kinetics/spec';
 import type { ReactorSpec } from '../reactors/types';
 import { unitFor } from '../units';
-import { readCsv } from '../data/csv';
 import { mapLongSource, mapPerRunSource, type MappedObservation, type MappedRun, type MappedSource, type RowLocation } from '../data/mapping';
 import { DEFAULT_CHECKS, type CheckSettings } from '../data/report';
 import type { LongSourceSpec, MeasureSpec, PerRunSourceSpec, SourceSpec } from '../data/spec';
@@ -20,6 +18,8 @@ import schemaJson from '../../schema/study.schema.json';
 import { checkSchema, type JsonSchema } from './schema-check';
 import { loadTransport } from './transport';
 import { locatePath } from './locate';
+import { readSources, type SourcePathOptions } from './sources';
+import { checkHostileNames, checkOrderSpecies, checkPressureDrop } from './guards';
 import { buildParameters, parameterRoles, referencedNames, type ParameterSpec } from './parameters';
 import { ratesOnlyRuns } from './rate-runs';
 import { parameterStartFor, runParameterNames } from './run-parameters';
@@ -54,7 +54,7 @@ interface RawStudy {
   activity?: ActivitySpec;
 }
 
-export interface LoadOptions {
+export interface LoadOptions extends SourcePathOptions {
   /** Fail with a RateloomError listing every rejected row; default: the study's checks.strict, else false. */
   strict?: boolean;
 }
@@ -174,6 +174,7 @@ function reactorSpec(raw: RawStudy['reactor'], speciesNames: readonly string[]):
   } else if (raw.kind === 'membrane') {
     throw new RateloomError('E_MISSING_FIELD', "a membrane reactor needs 'membrane' with permeation coefficients", { path: [...path, 'membrane'] });
   }
+  checkPressureDrop(spec.pressureDrop, [...path, 'pressureDrop']);
   return spec;
 }
 
@@ -212,12 +213,14 @@ function errorModels(raw: RawStudy['errorModels']): Record<string, ErrorModel> {
  */
 export function loadStudy(text: string, studyPath: string, readFile: (absPath: string) => string, options: LoadOptions = {}): LoadedStudy {
   const raw = parseJson(text, studyPath);
+  withFile(studyPath, text, () => checkHostileNames(raw));
   withFile(studyPath, text, () => checkSchema(raw, STUDY_SCHEMA));
   return withFile(studyPath, text, () => resolveStudy(raw as RawStudy, studyPath, readFile, options));
 }
 
 function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: string) => string, options: LoadOptions): LoadedStudy {
   const chemistry = buildChemistry(raw.species, raw.reactions);
+  checkOrderSpecies(raw.reactions.map((r) => r.rate), chemistry, (i) => ['reactions', i, 'rate']);
   const speciesNames = chemistry.speciesNames;
   const nS = speciesNames.length;
   const settings: CheckSettings = {
@@ -252,18 +255,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   }
 
   // Data sources.
-  const baseDir = dirname(studyPath);
-  const tables = raw.data.map((src, i) => {
-    const abs = isAbsolute(src.file) ? src.file : resolve(baseDir, src.file);
-    let text: string;
-    try {
-      text = readFile(abs);
-    } catch (e) {
-      if (isRateloomError(e)) throw e;
-      throw new RateloomError('E_FILE', `data file '${src.file}' cannot be read (${(e as Error).message})`, { path: ['data', i, 'file'], location: { file: abs } });
-    }
-    return readCsv(text, src.file);
-  });
+  const tables = readSources(raw.data, studyPath, readFile, options);
   const ledger = new Ledger();
   raw.data.forEach((s, i) => ledger.addSource(s.file, s.layout, tables[i].rows.length));
   const parameterStart = parameterStartFor(raw.parameters);
@@ -428,6 +420,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
       if (!chemistry.reactionIds.includes(id)) throw new RateloomError('E_VALUE', `candidate '${c.name}' replaces unknown reaction '${id}'`, { path: [...path, 'reactions', id] });
     }
     const reactions = raw.reactions.map((r) => (c.reactions[r.id] ? { ...r, rate: c.reactions[r.id] } : r));
+    checkOrderSpecies(reactions.map((r) => r.rate), chemistry, (i) => (replaced.includes(reactions[i].id) ? [...path, 'reactions', reactions[i].id] : ['reactions', i, 'rate']));
     // A candidate keeps only the study parameters its own rate laws use (an unused one would be an
     // unidentifiable direction of the fit), plus every parameter it declares itself.
     const used = new Set<string>();

@@ -9,6 +9,7 @@ import { makeParameter, type Parameter, type Transform } from '../core/parameter
 import type { RateLawSpec } from '../kinetics/spec';
 import { compoundToSI } from '../units';
 import type { ParameterScope } from './types';
+import { checkRoleUnit } from './guards';
 
 /** A parameter as written in the study file. */
 export interface ParameterSpec {
@@ -149,6 +150,7 @@ export function buildParameters(
     seen.add(s.name);
     const unit = s.unit ?? '1';
     const conv = compoundToSI(1, unit, { path: [...p, 'unit'] });
+    checkRoleUnit(s.name, roles.get(s.name)?.role, unit, [...p, 'unit']);
     const auto = isAutoValue(s);
     if (auto && s.fixed) {
       throw new RateloomError('E_MISSING_FIELD', `parameter '${s.name}' is fixed but has no value`, {

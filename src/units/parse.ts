@@ -25,6 +25,10 @@ export class UnitSyntaxError extends Error {}
 
 const ATOM_RE = /^[A-Za-z%µ°]+/;
 const NUM_RE = /^[-+]?\d+(\.\d+)?/;
+/** Deepest accepted nesting of parentheses in a unit (real units need two or three). */
+export const MAX_UNIT_NESTING = 8;
+/** Longest accepted unit text, in characters. */
+export const MAX_UNIT_LENGTH = 200;
 
 function lookupAtom(name: string): ParsedUnit | undefined {
   // Own properties only: 'constructor' or '__proto__' are not units.
@@ -47,6 +51,8 @@ function pow(a: ParsedUnit, e: number): ParsedUnit {
 
 class Parser {
   private pos = 0;
+  /** Current depth of open parentheses. */
+  private depth = 0;
   constructor(private readonly s: string) {}
 
   parse(): ParsedUnit {
@@ -95,11 +101,13 @@ class Parser {
     this.skipSpace();
     let base: ParsedUnit;
     if (this.s[this.pos] === '(') {
+      if (++this.depth > MAX_UNIT_NESTING) throw new UnitSyntaxError(`more than ${MAX_UNIT_NESTING} nested parentheses`);
       this.pos++;
       base = this.unit();
       this.skipSpace();
       if (this.s[this.pos] !== ')') throw new UnitSyntaxError("missing ')'");
       this.pos++;
+      this.depth--;
     } else {
       const m = ATOM_RE.exec(this.s.slice(this.pos));
       if (m) {
@@ -133,6 +141,7 @@ class Parser {
 export function parseCompoundUnit(text: string): ParsedUnit {
   const s = text.trim().replace(/\s+/g, ' ');
   if (s === '') throw new UnitSyntaxError('empty unit');
+  if (s.length > MAX_UNIT_LENGTH) throw new UnitSyntaxError(`unit text is ${s.length} characters long; at most ${MAX_UNIT_LENGTH} are accepted`);
   return new Parser(s).parse();
 }
 

@@ -109,9 +109,10 @@ function makeConversion(quantity: Quantity, unit: string, si: string, factor: nu
 
 function unitError(quantity: Quantity, unit: string, why: string, opts: UnitOptions): RateloomError {
   const def = QUANTITIES[quantity];
-  const closest = closestName(unit, def.common);
+  const closest = unit.length > 40 ? undefined : closestName(unit, def.common);
   const hint = closest ? ` (closest: '${closest}')` : '';
-  return new RateloomError('E_UNIT', `unit '${unit}' is not a ${quantity} unit: ${why}${hint}`, {
+  const shown = unit.length > 40 ? `${unit.slice(0, 40)}...` : unit;
+  return new RateloomError('E_UNIT', `unit '${shown}' is not a ${quantity} unit: ${why}${hint}`, {
     path: opts.path ?? [],
     ...(opts.location ? { location: opts.location } : {}),
     fix: `Use one of: ${def.common.join(', ')}${quantity === 'pressure' ? ' (gauge: barg, psig, kPa(g) with gauge: true and an ambient pressure)' : ''}.`,

@@ -8,11 +8,13 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { parse } from 'csv-parse/sync';
 import { readCsv } from '../../src/data/csv';
+import { detectDelimiter } from '../../src/data/dialect';
 
-/** What readCsv returned before the direct path: csv-parse records with their lines. */
+/** What readCsv returned before the direct path: csv-parse records with their lines (delimiter as detected). */
 function viaCsvParse(text: string): { header: string[]; headerLine: number; rows: { line: number; cells: string[] }[] } | 'error' {
   const records = parse(text, {
     bom: true,
+    delimiter: detectDelimiter(text),
     comment: '#',
     comment_no_infix: true,
     skip_empty_lines: true,
