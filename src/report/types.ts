@@ -118,9 +118,10 @@ export interface ResponseObservationData {
   /** Unit of measured, predicted and residual, for example 'mol/s' or '1'. */
   unit: string;
   measured: number;
-  predicted: number;
-  /** measured - predicted, in `unit`. */
-  residual: number;
+  /** Predicted value; null when the model could not be evaluated for this run at the estimate. */
+  predicted: number | null;
+  /** measured - predicted, in `unit`; null with predicted. */
+  residual: number | null;
   /** Studentized residual (dimensionless); null or absent when not computed. */
   studentized?: number | null;
 }

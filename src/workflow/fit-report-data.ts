@@ -65,7 +65,9 @@ function runRows(study: Study, sf: StudyFit): RunObservationData[] {
     }
     const d = sf.fit.observations[o.index];
     const { label, unit } = responseLabel(o, study);
-    row.responses.push({ response: label, unit, measured: d.measured, predicted: d.predicted, residual: d.residual, studentized: d.studentizedResidual });
+    // A run the model could not evaluate at the estimate has no fitted observation: shown as failed.
+    if (!d || !Number.isFinite(d.predicted)) row.responses.push({ response: label, unit, measured: o.value, predicted: null, residual: null, studentized: null });
+    else row.responses.push({ response: label, unit, measured: d.measured, predicted: d.predicted, residual: d.residual, studentized: d.studentizedResidual });
   }
   return [...byRun.values()];
 }

@@ -12,8 +12,9 @@ export interface ObservationRow {
   response: string;
   unit: string;
   measured: number;
-  predicted: number;
-  residual: number;
+  /** Null for a run the model could not evaluate (dropped from charts like a non-finite value). */
+  predicted: number | null;
+  residual: number | null;
   studentized: number | null;
   T: number;
   P_kPa: number;

@@ -19,7 +19,7 @@ export function parityCharts(runs: RunObservationData[], size: ChartSize = {}): 
       ['measured', 'predicted'],
     );
     const unit = rows[0]?.unit ?? all.find((r) => r.response === response)?.unit ?? '1';
-    const domain = paddedDomain([...rows.map((r) => r.measured), ...rows.map((r) => r.predicted)]);
+    const domain = paddedDomain([...rows.map((r) => r.measured), ...rows.map((r) => r.predicted as number)]); // finite: kept above
     const scale = { domain, nice: false, zero: false };
     return {
       id: `parity-${slug(response)}`,
