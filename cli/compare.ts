@@ -13,7 +13,7 @@ import { fitReportData } from '../src/workflow/fit-report-data';
 import type { Comparison } from '../src/estimation/compare';
 import { join } from 'node:path';
 import { writeFitReport } from './report-render';
-import { assertWritable } from './io';
+import { assertWritable, checkStem } from './io';
 import { g, table } from './format';
 import { progressReporter, runCommand } from './run';
 import { readStudy, studyStem } from './study-input';
@@ -71,7 +71,7 @@ export function registerCompare(program: Command): void {
     .action(async (studyPath: string, flags: CompareFlags) => {
       await runCommand(!!flags.json, async () => {
         const workers = workersFlag(flags.workers);
-        const stem = flags.name ?? studyStem(studyPath);
+        const stem = flags.name !== undefined ? checkStem(flags.name) : studyStem(studyPath);
         const outDir = flags.out ?? 'reports';
         const { study } = readStudy(studyPath, !!flags.strict);
         if (flags.report !== false) assertWritable([join(outDir, `${stem}-compare.html`), join(outDir, `${stem}-compare.md`)], { force: !!flags.force });

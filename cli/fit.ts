@@ -15,8 +15,9 @@ import { fitStudyParallel } from '../src/parallel/fit-parallel';
 import { AUTO_RULE_TEXT, type WorkersSetting } from '../src/parallel/auto';
 import { fitReportData } from '../src/workflow/fit-report-data';
 import type { Study } from '../src/study/types';
-import { writeFitReport } from './report-render';
-import { assertWritable, writeAtomic } from './io';
+import { renderFitFiles } from './report-render';
+import { assertWritable, checkStem, writeAll } from './io';
+import type { OutputFile } from './output';
 import { g, table } from './format';
 import { progressReporter, runCommand, toJson } from './run';
 import { readStudy, studyStem } from './study-input';
@@ -164,7 +165,7 @@ export function registerFit(program: Command): void {
         const maxIterations = numberFlag(flags.maxIterations, 'max-iterations', (n) => Number.isInteger(n) && n >= 1, 'Give a whole number of iterations >= 1, e.g. --max-iterations 500.');
         const level = numberFlag(flags.level, 'level', (n) => n > 0 && n < 1, 'Give a level between 0 and 1, e.g. --level 0.95.') ?? 0.95;
         const workers = workersFlag(flags.workers);
-        const stem = flags.name ?? studyStem(studyPath);
+        const stem = flags.name !== undefined ? checkStem(flags.name) : studyStem(studyPath);
         const outDir = flags.out ?? 'reports';
         const planned = [join(outDir, `${stem}-kinetics.json`), ...(flags.report !== false ? [join(outDir, `${stem}-fit.html`), join(outDir, `${stem}-fit.md`)] : [])];
         const { study, report } = readStudy(studyPath, !!flags.strict);
@@ -173,12 +174,12 @@ export function registerFit(program: Command): void {
         const profileProgress = progressReporter(!!flags.json, 'profile intervals');
         const sf = await fitStudyParallel(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, ...(starts !== undefined ? { starts } : {}), ...(maxIterations !== undefined ? { maxIterations } : {}), seed, level, workers, ...(progress ? { progress } : {}), ...(profileProgress ? { profileProgress } : {}) });
         const handoff = buildHandoff(study, sf);
-        const handoffPath = writeAtomic(planned[0], toJson(handoff) + '\n', { force: !!flags.force });
-        let reportPaths: { html: string; markdown: string } | undefined;
-        if (flags.report !== false) {
-          const r = await writeFitReport(fitReportData(study, sf), { outDir, baseName: `${stem}-fit`, force: !!flags.force });
-          reportPaths = { html: r.html, markdown: r.markdown };
-        }
+        // Everything is rendered first, then written together: a kill or a failure leaves no partial set.
+        const files: OutputFile[] = [{ path: planned[0], content: toJson(handoff) + '\n' }];
+        if (flags.report !== false) files.push(...(await renderFitFiles(fitReportData(study, sf), { outDir, baseName: `${stem}-fit` })).files);
+        const paths = writeAll(files, { force: !!flags.force });
+        const handoffPath = paths[0];
+        const reportPaths = flags.report !== false ? { html: paths[1], markdown: paths[2] } : undefined;
         const trustworthy = sf.fit.verdict.trustworthy;
         return {
           trustworthy,

@@ -2,11 +2,12 @@
  * File input and output for the commands. Outputs are written atomically (a temporary file in the
  * same folder, then rename) and never replace an existing file unless --force is given.
  */
-import { closeSync, existsSync, mkdirSync, openSync, readSync, renameSync, writeFileSync, unlinkSync } from 'node:fs';
-import { dirname, relative, resolve } from 'node:path';
+import { closeSync, existsSync, openSync, readSync } from 'node:fs';
+import { relative, resolve } from 'node:path';
 import { RateloomError, isRateloomError } from '../src/core/errors';
 import { DEFAULT_MAX_INPUT_BYTES, decodeInput, nulError, sniffBom, tooLargeError } from '../src/data/decode';
 import { parseJsonText } from '../src/core/json-text';
+import { commitOutputs, type OutputFile } from './output';
 
 /** The input size limit: RATELOOM_MAX_INPUT_MB (MiB) when set to a positive number, else the default. */
 export function maxInputBytes(): number {
@@ -101,35 +102,32 @@ export function assertWritable(paths: readonly string[], opts: WriteOptions = {}
 }
 
 /**
- * Write `content` to `path` atomically (a temporary file in the same folder, then rename), so a
- * reader never sees a half-written file. Refuses to replace an existing file without force.
- * Returns the path written, relative to the current folder.
+ * Write several outputs as one transaction (cli/output.ts): temporary names, then each put in
+ * place; without force a file is created exclusively, so a second run never replaces or mixes
+ * with the first. Returns the paths written, relative to the current folder.
  */
-export function writeAtomic(path: string, content: string | Uint8Array, opts: WriteOptions = {}): string {
-  const abs = resolve(path);
-  if (existsSync(abs) && !opts.force) {
-    throw new RateloomError('E_EXISTS', `output '${path}' already exists`, {
-      location: { file: path },
-      fix: 'Pass --force to overwrite it, or choose another output path with --out.',
-    });
-  }
-  mkdirSync(dirname(abs), { recursive: true });
-  const tmp = `${abs}.${process.pid}.${Date.now()}.tmp`;
-  try {
-    writeFileSync(tmp, content);
-    renameSync(tmp, abs);
-  } catch (e) {
-    try {
-      unlinkSync(tmp);
-    } catch {
-      /* temporary file may not exist */
-    }
-    throw new RateloomError('E_FILE', `cannot write '${path}' (${(e as Error).message})`, {
-      location: { file: path },
-      fix: 'Check that the folder is writable and the disk is not full.',
-    });
-  }
-  const shown = displayPath(abs);
-  written.push(shown);
+export function writeAll(files: readonly OutputFile[], opts: WriteOptions = {}): string[] {
+  if (!opts.force) assertWritable(files.map((f) => f.path));
+  commitOutputs(files, !!opts.force, displayPath);
+  const shown = files.map((f) => displayPath(f.path));
+  written.push(...shown);
   return shown;
+}
+
+/** Write one output atomically (see writeAll). Returns the path written, relative to the current folder. */
+export function writeAtomic(path: string, content: string | Uint8Array, opts: WriteOptions = {}): string {
+  return writeAll([{ path, content }], opts)[0];
+}
+
+/**
+ * A file-name stem given on the command line (--name): a plain name, so that outputs stay in
+ * their folder. Refuses path separators, '..', a leading '.', control characters and empty names.
+ */
+export function checkStem(stem: string, flag = '--name'): string {
+  if (stem === '' || /[/\\\u0000-\u001f]/.test(stem) || stem.startsWith('.') || stem.length > 120) {
+    throw new RateloomError('E_USAGE', `${flag} '${stem.slice(0, 60)}' is not a plain file name`, {
+      fix: `Give ${flag} a name without folders (no '/', '\\' or leading '.'), at most 120 characters; put the folder in --out.`,
+    });
+  }
+  return stem;
 }

@@ -6,7 +6,8 @@
 import { join } from 'node:path';
 import type { renderFitReport } from '../src/report';
 import type { FitReportData, ReportWarning, SizingReportData } from '../src/report/types';
-import { writeAtomic } from './io';
+import { writeAll } from './io';
+import type { OutputFile } from './output';
 
 export interface ReportWriteOptions {
   /** Folder for the files; default 'reports'. */
@@ -30,34 +31,49 @@ export interface ReportWriteResult {
   warnings: ReportWarning[];
 }
 
-async function write(
-  rendered: Awaited<ReturnType<typeof renderFitReport>>,
-  defaultBase: string,
-  opts: ReportWriteOptions,
-): Promise<ReportWriteResult> {
+/** Rendered report files, not yet written (to be written with the command's other outputs). */
+export interface RenderedReportFiles {
+  files: OutputFile[];
+  warnings: ReportWarning[];
+}
+
+function filesOf(rendered: Awaited<ReturnType<typeof renderFitReport>>, defaultBase: string, opts: ReportWriteOptions): RenderedReportFiles {
   const dir = opts.outDir ?? 'reports';
   const base = opts.baseName ?? defaultBase;
-  const html = writeAtomic(join(dir, `${base}.html`), rendered.html, { force: opts.force });
-  const markdown = writeAtomic(join(dir, `${base}.md`), rendered.markdown, { force: opts.force });
-  const svg: string[] = [];
-  if (opts.svgFiles) {
-    for (const c of rendered.charts) {
-      if (c.svg) svg.push(writeAtomic(join(dir, `${base}-charts`, `${c.id}.svg`), c.svg, { force: opts.force }));
-    }
-  }
-  return { html, markdown, svg, warnings: rendered.warnings };
+  const files: OutputFile[] = [
+    { path: join(dir, `${base}.html`), content: rendered.html },
+    { path: join(dir, `${base}.md`), content: rendered.markdown },
+  ];
+  if (opts.svgFiles) for (const c of rendered.charts) if (c.svg) files.push({ path: join(dir, `${base}-charts`, `${c.id}.svg`), content: c.svg });
+  return { files, warnings: rendered.warnings };
+}
+
+/** Render a fit report into files (HTML, Markdown, optional SVGs) without writing them. */
+export async function renderFitFiles(data: FitReportData, opts: ReportWriteOptions = {}): Promise<RenderedReportFiles> {
+  // Loaded on first use: the chart libraries take about a second to load, which every other path
+  // of a command (errors, --help, --no-report) should not pay.
+  const { renderFitReport } = await import('../src/report');
+  return filesOf(await renderFitReport(data), 'fit-report', opts);
+}
+
+/** Render a sizing report into files without writing them. */
+export async function renderSizingFiles(data: SizingReportData, opts: ReportWriteOptions = {}): Promise<RenderedReportFiles> {
+  const { renderSizingReport } = await import('../src/report');
+  return filesOf(await renderSizingReport(data), 'sizing-report', opts);
+}
+
+/** Write rendered report files as one transaction. */
+function write(r: RenderedReportFiles, opts: ReportWriteOptions): ReportWriteResult {
+  const paths = writeAll(r.files, { force: opts.force });
+  return { html: paths[0], markdown: paths[1], svg: paths.slice(2), warnings: r.warnings };
 }
 
 /** Render and write a fit report (HTML + Markdown). */
 export async function writeFitReport(data: FitReportData, opts: ReportWriteOptions = {}): Promise<ReportWriteResult> {
-  // Loaded on first use: the chart libraries take about a second to load, which every other path
-  // of a command (errors, --help, --no-report) should not pay.
-  const { renderFitReport } = await import('../src/report');
-  return write(await renderFitReport(data), 'fit-report', opts);
+  return write(await renderFitFiles(data, opts), opts);
 }
 
 /** Render and write a sizing report (HTML + Markdown). */
 export async function writeSizingReport(data: SizingReportData, opts: ReportWriteOptions = {}): Promise<ReportWriteResult> {
-  const { renderSizingReport } = await import('../src/report');
-  return write(await renderSizingReport(data), 'sizing-report', opts);
+  return write(await renderSizingFiles(data, opts), opts);
 }

@@ -14,10 +14,11 @@ import type { SizingResult } from '../src/design/size';
 import { sizeReactorParallel } from '../src/parallel/size-parallel';
 import { AUTO_RULE_TEXT } from '../src/parallel/auto';
 import { WORKERS_OPTION, workersFlag } from './fit';
-import { assertWritable, readJson, writeAtomic } from './io';
+import { assertWritable, readJson, writeAll } from './io';
+import type { OutputFile } from './output';
 import { basename, join } from 'node:path';
 import { sizingReportData } from '../src/workflow/sizing-report-data';
-import { writeSizingReport } from './report-render';
+import { renderSizingFiles } from './report-render';
 import { progressReporter, runCommand, toJson } from './run';
 import { g, withUnit } from './format';
 
@@ -179,13 +180,13 @@ export function registerSize(program: Command): void {
             ...(flags.acceptUntrustworthy ? { acceptUntrustworthy: true } : {}),
           },
         }, { handoff: handoffRaw, case: caseRaw }, { workers });
+        // Everything is rendered first, then written together: a kill or a failure leaves no partial set.
+        const files: OutputFile[] = flags.out ? [{ path: flags.out, content: toJson(result) + '\n' }] : [];
+        if (flags.report) files.push(...(await renderSizingFiles(sizingReportData(result), { outDir: flags.report, baseName: reportStem })).files);
+        const paths = writeAll(files, { force: !!flags.force });
         const outputs: { result?: string; html?: string; markdown?: string } = {};
-        if (flags.out) outputs.result = writeAtomic(flags.out, toJson(result) + '\n', { force: !!flags.force });
-        if (flags.report) {
-          const r = await writeSizingReport(sizingReportData(result), { outDir: flags.report, baseName: reportStem, force: !!flags.force });
-          outputs.html = r.html;
-          outputs.markdown = r.markdown;
-        }
+        if (flags.out) outputs.result = paths[0];
+        if (flags.report) [outputs.html, outputs.markdown] = paths.slice(flags.out ? 1 : 0);
         return { json: Object.keys(outputs).length ? { ...result, outputs } : result, text: formatSizing(result), trustworthy: result.verdict.trustworthy };
       });
     });
