@@ -150,7 +150,7 @@ export function buildParameters(
     seen.add(s.name);
     const unit = s.unit ?? '1';
     const conv = compoundToSI(1, unit, { path: [...p, 'unit'] });
-    checkRoleUnit(s.name, roles.get(s.name)?.role, unit, [...p, 'unit']);
+    if (s.unit !== undefined) checkRoleUnit(s.name, roles.get(s.name)?.role, unit, [...p, 'unit']);
     const auto = isAutoValue(s);
     if (auto && s.fixed) {
       throw new RateloomError('E_MISSING_FIELD', `parameter '${s.name}' is fixed but has no value`, {
