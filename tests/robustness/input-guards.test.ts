@@ -6,7 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { isRateloomError, type RateloomError } from '../../src/core/errors';
+import { caught } from './caught';
 import { parseJsonText } from '../../src/core/json-text';
 import { readCsv } from '../../src/data/csv';
 import { decodeInput } from '../../src/data/decode';
@@ -17,15 +17,6 @@ import { FIXTURES, baseStudy, load } from '../data/helpers';
 
 const RUNS = readFileSync(`${FIXTURES}/runs.csv`, 'utf8');
 
-function caught(f: () => unknown): RateloomError {
-  try {
-    f();
-  } catch (e) {
-    if (isRateloomError(e)) return e;
-    throw e;
-  }
-  throw new Error('expected a RateloomError');
-}
 
 /** The fixture study with only its per-run source, read from `file`. */
 function perRunOnly(file = 'runs.csv'): any {

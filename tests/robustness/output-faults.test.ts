@@ -6,7 +6,7 @@
 import { existsSync, mkdirSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { isRateloomError } from '../../src/core/errors';
+import { caught } from './caught';
 import { LOCK_NAME, commitOutputs, fileError } from '../../cli/output';
 import { runCli, runMany, tmpLeftovers, workspace, type CliRun } from './cli-helpers';
 
@@ -71,15 +71,7 @@ describe('two runs with the same --out', () => {
 });
 
 describe('the write transaction', () => {
-  const caught = (f: () => void) => {
-    try {
-      f();
-    } catch (e) {
-      if (isRateloomError(e)) return e;
-      throw e;
-    }
-    throw new Error('expected a RateloomError');
-  };
+
   it('a lock held by a live process stops this run, which says it lost', () => {
     const dir = join(ws.dir, 'locked');
     mkdirSync(dir);
