@@ -3,6 +3,7 @@
  * parameters, reactor and error models in SI -> CSV sources mapped and validated -> Study and
  * ValidationReport. Pure apart from the injected `readFile`.
  */
+import { dirname } from 'node:path';
 import { buildChemistry } from '../chemistry/mechanism';
 import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec';
 import { RateloomError, isRateloomError } from '../core/errors';
@@ -255,6 +256,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   }
 
   // Data sources.
+  const baseDir = dirname(studyPath);
   const tables = readSources(raw.data, studyPath, readFile, options);
   const ledger = new Ledger();
   raw.data.forEach((s, i) => ledger.addSource(s.file, s.layout, tables[i].rows.length));
