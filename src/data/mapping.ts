@@ -173,12 +173,6 @@ function columnCountMessage(cells: number, header: number, delimiter: string): s
   return `row has ${cells} cells, the header has ${header}${hint}`;
 }
 
-/** True for a flow reactor's feed vector that is zero for every species. */
-function zeroFeed(feed: Float64Array | undefined, kind: ReactorKind): boolean {
-  if (!feed || kind === 'batch' || kind === 'semibatch') return false;
-  for (let j = 0; j < feed.length; j++) if (feed[j] !== 0) return false;
-  return true;
-}
 
 /** Reads cells of one row at a time (reset per row), collecting problems instead of throwing. */
 export class RowReader {
@@ -517,7 +511,6 @@ function readPerRunRow(plan: PerRunPlan, r: RowReader, row: CsvRow, ctx: Mapping
   const catalystMass = plan.W && plan.size !== plan.W ? r.num(plan.W, false, 'nonneg') : undefined;
   const volumetricFlow = plan.v0 ? r.num(plan.v0, plan.needFlow, plan.isBatch || plan.isSemi ? 'nonneg' : 'positive') : undefined;
   const feed = readFeed(plan, r, ctx, temperature, pressure, volumetricFlow);
-  if (!r.problems.length && zeroFeed(feed, ctx.kind)) r.reject('out-of-range', `the feed is zero for every species: a ${ctx.kind} run needs a feed`);
   const initial = readInitial(plan, r, temperature, pressure);
   const initialVolume = plan.V0 ? r.num(plan.V0, plan.isSemi, 'nonneg') : undefined;
   const rateC = plan.composition ? readRateComposition(plan.composition, plan.nS, { temperature, pressure, volumetricFlow }, tools, ctx.phase === 'gas') : undefined;

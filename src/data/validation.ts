@@ -63,6 +63,18 @@ function closeVec(a: Float64Array | undefined, b: Float64Array | undefined, tol:
   return true;
 }
 
+/**
+ * Lab runs of a flow reactor whose feed is zero for every species are rejected (out-of-range):
+ * nothing flows in, so nothing can be measured at the outlet.
+ */
+export function rejectZeroFeeds(runs: readonly MappedRun[], kind: string, ledger: Ledger): void {
+  if (kind === 'batch' || kind === 'semibatch') return;
+  for (const r of runs) {
+    if (!r.feed || r.feed.some((f) => f !== 0)) continue;
+    ledger.reject({ file: r.location.file, line: r.location.line, reason: 'out-of-range', message: `the feed is zero for every species: a ${kind} run needs a feed` });
+  }
+}
+
 /** Same conditions within a relative tolerance (temperature, pressure, size, feed, group, ...). */
 export function sameConditions(a: MappedRun, b: MappedRun, tol: number): boolean {
   return (

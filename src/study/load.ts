@@ -14,7 +14,7 @@ import { unitFor } from '../units';
 import { mapLongSource, mapPerRunSource, type MappedObservation, type MappedRun, type MappedSource, type RowLocation } from '../data/mapping';
 import { DEFAULT_CHECKS, type CheckSettings } from '../data/report';
 import type { LongSourceSpec, MeasureSpec, PerRunSourceSpec, SourceSpec } from '../data/spec';
-import { Ledger, assertNoRejections, buildReport, checkAboveInlet, checkElementBalance, findReplicates, mergeDuplicateRuns, pureErrors } from '../data/validation';
+import { Ledger, assertNoRejections, buildReport, checkAboveInlet, checkElementBalance, findReplicates, mergeDuplicateRuns, pureErrors, rejectZeroFeeds } from '../data/validation';
 import schemaJson from '../../schema/study.schema.json';
 import { checkSchema, type JsonSchema } from './schema-check';
 import { loadTransport } from './transport';
@@ -273,6 +273,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   // Plain loops instead of flatMap and map-to-pairs: these run over every row and observation.
   const allRuns: MappedRun[] = [];
   for (const m of perRun) for (const r of m.runs) allRuns.push(r);
+  rejectZeroFeeds(allRuns, reactor.kind, ledger);
   let runs = mergeDuplicateRuns(allRuns, ledger, settings.replicateTolerance);
   // An absolute sigma must be in a unit of the responses that use it.
   const checkModelUnits = (list: readonly MappedObservation[]) => {
