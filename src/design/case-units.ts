@@ -24,7 +24,12 @@ export type QuantityKind =
   | 'concentration'
   | 'alphaMass'
   | 'alphaVolume'
-  | 'temperatureDifference';
+  | 'temperatureDifference'
+  | 'area'
+  | 'heatTransferCoefficient'
+  | 'thermalConductivity'
+  | 'massFlow'
+  | 'specificHeatCapacity';
 
 /** The src/units quantity behind each kind (null: converted by the local table below). */
 const QUANTITY: Record<QuantityKind, Quantity | null> = {
@@ -44,12 +49,22 @@ const QUANTITY: Record<QuantityKind, Quantity | null> = {
   concentration: 'concentration',
   alphaMass: 'inverse-mass',
   alphaVolume: 'inverse-volume',
+  area: 'area',
+  heatTransferCoefficient: null,
+  thermalConductivity: null,
+  massFlow: null,
+  specificHeatCapacity: null,
 };
 
 /** Kinds that src/units does not list: factor to SI per unit symbol. */
 const LOCAL: Partial<Record<QuantityKind, Record<string, number>>> = {
   temperatureDifference: { K: 1, degC: 1 },
   molarHeatCapacity: { 'J/(mol K)': 1, 'J/mol/K': 1, 'kJ/(mol K)': 1000, 'kJ/mol/K': 1000 },
+  heatTransferCoefficient: { 'W/(m2 K)': 1, 'W/m2/K': 1, 'kW/(m2 K)': 1000 },
+  thermalConductivity: { 'W/(m K)': 1, 'W/m/K': 1 },
+  // 1 h = 3600 s, 1 t = 1000 kg (SI Brochure, 9th ed., table 8)
+  massFlow: { 'kg/s': 1, 'kg/h': 1 / 3600, 't/h': 1000 / 3600 },
+  specificHeatCapacity: { 'J/(kg K)': 1, 'J/kg/K': 1, 'kJ/(kg K)': 1000, 'kJ/kg/K': 1000 },
 };
 
 /** The SI unit of each kind, as reported in results. */
@@ -70,6 +85,11 @@ export const SI_UNIT: Record<QuantityKind, string> = {
   concentration: 'mol/m3',
   alphaMass: '1/kg',
   alphaVolume: '1/m3',
+  area: 'm2',
+  heatTransferCoefficient: 'W/(m2 K)',
+  thermalConductivity: 'W/(m K)',
+  massFlow: 'kg/s',
+  specificHeatCapacity: 'J/(kg K)',
 };
 
 /** Units accepted for a kind (for messages and the --help text). */

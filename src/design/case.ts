@@ -26,6 +26,8 @@
 import { loadCasePellet, type CasePellet } from './case-pellet';
 import { RateloomError, closestName, type FieldPath } from '../core/errors';
 import { quantityToSI, type QuantityKind } from './case-units';
+import { cpAt } from '../reactors/thermal/heat-capacity';
+import { loadThermalCase, THERMAL_FIELDS, type ThermalCase } from './heat-case';
 
 export type DesignReactorKind = 'packed-bed' | 'plug-flow' | 'stirred-tank' | 'batch';
 
@@ -84,6 +86,8 @@ export interface DesignCase {
     heatCapacity: number;
     /** Adiabatic rise above which a warning is given, K; default 10. */
     warnAbove: number;
+    /** Energy-balance inputs when heat.mode is given (heat-case.ts); absent: isothermal sizing. */
+    thermal?: ThermalCase;
   };
   uncertainty: {
     /** Monte Carlo draws; default 10000. */
@@ -340,27 +344,7 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
   }
   if (top.catalystLoading !== undefined) out.catalystLoading = positive(top.catalystLoading, 'density', ['catalystLoading'], 'catalyst loading');
 
-  if (top.heat !== undefined) {
-    const h = obj(top.heat, ['heat'], 'heat');
-    checkFields(h, ['reactionEnthalpy', 'heatCapacity', 'warnAbove'], ['heat']);
-    const re = obj(need(h, 'reactionEnthalpy', ['heat'], 'Add "reactionEnthalpy": { "r1": "-90 kJ/mol" }.'), ['heat', 'reactionEnthalpy'], 'reactionEnthalpy');
-    const reactionEnthalpy: Record<string, number> = {};
-    for (const [id, q] of Object.entries(re)) {
-      if (!reactionIds.includes(id)) {
-        const near = closestName(id, reactionIds);
-        throw new RateloomError('E_VALUE', `reaction '${id}' is not in the fitted kinetics`, {
-          path: ['heat', 'reactionEnthalpy', id],
-          fix: near ? `Did you mean '${near}'?` : `Use one of: ${reactionIds.join(', ')}.`,
-        });
-      }
-      reactionEnthalpy[id] = quantityToSI(q, 'molarEnergy', ['heat', 'reactionEnthalpy', id]);
-    }
-    out.heat = {
-      reactionEnthalpy,
-      heatCapacity: positive(need(h, 'heatCapacity', ['heat'], 'Add "heatCapacity": "35 J/(mol K)".'), 'molarHeatCapacity', ['heat', 'heatCapacity'], 'heat capacity'),
-      warnAbove: h.warnAbove !== undefined ? positive(h.warnAbove, 'temperatureDifference', ['heat', 'warnAbove'], 'warning limit') : 10,
-    };
-  }
+  if (top.heat !== undefined) out.heat = loadHeat(obj(top.heat, ['heat'], 'heat'), out, reactionIds);
 
   if (top.uncertainty !== undefined) {
     const u = obj(top.uncertainty, ['uncertainty'], 'uncertainty');
@@ -414,4 +398,44 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
     }
     return y;
   }
+}
+
+/** The `heat` block: enthalpies, the mean heat capacity and, with `mode`, the energy-balance inputs. */
+function loadHeat(h: Obj, kase: DesignCase, reactionIds: readonly string[]): NonNullable<DesignCase['heat']> {
+  checkFields(h, ['reactionEnthalpy', 'heatCapacity', 'warnAbove', ...THERMAL_FIELDS], ['heat']);
+  const thermal = h.mode !== undefined && h.mode !== 'isothermal' ? loadThermalCase(h, kase.species) : undefined;
+  const reactionEnthalpy: Record<string, number> = {};
+  const re = h.reactionEnthalpy === undefined && thermal ? {} : obj(need(h, 'reactionEnthalpy', ['heat'], 'Add "reactionEnthalpy": { "r1": "-90 kJ/mol" }.'), ['heat', 'reactionEnthalpy'], 'reactionEnthalpy');
+  for (const [id, q] of Object.entries(re)) {
+    if (!reactionIds.includes(id)) {
+      const near = closestName(id, reactionIds);
+      throw new RateloomError('E_VALUE', `reaction '${id}' is not in the fitted kinetics`, {
+        path: ['heat', 'reactionEnthalpy', id],
+        fix: near ? `Did you mean '${near}'?` : `Use one of: ${reactionIds.join(', ')}.`,
+      });
+    }
+    reactionEnthalpy[id] = quantityToSI(q, 'molarEnergy', ['heat', 'reactionEnthalpy', id]);
+  }
+  const heatCapacity = h.heatCapacity === undefined && thermal
+    ? meanHeatCapacity(kase, thermal)
+    : positive(need(h, 'heatCapacity', ['heat'], 'Add "heatCapacity": "35 J/(mol K)".'), 'molarHeatCapacity', ['heat', 'heatCapacity'], 'heat capacity');
+  return {
+    reactionEnthalpy,
+    heatCapacity,
+    warnAbove: h.warnAbove !== undefined ? positive(h.warnAbove, 'temperatureDifference', ['heat', 'warnAbove'], 'warning limit') : 10,
+    ...(thermal ? { thermal } : {}),
+  };
+}
+
+/** Mean molar heat capacity of the feed at its temperature from the per-species values, J/(mol K). */
+function meanHeatCapacity(kase: DesignCase, th: ThermalCase): number {
+  const amounts = kase.reactor.kind === 'batch' ? kase.concentrations ?? kase.feed : kase.feed;
+  let total = 0;
+  let sum = 0;
+  amounts.forEach((a, j) => {
+    const h = th.heatCapacities[j];
+    total += a;
+    if (h) sum += a * (h.form === 'constant' ? h.cp : cpAt(h, kase.temperature));
+  });
+  return total > 0 && sum > 0 ? sum / total : NaN;
 }
