@@ -131,6 +131,7 @@ export function formatSizing(r: SizingResult): string {
     }
   }
   if (r.pellet) L.push(...formatPelletSizing(r.pellet, r.size?.value));
+  if (r.thermal) L.push(...thermalLines(r.thermal));
   if (r.heat) L.push(`Adiabatic temperature rise: ${g(r.heat.adiabaticRise, 4)} K; heat to remove ${g(r.heat.heatDuty.value, 4)} ${r.heat.heatDuty.unit} (${r.heat.formula})`);
   if (r.warnings.length) {
     L.push('Warnings:');
@@ -211,4 +212,22 @@ function parseHandoffAt(path: string) {
 function loadCaseAt(path: string, species: readonly string[], reactions: readonly string[]) {
   const raw = readJson(path, 'case file');
   return { raw, kase: withFile(path, () => loadCase(raw, species, reactions)) };
+}
+
+/** Text lines of the energy-balance result (temperatures in K). */
+function thermalLines(t: NonNullable<SizingResult['thermal']>): string[] {
+  const d = t.design;
+  const pc = (ps?: { level: number; value: number }[]) => (ps ? ` (${ps.map((p) => `P${g(p.level * 100, 3)} ${g(p.value, 5)} K`).join(', ')})` : '');
+  const L = [
+    `Energy balance (${t.mode}; ${t.model}); U = ${t.heatTransfer.U === null ? 'none' : `${g(t.heatTransfer.U, 4)} W/(m2 K)`}, ${t.heatTransfer.source}`,
+    `  design: ${d.count} tubes x ${g(d.innerDiameter * 1000, 4)} mm, length ${g(d.length, 4)} m (max ${g(d.maxTubeLength, 4)} m), pressure drop ${g(d.pressureDrop.bar, 4)} bar; binding constraint: ${d.binding}${d.met ? '' : ' (NOT MET)'}`,
+    `  hot spot ${g(t.hotSpot.temperature, 5)} K at ${g(t.hotSpot.position.length, 4)} m${t.hotSpot.limit !== null ? ` (limit ${g(t.hotSpot.limit, 5)} K)` : ''}${pc(t.hotSpot.percentiles)}`,
+    `  outlet temperature ${g(t.outletTemperature.value, 5)} K${pc(t.outletTemperature.percentiles)}`,
+  ];
+  if (t.runaway) {
+    const r = t.runaway;
+    L.push(`  runaway: critical coolant temperature ${r.criticalCoolantTemperature === null ? 'not located' : `${g(r.criticalCoolantTemperature, 5)} K, margin ${g(r.margin!, 4)} K`} (${r.criterion})`);
+  }
+  if (t.bvp) L.push(`  counter-current solve: ${t.bvp.converged ? 'converged' : 'NOT converged'} in ${t.bvp.iterations} iterations, residual ${g(t.bvp.residual, 3)} K`);
+  return L;
 }

@@ -22,6 +22,7 @@ import { extrapolationWarnings } from './extrapolation';
 import { heatCheck, type HeatCheck } from './heat';
 import { cautions } from './cautions';
 import { PELLET_CAUTIONS, pelletSizing, systemWithPellet, type PelletSizing } from './pellet-sizing';
+import { sizeCooledBed, type ThermalSizing } from './heat-design';
 import type { HandoffVerdict } from './handoff-verdict';
 import { finishGated, gateSizing, type SizingVerdict } from './size-gate';
 
@@ -35,7 +36,11 @@ export type SizingStatus =
   | 'pressure-exhausted'
   | 'too-many-tubes'
   | 'integration-failed'
-  | 'draws-failed';
+  | 'draws-failed'
+  | 'hot-spot-exceeded'
+  | 'limits-not-met'
+  | 'runaway'
+  | 'bvp-not-converged';
 
 export const SIZING_STATUS: StatusTable<SizingStatus> = {
   sized: { success: true, message: 'reactor sized for the target' },
@@ -45,6 +50,10 @@ export const SIZING_STATUS: StatusTable<SizingStatus> = {
   'too-many-tubes': { success: false, message: 'no tube count keeps the pressure drop within the allowed value' },
   'integration-failed': { success: false, message: 'the reactor model could not be solved' },
   'draws-failed': { success: false, message: 'too many Monte Carlo draws failed for the percentiles to be trusted' },
+  'hot-spot-exceeded': { success: false, message: 'the hot spot exceeds the allowed temperature (heat.maxTemperature)' },
+  'limits-not-met': { success: false, message: 'no tube count meets the pressure-drop and tube-length limits' },
+  runaway: { success: false, message: 'the tube runs away thermally before the target is reached' },
+  'bvp-not-converged': { success: false, message: 'the counter-current coolant problem did not converge' },
 };
 
 export interface SizingOptions {
@@ -113,6 +122,8 @@ export interface SizingResult extends Outcome<SizingStatus> {
   uncertainty?: UncertaintyResult;
   /** The plant pellet: eta along the bed, film at the inlet, diameter trade-off (case with a pellet). */
   pellet?: PelletSizing;
+  /** Energy balance, hot spot, binding constraint and runaway margin (cases with heat.mode). */
+  thermal?: ThermalSizing;
   /** Always present, whatever the status. */
   cautions: string[];
   /** The hand-off's verdict (handoff-verdict.ts). */
@@ -218,7 +229,7 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, UngatedResult,
     case: kase.name,
     reactor: { ...kase.reactor },
     target: kase.target,
-    cautions: kase.pellet ? [...cautions(handoff), ...PELLET_CAUTIONS] : cautions(handoff),
+    cautions: kase.pellet ? [...cautions(handoff), ...PELLET_CAUTIONS] : cautions(handoff, kase.heat?.thermal !== undefined),
   };
   const fail = (status: SizingStatus, detail: string, extra: Partial<UngatedResult> = {}): UngatedResult => ({
     ...outcome(SIZING_STATUS, status, warnings, detail),
@@ -228,6 +239,8 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, UngatedResult,
   const t = kase.target;
   const keyName = t.kind === 'conversion' ? t.species : firstReactant(sys);
   const key = keyName !== undefined ? kase.species.indexOf(keyName) : -1;
+  const thermalBed = thermalRoute(input);
+  if (thermalBed) return thermalBed === true ? sizeCooledBed(input, map, sys, key, (t as { value: number }).value, warnings, base) : fail('integration-failed', thermalBed);
 
   // Feasibility.
   let equilibrium: EquilibriumLimit | undefined;
@@ -409,6 +422,22 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, UngatedResult,
   }
   result.warnings = warnings;
   return result;
+}
+
+/**
+ * Whether the case is sized with the energy balance: true for a gas packed bed with tubes, a
+ * conversion target and heat.mode; a message when heat.mode is given for a case this release
+ * cannot size under heat (never a silent isothermal sizing); false without heat.mode.
+ */
+function thermalRoute(input: SizingInput): boolean | string {
+  const k = input.kase;
+  if (!k.heat?.thermal) return false;
+  if (k.reactor.kind !== 'packed-bed' || !k.tubes || k.target.kind !== 'conversion') {
+    return 'sizing under heat (heat.mode) needs a gas packed bed with "tubes" and a conversion target; remove heat.mode for an isothermal estimate';
+  }
+  if (k.pellet) return 'sizing under heat (heat.mode) does not yet combine with a plant pellet; remove heat.mode or the pellet';
+  if (!input.molarMasses) return 'the tube design needs the molar masses of all species (give molarMass or formula per species in the hand-off)';
+  return true;
 }
 
 function firstReactant(sys: DesignSystem): string | undefined {

@@ -38,7 +38,7 @@ export function sizingReportData(r: SizingResult): SizingReportData {
       p95: percentile(r, 0.95),
       nominal: rating ? (r.outlet?.conversion?.value ?? null) : (r.size?.value ?? null),
     },
-    reactor: `${r.reactor.kind.replace('-', ' ')}, ${r.reactor.phase} phase, isothermal`,
+    reactor: `${r.reactor.kind.replace('-', ' ')}, ${r.reactor.phase} phase, ${r.thermal ? `${r.thermal.mode} energy balance (one-dimensional pseudo-homogeneous)` : 'isothermal'}`,
     outlet: r.outlet
       ? Object.entries(r.outlet.amounts).map(([species, value]) => ({
           species,
