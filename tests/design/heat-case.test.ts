@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { loadCase } from '../../src/design/case';
 import { DEFAULT_MAX_TUBE_LENGTH } from '../../src/design/heat-case';
-import { RateloomError } from '../../src/core/errors';
+import { err } from '../kinetics/helpers';
 
 const sp = ['A', 'B', 'C', 'N2'];
 const cooled = () => {
@@ -18,16 +18,6 @@ const cooled = () => {
   };
   return raw;
 };
-const err = (f: () => unknown): RateloomError => {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof RateloomError) return e;
-    throw e;
-  }
-  throw new Error('expected a RateloomError');
-};
-
 describe('heat inputs of the case file', () => {
   it('converts the thermal inputs to SI and applies the documented defaults', () => {
     const th = loadCase(cooled(), sp, ['r1']).heat!.thermal!;

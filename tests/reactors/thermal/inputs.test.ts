@@ -1,6 +1,6 @@
 /** Bad inputs of the non-isothermal tube: typed errors naming the field, never an isothermal fallback. */
 import { describe, expect, it } from 'vitest';
-import { RateloomError } from '../../../src/core/errors';
+import { err as refusal } from '../../kinetics/helpers';
 import { checkThermalSpec } from '../../../src/reactors/thermal/thermal-inputs';
 import { specOf, type RefCase } from './fixture';
 
@@ -9,16 +9,6 @@ const C: RefCase = {
   cp: [40, 50, 30], Ua: 15, W: 3, mode: 'co-current', Ta: 590, alpha: 0, mcp: 20,
 };
 const names = ['A', 'B', 'I'];
-
-function refusal(f: () => void): RateloomError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof RateloomError) return e;
-    throw e;
-  }
-  throw new Error('no error thrown');
-}
 
 describe('checkThermalSpec', () => {
   it('accepts a complete spec', () => {
