@@ -27,6 +27,7 @@ import { cases, runPbrSolve } from './pbr-solve';
 import { studyAsJson, syntheticStudy } from './synthetic-study';
 import { runParallelBench } from './parallel-bench';
 import { runPelletSizing } from './pellet-sizing';
+import { runHeatSizing } from './heat-sizing';
 import { checkJacobian } from '../src/estimation/jacobian-check';
 
 const quick = process.argv.includes('--quick');
@@ -188,6 +189,12 @@ const pel = runPelletSizing(quick ? 3 : 7);
 for (const l of pel.lines) console.log(`  ${l}`);
 report.pelletSizing = { plainMs: pel.plainMs, pelletMs: pel.pelletMs, ratio: pel.ratio, pelletSolves: pel.pelletSolves, directMs: pel.directMs, sizeKg: pel.sizeKg, intrinsicKg: pel.intrinsicKg };
 
+// ---------------------------------------------------------------- (i) energy balance
+section('(i) energy balance: one cooled tube solve vs isothermal, and Monte Carlo sizing with the energy balance');
+const heat = runHeatSizing(quick ? 1000 : 10000, quick ? 50 : 200);
+for (const l of heat.lines) console.log(`  ${l}`);
+report.heatSizing = { thermalMs: heat.thermalMs, isothermalMs: heat.isothermalMs, ratio: heat.ratio, drawsMs: heat.drawsMs, draws: heat.draws };
+
 // ---------------------------------------------------------------- existing single benchmarks
 section('pbr-solve');
 for (const l of runPbrSolve(quick ? 50 : 200).lines) console.log(`  ${l}`);
@@ -203,6 +210,8 @@ const ten = scaling.find((r) => r.runs === 10000);
 target('10,000 runs fitted in < 30 s', !!ten && ten.wallMs < 30000, ten ? `${fmt(ten.wallMs)} wall (${fmt(ten.cpuMs)} cpu)` : 'not run (--quick)');
 target('10,000 Monte Carlo draws < 10 s', draws === 10000 && mc.drawsMs < 10000, `${fmt(mc.drawsMs)} for ${draws} draws`);
 target('sizing with a numerically solved pellet within 20x of sizing without pellets', pel.ratio <= 20, `${pel.ratio.toFixed(1)}x (${fmt(pel.pelletMs)} vs ${fmt(pel.plainMs)}, ${pel.pelletSolves} pellet solves)`);
+target('one non-isothermal packed-bed solve within 4x of the isothermal solve', heat.ratio <= 4, `${heat.ratio.toFixed(2)}x (${heat.thermalMs.toFixed(3)} vs ${heat.isothermalMs.toFixed(3)} ms)`);
+target('10,000 Monte Carlo draws with the energy balance < 20 s', heat.draws === 10000 && heat.drawsMs < 20000, `${fmt(heat.drawsMs)} for ${heat.draws} draws`);
 report.targets = targets;
 writeFileSync(`${outDir}bench.json`, JSON.stringify(report, null, 2));
 console.log(`\nwrote ${outDir}bench.json`);
