@@ -365,6 +365,20 @@ export interface SizingReportData {
   cautions: string[];
   /** The plant pellet: effectiveness factor along the bed and the pellet trade-off; null without a pellet. */
   pellet?: PelletReportData | null;
+  /** The energy balance of a cooled or adiabatic bed; null when sized isothermally. */
+  thermal?: ThermalReportData | null;
+}
+
+/** The energy balance in a sizing report (temperatures in K, positions in m). */
+export interface ThermalReportData {
+  mode: string;
+  binding: string;
+  met: boolean;
+  hotSpot: { value: number; position: number; limit: number | null };
+  profile: { z: number[]; T: number[]; Ta: (number | null)[] };
+  hotSpotPercentiles?: { level: number; value: number }[];
+  hotSpotHistogram?: { start: number; end: number; count: number }[];
+  runaway?: { criterion: string; coolant: number[]; hotSpot: number[]; critical: number | null; design: number };
 }
 
 /** The plant pellet in a sizing report (lengths in mm, masses in kg, pressures in kPa). */

@@ -81,5 +81,21 @@ export function sizingReportData(r: SizingResult): SizingReportData {
     warnings: r.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.path ? { path: w.path } : {}) })),
     cautions: r.cautions,
     pellet: r.pellet ? pelletReportData(r.pellet, r.size?.value ?? null) : null,
+    thermal: thermalData(r),
+  };
+}
+
+/** The energy-balance part of the report, or null for an isothermal sizing. */
+function thermalData(r: SizingResult): SizingReportData['thermal'] {
+  const t = r.thermal;
+  if (!t) return null;
+  return {
+    mode: t.mode,
+    binding: t.design.binding,
+    met: t.design.met,
+    hotSpot: { value: t.hotSpot.temperature, position: t.hotSpot.position.length, limit: t.hotSpot.limit },
+    profile: { z: t.profile.z, T: t.profile.T, Ta: t.profile.Ta },
+    ...(t.draws ? { hotSpotPercentiles: t.draws.hotSpot.percentiles, hotSpotHistogram: t.draws.hotSpot.histogram } : {}),
+    ...(t.runaway ? { runaway: { criterion: t.runaway.criterion, coolant: t.runaway.scan.coolant, hotSpot: t.runaway.scan.hotSpot, critical: t.runaway.criticalCoolantTemperature, design: t.runaway.coolantTemperature } } : {}),
   };
 }

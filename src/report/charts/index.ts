@@ -8,6 +8,7 @@ import { likelihoodCharts } from './likelihood';
 import { parityCharts } from './parity';
 import { productionCharts } from './production';
 import { pelletCharts } from './pellets';
+import { thermalCharts } from './thermal';
 import { profileCharts } from './profiles';
 import { residualCharts } from './residuals';
 import { rivalCharts } from './rivals';
@@ -47,6 +48,7 @@ export interface SizingChartGroups {
   distribution: ChartSpec[];
   sensitivity: ChartSpec[];
   pellet: ChartSpec[];
+  thermal: ChartSpec[];
 }
 
 /** Build every sizing chart. */
@@ -56,5 +58,6 @@ export function sizingCharts(data: SizingReportData): SizingChartGroups {
     distribution: sizeDistributionCharts(data),
     sensitivity: sensitivityCharts(data),
     pellet: pelletCharts(data.pellet),
+    thermal: thermalCharts(data.thermal),
   };
 }
