@@ -1,8 +1,8 @@
 /**
  * Reader for NIST StRD nonlinear-regression .dat files (certified values parsed from the header).
- * The data live outside the repository, in ../shared/reference-data/nist-strd beside the clone.
+ * The data are committed in tests/reference/nist-strd/ (US-government public-domain data, see its README).
  */
-import { existsSync, readFileSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -17,17 +17,11 @@ export interface NistDataset {
   y: number[];
 }
 
-const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+const here = path.dirname(fileURLToPath(import.meta.url));
 
-/** Folder holding the .dat files; throws a clear message when it is missing. */
+/** Folder holding the .dat files (committed beside this reader). */
 export function nistFolder(): string {
-  const dir = path.resolve(repoRoot, '..', 'shared', 'reference-data', 'nist-strd');
-  if (!existsSync(dir)) {
-    throw new Error(
-      `NIST StRD reference data not found at ${dir}: place the shared/ folder (with reference-data/nist-strd/*.dat) beside the repository clone`,
-    );
-  }
-  return dir;
+  return path.join(here, 'nist-strd');
 }
 
 const num = (s: string): number => Number(s.replace(/E/i, 'e'));
