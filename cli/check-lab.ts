@@ -3,8 +3,8 @@
  * the internal standard (mol/s), conversion, selectivity, yield (%), element balance closure (%)
  * against its stated tolerance, and the warnings (runs outside are kept).
  */
-import type { LabData } from '../src/index';
-import { g, table } from './format';
+import { type LabData } from '../src/index.js';
+import { g, table } from './format.js';
 
 const pct = (x: number | undefined) => (x === undefined ? 'n/a' : `${g(100 * x, 4)} %`);
 

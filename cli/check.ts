@@ -6,17 +6,13 @@
  * (or any rejected row under --strict).
  */
 import type { Command } from 'commander';
-import { loadStudy } from '../src/study/load';
-import { summarizeStudy, type Range, type StudySummary } from '../src/study/summary';
-import { formatRejection } from '../src/data/validation';
-import type { ValidationReport } from '../src/data/report';
-import { readText } from './io';
-import { runCommand } from './run';
-import { studyLoadOptions } from './study-input';
-import { g } from './format';
-import { formatTransport } from './transport-text';
-import { checkLabTransport } from '../src/workflow/lab-transport';
-import { formatLabCheck } from './check-lab';
+import { loadStudy, summarizeStudy, type Range, type StudySummary, formatRejection, type ValidationReport, checkLabTransport } from '../src/index.js';
+import { readText } from './io.js';
+import { runCommand } from './run.js';
+import { studyLoadOptions } from './study-input.js';
+import { g } from './format.js';
+import { formatTransport } from './transport-text.js';
+import { formatLabCheck } from './check-lab.js';
 
 const EXAMPLE = `
 Example:

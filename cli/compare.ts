@@ -6,17 +6,14 @@
  * Exit 0 ranked with a trustworthy best fit, 1 the best-ranked fit is not trustworthy (its verdict), 2 bad input.
  */
 import type { Command } from 'commander';
-import { compareStudyParallel } from '../src/parallel/fit-parallel';
-import { AUTO_RULE_TEXT } from '../src/parallel/auto';
-import { WORKERS_OPTION, workersFlag } from './fit';
-import { fitReportData } from '../src/workflow/fit-report-data';
-import type { Comparison } from '../src/estimation/compare';
+import { compareStudyParallel, AUTO_RULE_TEXT, fitReportData, type Comparison } from '../src/index.js';
+import { WORKERS_OPTION, workersFlag } from './fit.js';
 import { join } from 'node:path';
-import { writeFitReport } from './report-render';
-import { assertWritable, checkStem } from './io';
-import { g, table } from './format';
-import { progressReporter, runCommand } from './run';
-import { readStudy, studyStem } from './study-input';
+import { writeFitReport } from './report-render.js';
+import { assertWritable, checkStem } from './io.js';
+import { g, table } from './format.js';
+import { progressReporter, runCommand } from './run.js';
+import { readStudy, studyStem } from './study-input.js';
 
 const EXAMPLE = `
 Example:

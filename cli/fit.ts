@@ -5,22 +5,16 @@
  * Exit code from the fit's verdict (src/estimation/verdict.ts): 0 trustworthy, 1 finished but not
  * to be trusted, 2 bad input.
  */
-import { formatTransport } from './transport-text';
+import { formatTransport } from './transport-text.js';
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { RateloomError } from '../src/core/errors';
-import { DEFAULT_VERDICT_RULES } from '../src/estimation/verdict';
-import { buildHandoff, type StudyFit } from '../src/workflow/fit-study';
-import { fitStudyParallel } from '../src/parallel/fit-parallel';
-import { AUTO_RULE_TEXT, type WorkersSetting } from '../src/parallel/auto';
-import { fitReportData } from '../src/workflow/fit-report-data';
-import type { Study } from '../src/study/types';
-import { renderFitFiles } from './report-render';
-import { assertWritable, checkStem, writeAll } from './io';
-import type { OutputFile } from './output';
-import { g, table } from './format';
-import { progressReporter, runCommand, toJson } from './run';
-import { readStudy, studyStem } from './study-input';
+import { RateloomError, DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study } from '../src/index.js';
+import { renderFitFiles } from './report-render.js';
+import { assertWritable, checkStem, writeAll } from './io.js';
+import type { OutputFile } from './output.js';
+import { g, table } from './format.js';
+import { progressReporter, runCommand, toJson } from './run.js';
+import { readStudy, studyStem } from './study-input.js';
 
 const EXAMPLE = `
 Example:

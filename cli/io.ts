@@ -4,10 +4,8 @@
  */
 import { closeSync, existsSync, openSync, readSync } from 'node:fs';
 import { relative, resolve } from 'node:path';
-import { RateloomError, isRateloomError } from '../src/core/errors';
-import { DEFAULT_MAX_INPUT_BYTES, decodeInput, nulError, sniffBom, tooLargeError } from '../src/data/decode';
-import { parseJsonText } from '../src/core/json-text';
-import { commitOutputs, type OutputFile } from './output';
+import { RateloomError, isRateloomError, DEFAULT_MAX_INPUT_BYTES, decodeInput, nulError, sniffBom, tooLargeError, parseJsonText } from '../src/index.js';
+import { commitOutputs, type OutputFile } from './output.js';
 
 /** The input size limit: RATELOOM_MAX_INPUT_MB (MiB) when set to a positive number, else the default. */
 export function maxInputBytes(): number {

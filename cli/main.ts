@@ -3,15 +3,15 @@
  * Commands only parse flags, read files, call the library and print.
  */
 import { Command } from 'commander';
-import { configureUsageErrors } from './run';
-import { setAllowDataOutside } from './study-input';
-import { registerFit } from './fit';
-import { registerCompare } from './compare';
-import { registerSize } from './size';
-import { registerCheck } from './check';
-import { registerSimulate } from './simulate';
-import { registerDemo } from './demo';
-import { registerPlan } from './plan';
+import { configureUsageErrors } from './run.js';
+import { setAllowDataOutside } from './study-input.js';
+import { registerFit } from './fit.js';
+import { registerCompare } from './compare.js';
+import { registerSize } from './size.js';
+import { registerCheck } from './check.js';
+import { registerSimulate } from './simulate.js';
+import { registerDemo } from './demo.js';
+import { registerPlan } from './plan.js';
 
 const program = new Command();
 program

@@ -12,7 +12,7 @@
  */
 import { closeSync, copyFileSync, constants, linkSync, mkdirSync, openSync, readFileSync, renameSync, unlinkSync, writeFileSync, writeSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
-import { RateloomError } from '../src/core/errors';
+import { RateloomError } from '../src/index.js';
 
 /** One output file. */
 export interface OutputFile {

@@ -1,8 +1,8 @@
 /**
  * Plain-text lines of the plant pellet part of a sizing (size command).
  */
-import type { PelletSizing } from '../src/design/pellet-sizing';
-import { g } from './format';
+import { type PelletSizing } from '../src/index.js';
+import { g } from './format.js';
 
 export function formatPelletSizing(p: PelletSizing, size: number | undefined): string[] {
   const L: string[] = [];

@@ -8,17 +8,12 @@
  */
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { RateloomError } from '../src/core/errors';
-import { fitStudy, studyVariants } from '../src/workflow/fit-study';
-import { parseLimits } from '../src/planning/limits';
-import { planRuns, type PlanOptions } from '../src/planning/plan';
-import type { PlanResult } from '../src/planning/types';
-import type { CriterionKind } from '../src/planning/criteria';
-import { assertWritable, readJson, writeAtomic } from './io';
-import { runCommand } from './run';
-import { readStudy, studyStem } from './study-input';
-import { numberFlag } from './fit';
-import { g, table, withUnit } from './format';
+import { RateloomError, fitStudy, studyVariants, parseLimits, planRuns, type PlanOptions, type PlanResult, type CriterionKind } from '../src/index.js';
+import { assertWritable, readJson, writeAtomic } from './io.js';
+import { runCommand } from './run.js';
+import { readStudy, studyStem } from './study-input.js';
+import { numberFlag } from './fit.js';
+import { g, table, withUnit } from './format.js';
 
 const EXAMPLE = `
 Example:

@@ -4,10 +4,9 @@
  * --force). Returns the paths written and the drawing warnings for the command's output.
  */
 import { join } from 'node:path';
-import type { renderFitReport } from '../src/report';
-import type { FitReportData, ReportWarning, SizingReportData } from '../src/report/types';
-import { writeAll } from './io';
-import type { OutputFile } from './output';
+import { renderFitReport, renderSizingReport, type FitReportData, type ReportWarning, type SizingReportData } from '../src/index.js';
+import { writeAll } from './io.js';
+import type { OutputFile } from './output.js';
 
 export interface ReportWriteOptions {
   /** Folder for the files; default 'reports'. */
@@ -50,15 +49,13 @@ function filesOf(rendered: Awaited<ReturnType<typeof renderFitReport>>, defaultB
 
 /** Render a fit report into files (HTML, Markdown, optional SVGs) without writing them. */
 export async function renderFitFiles(data: FitReportData, opts: ReportWriteOptions = {}): Promise<RenderedReportFiles> {
-  // Loaded on first use: the chart libraries take about a second to load, which every other path
-  // of a command (errors, --help, --no-report) should not pay.
-  const { renderFitReport } = await import('../src/report');
+  // renderFitReport loads the chart libraries on first use (src/report/lazy.ts): every other path
+  // of a command (errors, --help, --no-report) does not pay for them.
   return filesOf(await renderFitReport(data), 'fit-report', opts);
 }
 
 /** Render a sizing report into files without writing them. */
 export async function renderSizingFiles(data: SizingReportData, opts: ReportWriteOptions = {}): Promise<RenderedReportFiles> {
-  const { renderSizingReport } = await import('../src/report');
   return filesOf(await renderSizingReport(data), 'sizing-report', opts);
 }
 

@@ -3,8 +3,8 @@
  * command. Exit codes: 0 success, 1 ran but the result is not trustworthy, 2 bad input or usage.
  */
 import type { Command, CommanderError } from 'commander';
-import { ERROR_CODES, isRateloomError } from '../src/core/errors';
-import { written } from './io';
+import { ERROR_CODES, isRateloomError } from '../src/index.js';
+import { written } from './io.js';
 
 export const EXIT_OK = 0;
 export const EXIT_UNTRUSTWORTHY = 1;

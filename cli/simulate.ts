@@ -5,12 +5,11 @@
  * Exit 0 all runs solved, 1 some run failed numerically, 2 bad input.
  */
 import type { Command } from 'commander';
-import { loadStudy } from '../src/study/load';
-import { applyParameterValues, simulateStudy, type SimulationResult } from '../src/study/simulate';
-import { readJson, readText } from './io';
-import { runCommand } from './run';
-import { studyLoadOptions } from './study-input';
-import { g } from './format';
+import { loadStudy, applyParameterValues, simulateStudy, type SimulationResult } from '../src/index.js';
+import { readJson, readText } from './io.js';
+import { runCommand } from './run.js';
+import { studyLoadOptions } from './study-input.js';
+import { g } from './format.js';
 
 const EXAMPLE = `
 Example:

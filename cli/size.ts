@@ -4,23 +4,16 @@
  * warnings and always the cautions. Exit 0 sized from a trustworthy hand-off, 1 unreachable or
  * untrustworthy (the result's verdict), 2 bad input (a hand-off refused by its verdict included).
  */
-import { formatPelletSizing } from './pellet-text';
+import { formatPelletSizing } from './pellet-text.js';
 import type { Command } from 'commander';
-import { RateloomError } from '../src/core/errors';
-import { parseHandoff } from '../src/design/handoff-load';
-import { kineticsFromHandoff } from '../src/design/kinetics';
-import { loadCase } from '../src/design/case';
-import type { SizingResult } from '../src/design/size';
-import { sizeReactorParallel } from '../src/parallel/size-parallel';
-import { AUTO_RULE_TEXT } from '../src/parallel/auto';
-import { WORKERS_OPTION, workersFlag } from './fit';
-import { assertWritable, readJson, writeAll } from './io';
-import type { OutputFile } from './output';
+import { RateloomError, parseHandoff, kineticsFromHandoff, loadCase, type SizingResult, sizeReactorParallel, AUTO_RULE_TEXT, sizingReportData } from '../src/index.js';
+import { WORKERS_OPTION, workersFlag } from './fit.js';
+import { assertWritable, readJson, writeAll } from './io.js';
+import type { OutputFile } from './output.js';
 import { basename, join } from 'node:path';
-import { sizingReportData } from '../src/workflow/sizing-report-data';
-import { renderSizingFiles } from './report-render';
-import { progressReporter, runCommand, toJson } from './run';
-import { g, withUnit } from './format';
+import { renderSizingFiles } from './report-render.js';
+import { progressReporter, runCommand, toJson } from './run.js';
+import { g, withUnit } from './format.js';
 
 const EXAMPLE = `
 Example:

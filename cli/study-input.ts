@@ -3,9 +3,8 @@
  * file I/O: it is handed a reader).
  */
 import { basename } from 'node:path';
-import { loadStudy, type LoadOptions } from '../src/study/load';
-import type { LoadedStudy } from '../src/study/types';
-import { readText } from './io';
+import { loadStudy, type LoadOptions, type LoadedStudy } from '../src/index.js';
+import { readText } from './io.js';
 
 /** Set by the global --allow-data-outside flag: accept data files outside the study's folder. */
 let allowDataOutside = false;

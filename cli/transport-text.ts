@@ -1,8 +1,8 @@
 /**
  * Plain-text table of the transport diagnostics of the lab runs (check and fit commands).
  */
-import type { LabTransport } from '../src/workflow/lab-transport';
-import { g } from './format';
+import { type LabTransport } from '../src/index.js';
+import { g } from './format.js';
 
 const cell = (x: number | null, digits = 3): string => (x === null ? 'n/a' : g(x, digits));
 

@@ -3,7 +3,7 @@
  * ('0.5 O2'). A small tokenizer and a two-sided term list; a species repeated on one side has its
  * coefficients summed. Errors name the 1-based column of the offending token.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 
 /** One species with its (positive) stoichiometric coefficient on one side of an equation. */
 export interface EquationTerm {

@@ -3,8 +3,8 @@
  * element symbols (checked against the IUPAC table in elements.ts), counts, and nested groups in
  * round or square brackets. The molar mass is the count-weighted sum of standard atomic weights.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import { ATOMIC_WEIGHTS } from './elements';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { ATOMIC_WEIGHTS } from './elements.js';
 
 /** A parsed formula. */
 export interface Formula {

@@ -3,10 +3,10 @@
  * Element conservation is checked per reaction (sum over species of nu_ij * a_ej = 0 for every
  * element e) whenever every species of the reaction has a formula.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import type { ReactionSpec, SpeciesSpec } from './spec';
-import { parseFormula } from './formula';
-import { formatEquation, parseEquation } from './equation';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import type { ReactionSpec, SpeciesSpec } from './spec.js';
+import { parseFormula } from './formula.js';
+import { formatEquation, parseEquation } from './equation.js';
 
 /** Validated chemistry. Matrices are row-major Float64Arrays. */
 export interface Chemistry {

@@ -19,5 +19,5 @@ export interface ReactionSpec {
   /** Equation such as 'A + 2 B <=> C' (reversible) or 'A -> B' (irreversible). */
   equation: string;
   /** The rate law of this reaction (see kinetics/spec.ts). */
-  rate: import('../kinetics/spec').RateLawSpec;
+  rate: import('../kinetics/spec.js').RateLawSpec;
 }

@@ -7,7 +7,7 @@
  * keeps the location independent of the wording of the engine's message (which, depending on the
  * Node version, may or may not carry a position).
  */
-import { RateloomError } from './errors';
+import { RateloomError } from './errors.js';
 
 /** A JSON syntax problem: 0-based offset into the text (BOM removed), 1-based line and column. */
 export interface JsonSyntaxProblem {

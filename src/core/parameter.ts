@@ -3,7 +3,7 @@
  * works in the transformed space (log for positive quantities by default); these helpers map
  * between the two. Functions here return new objects and never mutate their inputs.
  */
-import { RateloomError } from './errors';
+import { RateloomError } from './errors.js';
 
 /** How the estimator sees a parameter: as is, or as its natural logarithm (value must be > 0). */
 export type Transform = 'none' | 'log';

@@ -10,8 +10,8 @@
  * lines and line numbers); anything else goes through csv-parse.
  */
 import { parse } from 'csv-parse/sync';
-import { RateloomError, closestName } from '../core/errors';
-import { MAX_RECORD_CHARS, detectDelimiter, type CsvDelimiter } from './dialect';
+import { RateloomError, closestName } from '../core/errors.js';
+import { MAX_RECORD_CHARS, detectDelimiter, type CsvDelimiter } from './dialect.js';
 
 export interface CsvRow {
   /** 1-based line in the file where the record starts. */

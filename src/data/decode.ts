@@ -6,7 +6,7 @@
  * the degree and micro signs of spreadsheet exports). A NUL byte outside UTF-16 text means the
  * file is binary: it is refused at once, as is a file above the size limit.
  */
-import { RateloomError } from '../core/errors';
+import { RateloomError } from '../core/errors.js';
 
 /** Encodings rateloom detects, by their WHATWG Encoding Standard names. */
 export type InputEncoding = 'UTF-8' | 'UTF-16LE' | 'UTF-16BE' | 'windows-1252';

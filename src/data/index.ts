@@ -1,7 +1,7 @@
 /** Lab data import: CSV reading, column mapping and validation. */
-export * from './csv';
-export * from './spec';
-export * from './report';
-export * from './mapping';
-export * from './validation';
-export * from './decode';
+export * from './csv.js';
+export * from './spec.js';
+export * from './report.js';
+export * from './mapping.js';
+export * from './validation.js';
+export * from './decode.js';

@@ -7,16 +7,16 @@
  * Ideal gas for fractions with a volumetric flow: F_T0 = P0 v0 / (R T0), R = 8.314 462 618 J/(mol K)
  * (exact since the 2019 SI redefinition, SI Brochure 9th ed.).
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import type { Phase, ReactorKind } from '../reactors/types';
-import { unitFor, type Quantity, type UnitConversion } from '../units';
-import { columnIndex, type CsvRow, type CsvTable } from './csv';
-import { decimalCommaToPoint } from './dialect';
-import { PHYSICAL_RANGES, outsideRange, type PhysicalRange } from './ranges';
-import type { Rejection } from './report';
-import type { FieldSpec, LongSourceSpec, MeasureSpec, MeasuredSpec, PerRunColumns, PerRunSourceSpec, ResponseKind } from './spec';
-import type { RunParameterRef } from './run-parameters';
-import { prepareBalanceRates, prepareRateComposition, readBalanceRate, readRateComposition, type MappingTools, type PreparedBalanceRate, type PreparedComposition } from './rate-composition';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import type { Phase, ReactorKind } from '../reactors/types.js';
+import { unitFor, type Quantity, type UnitConversion } from '../units/index.js';
+import { columnIndex, type CsvRow, type CsvTable } from './csv.js';
+import { decimalCommaToPoint } from './dialect.js';
+import { PHYSICAL_RANGES, outsideRange, type PhysicalRange } from './ranges.js';
+import type { Rejection } from './report.js';
+import type { FieldSpec, LongSourceSpec, MeasureSpec, MeasuredSpec, PerRunColumns, PerRunSourceSpec, ResponseKind } from './spec.js';
+import type { RunParameterRef } from './run-parameters.js';
+import { prepareBalanceRates, prepareRateComposition, readBalanceRate, readRateComposition, type MappingTools, type PreparedBalanceRate, type PreparedComposition } from './rate-composition.js';
 
 /** Molar gas constant, J/(mol K): exact (SI Brochure 9th ed., k_B N_A). */
 export const GAS_CONSTANT = 8.314462618;

@@ -3,7 +3,7 @@
  * reason), the rules applied, replicate groups and the pure-error estimates. Invariant, per source
  * and in total: rowsIn = rowsUsed + rowsRejected.
  */
-import type { ResponseKind } from './spec';
+import type { ResponseKind } from './spec.js';
 
 export type RejectionReason =
   | 'non-numeric'

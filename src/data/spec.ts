@@ -3,7 +3,7 @@
  * column mapping. Every number carries its unit; see schema/study.schema.json for descriptions.
  */
 
-import type { BalanceRateSpec, RateCompositionSpec } from './rate-composition';
+import type { BalanceRateSpec, RateCompositionSpec } from './rate-composition.js';
 
 /** A value and its unit, for example { value: 250, unit: 'degC' }. */
 export interface MeasureSpec {

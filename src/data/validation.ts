@@ -6,9 +6,9 @@
  * (the pure-error sum of squares of the lack-of-fit test; common practice in regression analysis).
  * A Ledger counts rows per source so that rowsIn = rowsUsed + rowsRejected always holds.
  */
-import { RateloomError } from '../core/errors';
-import type { MappedObservation, MappedRun, RowLocation } from './mapping';
-import { describeRules, type CheckSettings, type PureError, type Rejection, type ReplicateGroup, type SourceSummary, type ValidationReport } from './report';
+import { RateloomError } from '../core/errors.js';
+import type { MappedObservation, MappedRun, RowLocation } from './mapping.js';
+import { describeRules, type CheckSettings, type PureError, type Rejection, type ReplicateGroup, type SourceSummary, type ValidationReport } from './report.js';
 
 /** Row bookkeeping for every source of a study. */
 export class Ledger {

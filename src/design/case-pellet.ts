@@ -6,8 +6,8 @@
  *               "tortuosity": 3.5, "molecularDiffusivity": { "estimate": "fuller", "carrier": "N2" },
  *               "density": "1400 kg/m3", "method": "numerical", "tradeOff": ["3 mm", "5 mm", "8 mm"] }
  */
-import { RateloomError, type FieldPath } from '../core/errors';
-import { loadPellet, pelletQuantity, type LoadedPellet } from '../pellets/load';
+import { RateloomError, type FieldPath } from '../core/errors.js';
+import { loadPellet, pelletQuantity, type LoadedPellet } from '../pellets/load.js';
 
 export interface CasePellet extends LoadedPellet {
   /** 'numerical' (pellet solved by collocation along the bed; default) or 'generalized' (Bischoff's modulus). */

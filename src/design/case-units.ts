@@ -5,8 +5,8 @@
  * dimensions, so a pressure field cannot be given in metres); two kinds src/units does not list
  * (temperature difference, molar heat capacity) use a small local table.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import { acceptedUnits, toSI, type Quantity } from '../units';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { acceptedUnits, toSI, type Quantity } from '../units/index.js';
 
 export type QuantityKind =
   | 'molarFlow'

@@ -23,11 +23,11 @@
  * (the catalyst to install) keeps the pressure drop within tubes.allowedPressureDrop, so only the
  * parameter sets beyond the percentile may need more.
  */
-import { loadCasePellet, type CasePellet } from './case-pellet';
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import { quantityToSI, type QuantityKind } from './case-units';
-import { cpAt } from '../reactors/thermal/heat-capacity';
-import { loadThermalCase, THERMAL_FIELDS, type ThermalCase } from './heat-case';
+import { loadCasePellet, type CasePellet } from './case-pellet.js';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { quantityToSI, type QuantityKind } from './case-units.js';
+import { cpAt } from '../reactors/thermal/heat-capacity.js';
+import { loadThermalCase, THERMAL_FIELDS, type ThermalCase } from './heat-case.js';
 
 export type DesignReactorKind = 'packed-bed' | 'plug-flow' | 'stirred-tank' | 'batch';
 

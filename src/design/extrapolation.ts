@@ -3,10 +3,10 @@
  * target conversion compared with the ranges the fitted data covered (hand-off `coverage`).
  * Outside a range -> a warning naming the quantity, its value, the range, the unit and by how much.
  */
-import type { Warning } from '../core/outcome';
-import type { FittedKinetics, Range } from './handoff';
-import type { DesignCase } from './case';
-import { fmt } from './sizer';
+import type { Warning } from '../core/outcome.js';
+import type { FittedKinetics, Range } from './handoff.js';
+import type { DesignCase } from './case.js';
+import { fmt } from './sizer.js';
 
 function check(what: string, value: number, r: Range, path: (string | number)[], scale = 1, unit = r.unit): Warning | undefined {
   const lo = r.min * scale;

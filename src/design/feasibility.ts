@@ -11,11 +11,11 @@
  * Several reactions: the mole balances are integrated to very large sizes (1e4 and 1e5 times the
  * initial-rate estimate, no pressure drop) and the plateau conversion is taken.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import type { DesignCase } from './case';
-import { buildSystem } from './system';
-import { Sizer } from './sizer';
-import { brentRoot } from './march';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import type { DesignCase } from './case.js';
+import { buildSystem } from './system.js';
+import { Sizer } from './sizer.js';
+import { brentRoot } from './march.js';
 
 export interface EquilibriumLimit {
   /** Key species whose conversion is limited. */

@@ -3,9 +3,9 @@
  * the map between the hand-off's free parameters (estimation space, with covariance) and the
  * physical parameter vector of the compiled kinetics.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import { toExternal, type Transform } from '../core/parameter';
-import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics, type HandoffParameter } from './handoff';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { toExternal, type Transform } from '../core/parameter.js';
+import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics, type HandoffParameter } from './handoff.js';
 
 type Obj = Record<string, unknown>;
 const isObj = (v: unknown): v is Obj => !!v && typeof v === 'object' && !Array.isArray(v);

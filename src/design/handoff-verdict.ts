@@ -9,10 +9,10 @@
  * Monte Carlo is skipped and a warning says so, so a percentile never silently equals the nominal
  * size.
  */
-import { RateloomError } from '../core/errors';
-import { verdictFrom, type Verdict, type VerdictReason } from '../core/verdict';
-import type { FittedKinetics } from './handoff';
-import { handoffHash } from './handoff-hash';
+import { RateloomError } from '../core/errors.js';
+import { verdictFrom, type Verdict, type VerdictReason } from '../core/verdict.js';
+import type { FittedKinetics } from './handoff.js';
+import { handoffHash } from './handoff-hash.js';
 
 export type HandoffVerdictStatus = 'trustworthy' | 'hash-mismatch' | 'fit-untrustworthy' | 'covariance-singular';
 export type HandoffVerdict = Verdict<HandoffVerdictStatus>;

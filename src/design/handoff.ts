@@ -2,9 +2,9 @@
  * The fitted-kinetics hand-off: everything a designer needs to reproduce the fitted model's
  * predictions, written by `rateloom fit` and read by `rateloom size`. Plain JSON, SI units.
  */
-import type { SpeciesSpec, ReactionSpec } from '../chemistry/spec';
-import type { ReactorSpec } from '../reactors/types';
-import type { Transform } from '../core/parameter';
+import type { SpeciesSpec, ReactionSpec } from '../chemistry/spec.js';
+import type { ReactorSpec } from '../reactors/types.js';
+import type { Transform } from '../core/parameter.js';
 
 export const HANDOFF_FORMAT = 'rateloom.fitted-kinetics';
 /** Version 2 added the verdict, the covariance status and the content hash. */

@@ -14,10 +14,10 @@
  *             "coolant": { "temperature": "215 degC", "flow": "40 kg/s", "heatCapacity": "2.3 kJ/(kg K)" },
  *             "maxTemperature": "260 degC", "maxTubeLength": "12 m" }
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import type { HeatCapacity } from '../reactors/thermal/heat-capacity';
-import type { CoolingMode } from '../reactors/thermal/layout';
-import { quantityToSI } from './case-units';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import type { HeatCapacity } from '../reactors/thermal/heat-capacity.js';
+import type { CoolingMode } from '../reactors/thermal/layout.js';
+import { quantityToSI } from './case-units.js';
 
 /** Longest tube proposed when the case does not say, m (a common practical limit for fixed-bed tubes). */
 export const DEFAULT_MAX_TUBE_LENGTH = 12;

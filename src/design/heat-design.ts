@@ -7,21 +7,21 @@
  * installed tube rated over the draws (thermal-uncertainty.ts). A design whose hot spot at the
  * design percentile exceeds heat.maxTemperature does not meet it (status 'hot-spot-exceeded').
  */
-import { outcome, type Warning } from '../core/outcome';
-import type { ShootingReport } from '../reactors/thermal/counter-current';
-import { ThermalTube } from '../reactors/thermal/thermal-tube';
-import type { CoolingMode } from '../reactors/thermal/layout';
-import type { ParameterMap } from './handoff-load';
-import type { ThermalCase } from './heat-case';
-import { chooseTubes, HeatSizer, type Binding, type HeatDesignChoice, type TubeTrial } from './heat-size';
-import { runawayMargin, type RunawayMargin } from './runaway';
-import { Sizer } from './sizer';
-import type { DesignSystem } from './system';
-import { resolveEnthalpies, type EnthalpySource } from './thermal-design';
-import { thermalDraws, type ThermalDraws } from './thermal-uncertainty';
-import { propagate, type Percentile, type UncertaintyResult } from './uncertainty';
-import type { WallCoefficient } from './wall-coefficient';
-import { SIZING_STATUS, type SizingInput, type SizingResult } from './size';
+import { outcome, type Warning } from '../core/outcome.js';
+import type { ShootingReport } from '../reactors/thermal/counter-current.js';
+import { ThermalTube } from '../reactors/thermal/thermal-tube.js';
+import type { CoolingMode } from '../reactors/thermal/layout.js';
+import type { ParameterMap } from './handoff-load.js';
+import type { ThermalCase } from './heat-case.js';
+import { chooseTubes, HeatSizer, type Binding, type HeatDesignChoice, type TubeTrial } from './heat-size.js';
+import { runawayMargin, type RunawayMargin } from './runaway.js';
+import { Sizer } from './sizer.js';
+import type { DesignSystem } from './system.js';
+import { resolveEnthalpies, type EnthalpySource } from './thermal-design.js';
+import { thermalDraws, type ThermalDraws } from './thermal-uncertainty.js';
+import { propagate, type Percentile, type UncertaintyResult } from './uncertainty.js';
+import type { WallCoefficient } from './wall-coefficient.js';
+import { SIZING_STATUS, type SizingInput, type SizingResult } from './size.js';
 
 /** The energy-balance part of a sizing result. */
 export interface ThermalSizing {

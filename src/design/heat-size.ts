@@ -13,14 +13,14 @@
  * coolant temperature, not on N: when it exceeds the limit the design is reported as not meeting
  * it, or, with heat.searchDiameters, the widest listed diameter that meets every limit is chosen.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import { brent } from '../numerics/roots';
-import type { ShootingReport } from '../reactors/thermal/counter-current';
-import { ThermalTube, type ThermalTubeSolution } from '../reactors/thermal/thermal-tube';
-import type { ThermalCase } from './heat-case';
-import type { DesignSystem } from './system';
-import { tubeThermalSpec, type TubeThermal } from './thermal-design';
-import { MAX_TUBES } from './tubes';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import { brent } from '../numerics/roots.js';
+import type { ShootingReport } from '../reactors/thermal/counter-current.js';
+import { ThermalTube, type ThermalTubeSolution } from '../reactors/thermal/thermal-tube.js';
+import type { ThermalCase } from './heat-case.js';
+import type { DesignSystem } from './system.js';
+import { tubeThermalSpec, type TubeThermal } from './thermal-design.js';
+import { MAX_TUBES } from './tubes.js';
 
 export type Binding = 'hot spot' | 'pressure drop' | 'tube length' | 'target conversion';
 

@@ -7,9 +7,9 @@
  * dT_ad = (-dH) X y_A0 / cp_mix. The heat to remove for isothermal operation is
  * Q = sum_i (-dH_i) xi_i (W). Batch: extents per m3 and C_T0 in place of flows.
  */
-import type { Warning } from '../core/outcome';
-import type { DesignSystem } from './system';
-import { solveDense, fmt } from './sizer';
+import type { Warning } from '../core/outcome.js';
+import type { DesignSystem } from './system.js';
+import { solveDense, fmt } from './sizer.js';
 
 export interface HeatCheck {
   /** Adiabatic temperature rise, K. */

@@ -3,10 +3,10 @@
  * masses, reversibility), the compiled kinetics (parameters in the hand-off order) and the molar
  * masses per species (undefined entries when neither molarMass nor formula was given).
  */
-import { buildChemistry, type Chemistry } from '../chemistry/mechanism';
-import { compileKinetics } from '../kinetics/compile';
-import type { CompiledKinetics } from '../kinetics/compiled';
-import type { FittedKinetics } from './handoff';
+import { buildChemistry, type Chemistry } from '../chemistry/mechanism.js';
+import { compileKinetics } from '../kinetics/compile.js';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import type { FittedKinetics } from './handoff.js';
 
 export interface DesignKinetics {
   chemistry: Chemistry;

@@ -10,9 +10,9 @@
  * non-stiff method only (a stiff draw runs into the step budget and reports 'max-steps').
  * brentRoot, the scalar root finder the design module imports from here, runs numerics/roots.ts.
  */
-import type { OdeOptions, OdeResult, OdeRhs } from '../numerics/ode-types';
-import { OdeWorkspace, badInputResult } from '../numerics/integrate';
-import { brent } from '../numerics/roots';
+import type { OdeOptions, OdeResult, OdeRhs } from '../numerics/ode-types.js';
+import { OdeWorkspace, badInputResult } from '../numerics/integrate.js';
+import { brent } from '../numerics/roots.js';
 
 /** A Dormand-Prince integrator bound to one state dimension; reuse it for many solves. */
 export class Marcher {

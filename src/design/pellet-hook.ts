@@ -8,20 +8,20 @@
  * spread of the size leaves out how eta itself moves with the parameters); it is rebuilt when the
  * pressure-drop parameter changes (another tube count).
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import type { SpeciesSpec } from '../chemistry/spec';
-import { RateloomError } from '../core/errors';
-import { EffectivenessEvaluator, type PelletModel } from '../pellets/effectiveness';
-import { EtaTable } from '../pellets/eta-table';
-import { effectiveDiffusivities } from '../pellets/diffusivity';
-import { pelletGeometry } from '../pellets/geometry';
-import type { PelletSpec } from '../pellets/types';
-import type { DesignCase } from './case';
-import type { CasePellet } from './case-pellet';
-import { buildSystem, type DesignSystem, type RateHook } from './system';
-import { Sizer } from './sizer';
-import { Marcher } from './march';
-import type { OdeEvent } from '../numerics/ode-types';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import type { SpeciesSpec } from '../chemistry/spec.js';
+import { RateloomError } from '../core/errors.js';
+import { EffectivenessEvaluator, type PelletModel } from '../pellets/effectiveness.js';
+import { EtaTable } from '../pellets/eta-table.js';
+import { effectiveDiffusivities } from '../pellets/diffusivity.js';
+import { pelletGeometry } from '../pellets/geometry.js';
+import type { PelletSpec } from '../pellets/types.js';
+import type { DesignCase } from './case.js';
+import type { CasePellet } from './case-pellet.js';
+import { buildSystem, type DesignSystem, type RateHook } from './system.js';
+import { Sizer } from './sizer.js';
+import { Marcher } from './march.js';
+import type { OdeEvent } from '../numerics/ode-types.js';
 
 /** The pellet scaled to another diameter (all lengths in proportion). */
 export function scaledPellet(p: PelletSpec, diameter: number): PelletSpec {

@@ -9,21 +9,21 @@
  * and sizes the bed for each diameter with the pellet, and the particle diameter of the Ergun
  * equation, scaled in proportion, and with tubes the Ergun parameter of that particle size (S. Ergun, Chem. Eng. Prog. 48 (1952) 89-94).
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import type { SpeciesSpec } from '../chemistry/spec';
-import type { Warning } from '../core/outcome';
-import { RateloomError } from '../core/errors';
-import { pelletGeometry } from '../pellets/geometry';
-import { EffectivenessEvaluator } from '../pellets/effectiveness';
-import { molecularDiffusivities } from '../pellets/diffusivity';
-import { HEAT_TRANSFER, MASS_TRANSFER, heatTransfer, massTransfer, rangeWarning, type BedFlow } from '../pellets/external';
-import type { DesignCase } from './case';
-import type { CasePellet } from './case-pellet';
-import { buildSystem, GAS_CONSTANT, type DesignSystem } from './system';
-import { Sizer } from './sizer';
-import { Marcher } from './march';
-import { bundleAlpha } from './tubes';
-import { casePelletModel, keySpecies, PelletRateHook, scaledPellet } from './pellet-hook';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import type { SpeciesSpec } from '../chemistry/spec.js';
+import type { Warning } from '../core/outcome.js';
+import { RateloomError } from '../core/errors.js';
+import { pelletGeometry } from '../pellets/geometry.js';
+import { EffectivenessEvaluator } from '../pellets/effectiveness.js';
+import { molecularDiffusivities } from '../pellets/diffusivity.js';
+import { HEAT_TRANSFER, MASS_TRANSFER, heatTransfer, massTransfer, rangeWarning, type BedFlow } from '../pellets/external.js';
+import type { DesignCase } from './case.js';
+import type { CasePellet } from './case-pellet.js';
+import { buildSystem, GAS_CONSTANT, type DesignSystem } from './system.js';
+import { Sizer } from './sizer.js';
+import { Marcher } from './march.js';
+import { bundleAlpha } from './tubes.js';
+import { casePelletModel, keySpecies, PelletRateHook, scaledPellet } from './pellet-hook.js';
 
 /** One row of the pellet trade-off. */
 export interface TradeOffRow {

@@ -3,10 +3,10 @@
  * with polar normals) lives in numerics/random.ts and is re-exported here; this file keeps the
  * Cholesky factor used to draw correlated parameters.
  */
-export { SeededRandom } from '../numerics/random';
+export { SeededRandom } from '../numerics/random.js';
 
 /** The normal quantile of the estimation layer (tested against SciPy there), re-exported for sizing. */
-export { normalQuantile } from '../estimation/distributions';
+export { normalQuantile } from '../estimation/distributions.js';
 
 /**
  * Cholesky factor L (lower, row-major n x n) of a symmetric positive semi-definite matrix. Returns

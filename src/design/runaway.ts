@@ -13,9 +13,9 @@
  * inlet temperature at the design point, (T0/T_hs) dT_hs/dT0, is reported beside it.
  * A march that passes the runaway cap counts with T_hs = the cap.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import { ThermalTube } from '../reactors/thermal/thermal-tube';
-import type { ThermalTubeSpec } from '../reactors/thermal/tube-balances';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import { ThermalTube } from '../reactors/thermal/thermal-tube.js';
+import type { ThermalTubeSpec } from '../reactors/thermal/tube-balances.js';
 
 export interface RunawayMargin {
   criterion: string;

@@ -6,10 +6,10 @@
  * covariance no Monte Carlo runs and the result has no uncertainty block, with a warning, so no
  * percentile ever silently equals the nominal size.
  */
-import type { Warning } from '../core/outcome';
-import { verdictFrom, type Verdict, type VerdictReason } from '../core/verdict';
-import { assertSizable, handoffCautions, handoffVerdict, type HandoffVerdict } from './handoff-verdict';
-import type { SizingInput, SizingResult } from './size';
+import type { Warning } from '../core/outcome.js';
+import { verdictFrom, type Verdict, type VerdictReason } from '../core/verdict.js';
+import { assertSizable, handoffCautions, handoffVerdict, type HandoffVerdict } from './handoff-verdict.js';
+import type { SizingInput, SizingResult } from './size.js';
 
 export type SizingVerdictStatus = 'trustworthy' | 'sizing-failed' | 'hash-mismatch' | 'fit-untrustworthy' | 'covariance-singular';
 export type SizingVerdict = Verdict<SizingVerdictStatus>;

@@ -6,25 +6,25 @@
  * (Monte Carlo and delta method), compares the case with the data coverage, checks the isothermal
  * assumption, and attaches the cautions. Numerical trouble is a status, never a throw.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import { outcome, type Outcome, type StatusTable, type Warning } from '../core/outcome';
-import type { FittedKinetics } from './handoff';
-import type { DesignCase } from './case';
-import { buildSystem, GAS_CONSTANT, type DesignSystem } from './system';
-import { Sizer, fmt, type SizeOnce } from './sizer';
-import { equilibriumConversion, type EquilibriumLimit } from './feasibility';
-import { designTubes, type TubeDesign } from './tubes';
-import { designTubesForPercentileSteps, type PercentileTubeResult, type TubePass } from './tube-percentile';
-import { DEFAULT_DESIGN_LEVEL } from './case';
-import { parameterMap } from './handoff-load';
-import { propagate, type UncertaintyResult } from './uncertainty';
-import { extrapolationWarnings } from './extrapolation';
-import { heatCheck, type HeatCheck } from './heat';
-import { cautions } from './cautions';
-import { PELLET_CAUTIONS, pelletSizing, systemWithPellet, type PelletSizing } from './pellet-sizing';
-import { sizeCooledBed, type ThermalSizing } from './heat-design';
-import type { HandoffVerdict } from './handoff-verdict';
-import { finishGated, gateSizing, type SizingVerdict } from './size-gate';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import { outcome, type Outcome, type StatusTable, type Warning } from '../core/outcome.js';
+import type { FittedKinetics } from './handoff.js';
+import type { DesignCase } from './case.js';
+import { buildSystem, GAS_CONSTANT, type DesignSystem } from './system.js';
+import { Sizer, fmt, type SizeOnce } from './sizer.js';
+import { equilibriumConversion, type EquilibriumLimit } from './feasibility.js';
+import { designTubes, type TubeDesign } from './tubes.js';
+import { designTubesForPercentileSteps, type PercentileTubeResult, type TubePass } from './tube-percentile.js';
+import { DEFAULT_DESIGN_LEVEL } from './case.js';
+import { parameterMap } from './handoff-load.js';
+import { propagate, type UncertaintyResult } from './uncertainty.js';
+import { extrapolationWarnings } from './extrapolation.js';
+import { heatCheck, type HeatCheck } from './heat.js';
+import { cautions } from './cautions.js';
+import { PELLET_CAUTIONS, pelletSizing, systemWithPellet, type PelletSizing } from './pellet-sizing.js';
+import { sizeCooledBed, type ThermalSizing } from './heat-design.js';
+import type { HandoffVerdict } from './handoff-verdict.js';
+import { finishGated, gateSizing, type SizingVerdict } from './size-gate.js';
 
 /** A sizing result before the hand-off gate adds its verdict (size-gate.ts). */
 type UngatedResult = Omit<SizingResult, 'kinetics' | 'verdict'>;

@@ -10,9 +10,9 @@
  * extents xi (F = F0 + nu^T xi, xi = S r(F)); for the target the extents are solved together with
  * the size S by Newton's method with a finite-difference Jacobian and step halving.
  */
-import type { DesignSystem } from './system';
-import { Marcher } from './march';
-import type { OdeEvent } from '../numerics/ode-types';
+import type { DesignSystem } from './system.js';
+import { Marcher } from './march.js';
+import type { OdeEvent } from '../numerics/ode-types.js';
 
 export type SizeOnceStatus = 'sized' | 'target-unreachable' | 'pressure-exhausted' | 'integration-failed';
 

@@ -13,9 +13,9 @@
  * u = p^2, du/dW = -alpha F_T/F_T0, which is smooth up to the point where the pressure runs out
  * (u = 0), so that point is located exactly as an event.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import type { DesignCase } from './case';
-import { RateloomError } from '../core/errors';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import type { DesignCase } from './case.js';
+import { RateloomError } from '../core/errors.js';
 
 export const GAS_CONSTANT = 8.314462618;
 

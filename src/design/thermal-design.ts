@@ -10,19 +10,19 @@
  * reference temperature and moved to heat.referenceTemperature with the dCp correction); a stated
  * value outside the fitted enthalpy's 95 % interval is kept and warned about.
  */
-import { RateloomError } from '../core/errors';
-import type { Warning } from '../core/outcome';
-import type { CompiledKinetics } from '../kinetics/compiled';
-import { ReactionEnthalpy } from '../reactors/thermal/enthalpy';
-import { cpIntegral } from '../reactors/thermal/heat-capacity';
-import { checkThermalSpec } from '../reactors/thermal/thermal-inputs';
-import type { ThermalTubeSpec } from '../reactors/thermal/tube-balances';
-import type { DesignCase } from './case';
-import type { FittedKinetics } from './handoff';
-import type { ThermalCase } from './heat-case';
-import type { DesignSystem } from './system';
-import { bundleAlpha } from './tubes';
-import { levaCooling, type WallCoefficient } from './wall-coefficient';
+import { RateloomError } from '../core/errors.js';
+import type { Warning } from '../core/outcome.js';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import { ReactionEnthalpy } from '../reactors/thermal/enthalpy.js';
+import { cpIntegral } from '../reactors/thermal/heat-capacity.js';
+import { checkThermalSpec } from '../reactors/thermal/thermal-inputs.js';
+import type { ThermalTubeSpec } from '../reactors/thermal/tube-balances.js';
+import type { DesignCase } from './case.js';
+import type { FittedKinetics } from './handoff.js';
+import type { ThermalCase } from './heat-case.js';
+import type { DesignSystem } from './system.js';
+import { bundleAlpha } from './tubes.js';
+import { levaCooling, type WallCoefficient } from './wall-coefficient.js';
 
 /** Where each reaction enthalpy came from. */
 export interface EnthalpySource {

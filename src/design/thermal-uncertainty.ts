@@ -6,13 +6,13 @@
  * (runaway.ts) is computed for the first `runawayDraws` vectors only, since each needs a scan of
  * the coolant temperature; its percentiles say how many draws they rest on.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import { ThermalTube } from '../reactors/thermal/thermal-tube';
-import type { ThermalTubeSpec } from '../reactors/thermal/tube-balances';
-import { applyInternal, type ParameterMap } from './handoff-load';
-import { SeededRandom, cholesky, correlatedDraw } from './random';
-import { runawayMargin } from './runaway';
-import { histogramSorted, quantileSorted, type Percentile } from './uncertainty';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import { ThermalTube } from '../reactors/thermal/thermal-tube.js';
+import type { ThermalTubeSpec } from '../reactors/thermal/tube-balances.js';
+import { applyInternal, type ParameterMap } from './handoff-load.js';
+import { SeededRandom, cholesky, correlatedDraw } from './random.js';
+import { runawayMargin } from './runaway.js';
+import { histogramSorted, quantileSorted, type Percentile } from './uncertainty.js';
 
 export interface DrawSummary {
   /** Draws that gave a value / all draws. */

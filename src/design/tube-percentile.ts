@@ -14,11 +14,11 @@
  * The last pass's Monte Carlo is the one reported, so its percentiles belong to the reported layout.
  * Pressure drop: Ergun (S. Ergun, Chem. Eng. Prog. 48 (1952) 89-94), bundle alpha from tubes.ts.
  */
-import type { Sizer, SizeOnce } from './sizer';
-import type { UncertaintyResult } from './uncertainty';
-import { quantileSorted } from './uncertainty';
-import { bundleAlpha, tubeLayout, tubeLength, MAX_TUBES, type TubeDesign } from './tubes';
-import { fmt } from './sizer';
+import type { Sizer, SizeOnce } from './sizer.js';
+import type { UncertaintyResult } from './uncertainty.js';
+import { quantileSorted } from './uncertainty.js';
+import { bundleAlpha, tubeLayout, tubeLength, MAX_TUBES, type TubeDesign } from './tubes.js';
+import { fmt } from './sizer.js';
 
 /** One Monte Carlo pass with the sizer's current tube layout. */
 export interface TubePass {

@@ -10,10 +10,10 @@
  * the smallest N meeting the limit is found by doubling then integer bisection. Tube length
  * L = W_t / (rho_b A_c).
  */
-import type { DesignSystem } from './system';
-import { GAS_CONSTANT } from './system';
-import { Sizer, type SizeOnce } from './sizer';
-import { ergunAlpha } from '../reactors/ergun';
+import type { DesignSystem } from './system.js';
+import { GAS_CONSTANT } from './system.js';
+import { Sizer, type SizeOnce } from './sizer.js';
+import { ergunAlpha } from '../reactors/ergun.js';
 
 export interface TubeDesign {
   /** Number of tubes. */

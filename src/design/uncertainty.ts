@@ -12,9 +12,9 @@
  * species, P5/median/P95 per position) and at the band size itself (outlet state per species,
  * P5/P95), all with the same type-7 percentiles.
  */
-import { SeededRandom, cholesky, correlatedDraw, normalQuantile } from './random';
-import { applyInternal, type ParameterMap } from './handoff-load';
-import type { Sizer, SizeOnce } from './sizer';
+import { SeededRandom, cholesky, correlatedDraw, normalQuantile } from './random.js';
+import { applyInternal, type ParameterMap } from './handoff-load.js';
+import type { Sizer, SizeOnce } from './sizer.js';
 
 export interface UncertaintyOptions {
   /** Number of Monte Carlo draws; default 10000 (0 skips Monte Carlo). */

@@ -10,7 +10,7 @@
  * U is then taken equal to h_w: the wall and coolant-side resistances are neglected, which makes
  * U an upper estimate (the real tube removes less heat); the result says so.
  */
-import type { Warning } from '../core/outcome';
+import type { Warning } from '../core/outcome.js';
 
 export interface WallCoefficient {
   /** Bed-side coefficient used as U, W/(m2 K). */

@@ -28,10 +28,10 @@
  * The package is not the default solver; see solve.ts for why.
  */
 import { levenbergMarquardt as cardLm } from 'ml-levenberg-marquardt';
-import { svd, svdRank } from '../numerics/svd';
-import { lmResult, type LmOptions, type LmResult } from './lm';
-import type { LeastSquaresProblem } from './residuals';
-import type { FitStatus } from './status';
+import { svd, svdRank } from '../numerics/svd.js';
+import { lmResult, type LmOptions, type LmResult } from './lm.js';
+import type { LeastSquaresProblem } from './residuals.js';
+import type { FitStatus } from './status.js';
 
 export interface CardLmOptions extends LmOptions {
   /** Initial damping of the package; default 1e-2 (the package default). */

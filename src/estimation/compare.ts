@@ -8,11 +8,11 @@
  * chi-square statistics, SSR_s - SSR_l ~ chi2(p_l - p_s), is used instead.
  * Fits that did not converge are listed last and take no part in weights or the verdict.
  */
-import { RateloomError } from '../core/errors';
-import type { Warning } from '../core/outcome';
-import { chiSquareCdf, fSurvival } from './distributions';
-import type { FitResult } from './fit-types';
-import { minimumFound } from './verdict';
+import { RateloomError } from '../core/errors.js';
+import type { Warning } from '../core/outcome.js';
+import { chiSquareCdf, fSurvival } from './distributions.js';
+import type { FitResult } from './fit-types.js';
+import { minimumFound } from './verdict.js';
 
 export interface RivalFit {
   /** Model name shown in the verdict. */

@@ -9,7 +9,7 @@
  * bracketing and bisection on the CDF to full double precision (slow but robust; these are called a
  * handful of times per fit). Tested against SciPy (tests/reference/scipy/distributions.py).
  */
-import { RateloomError } from '../core/errors';
+import { RateloomError } from '../core/errors.js';
 
 const LANCZOS = [
   0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313,

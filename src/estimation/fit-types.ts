@@ -3,10 +3,10 @@
  * "Contracts"). Everything is plain data: no NaN (a value that cannot be computed is null) and no
  * class instances, so a FitResult serialises to JSON as is.
  */
-import type { Outcome } from '../core/outcome';
-import type { Parameter } from '../core/parameter';
-import type { FitStatus } from './status';
-import type { FitVerdict, VerdictRules } from './verdict';
+import type { Outcome } from '../core/outcome.js';
+import type { Parameter } from '../core/parameter.js';
+import type { FitStatus } from './status.js';
+import type { FitVerdict, VerdictRules } from './verdict.js';
 
 export interface FitData {
   /** Measured values, one per observation (same order as the model's predictions). */

@@ -10,21 +10,21 @@
  * value v se(ln v). q is Student's t(1 - (1-level)/2, n - p) when sigma is estimated and the
  * standard normal quantile when sigma is known.
  */
-import { outcome, type Warning } from '../core/outcome';
-import { externalDerivative, toExternal, type Parameter } from '../core/parameter';
-import { chiSquareCdf, normalQuantile, studentTQuantile } from './distributions';
-import type { FitData, FitOptions, FitResult, FittedParameter, ObservationDiagnostics, ParameterProfile } from './fit-types';
-import { findInfluential } from './influence';
-import type { LmResult } from './lm';
-import type { RegressionModel } from './model';
-import { profileParameter } from './profile';
-import { makeProblem, prepareFit, solveFree, type PreparedFit } from './solve';
-import { analyseJacobian, informationCriteria, lackOfFit, nullDirection, observationStats, type JacobianAnalysis } from './statistics';
-import type { FitStatus } from './status';
-import { FIT_STATUS } from './status';
-import { applyVerdict, type VerdictRules } from './verdict';
+import { outcome, type Warning } from '../core/outcome.js';
+import { externalDerivative, toExternal, type Parameter } from '../core/parameter.js';
+import { chiSquareCdf, normalQuantile, studentTQuantile } from './distributions.js';
+import type { FitData, FitOptions, FitResult, FittedParameter, ObservationDiagnostics, ParameterProfile } from './fit-types.js';
+import { findInfluential } from './influence.js';
+import type { LmResult } from './lm.js';
+import type { RegressionModel } from './model.js';
+import { profileParameter } from './profile.js';
+import { makeProblem, prepareFit, solveFree, type PreparedFit } from './solve.js';
+import { analyseJacobian, informationCriteria, lackOfFit, nullDirection, observationStats, type JacobianAnalysis } from './statistics.js';
+import type { FitStatus } from './status.js';
+import { FIT_STATUS } from './status.js';
+import { applyVerdict, type VerdictRules } from './verdict.js';
 
-export type { FitData, FitOptions, FitResult } from './fit-types';
+export type { FitData, FitOptions, FitResult } from './fit-types.js';
 
 /**
  * Fit `model` to `data`, starting from `parameters` (matched by name to model.parameterNames; fixed

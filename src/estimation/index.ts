@@ -2,7 +2,7 @@
  * Public surface of the estimation core (named exports only). It knows models only through
  * RegressionModel (model.ts).
  */
-export type { RegressionModel, PredictionFailure } from './model';
+export type { RegressionModel, PredictionFailure } from './model.js';
 export type {
   FitData,
   FitOptions,
@@ -17,9 +17,9 @@ export type {
   ProfileEnd,
   ProfilePoint,
   SolverName,
-} from './fit-types';
-export { FIT_STATUS, type FitStatus } from './status';
-export { fitModel, assembleFit } from './fit';
+} from './fit-types.js';
+export { FIT_STATUS, type FitStatus } from './status.js';
+export { fitModel, assembleFit } from './fit.js';
 export {
   applyVerdict,
   decideFitVerdict,
@@ -30,16 +30,16 @@ export {
   type FitVerdictInput,
   type FitVerdictStatus,
   type VerdictRules,
-} from './verdict';
-export { findInfluential, influenceThresholds, type InfluenceOptions, type InfluenceThresholds } from './influence';
-export { multistartFit, latinHypercube, type MultistartOptions, type MultistartResult, type Minimum } from './multistart';
-export { compareModels, type Comparison, type CompareOptions, type NestedTest, type RankedModel, type RivalFit } from './compare';
-export { levenbergMarquardt, type LmOptions, type LmResult } from './lm';
-export { cardLevenbergMarquardt, type CardLmOptions } from './card-lm';
-export { ResidualProblem, type LeastSquaresProblem, type ResidualProblemInit } from './residuals';
-export { profileParameter, type ProfileRequest } from './profile';
-export { checkJacobian, type JacobianCheck, type JacobianCheckOptions } from './jacobian-check';
-export { mulberry32, type Random } from './random';
+} from './verdict.js';
+export { findInfluential, influenceThresholds, type InfluenceOptions, type InfluenceThresholds } from './influence.js';
+export { multistartFit, latinHypercube, type MultistartOptions, type MultistartResult, type Minimum } from './multistart.js';
+export { compareModels, type Comparison, type CompareOptions, type NestedTest, type RankedModel, type RivalFit } from './compare.js';
+export { levenbergMarquardt, type LmOptions, type LmResult } from './lm.js';
+export { cardLevenbergMarquardt, type CardLmOptions } from './card-lm.js';
+export { ResidualProblem, type LeastSquaresProblem, type ResidualProblemInit } from './residuals.js';
+export { profileParameter, type ProfileRequest } from './profile.js';
+export { checkJacobian, type JacobianCheck, type JacobianCheckOptions } from './jacobian-check.js';
+export { mulberry32, type Random } from './random.js';
 export {
   chiSquareCdf,
   chiSquareQuantile,
@@ -50,4 +50,4 @@ export {
   normalQuantile,
   studentTCdf,
   studentTQuantile,
-} from './distributions';
+} from './distributions.js';

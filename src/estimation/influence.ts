@@ -17,8 +17,8 @@
  *   reason then says whether dropping it would also move the estimates beyond that mark. (The
  *   old rule, D_i > 4/n, fired on nearly every correct fit with many observations.)
  */
-import { fQuantile, normalQuantile, studentTQuantile } from './distributions';
-import type { InfluentialObservation } from './fit-types';
+import { fQuantile, normalQuantile, studentTQuantile } from './distributions.js';
+import type { InfluentialObservation } from './fit-types.js';
 
 export interface InfluenceOptions {
   /** Family-wise rate of false outlier warnings on correct data (Bonferroni over n); default 0.01. */

@@ -3,7 +3,7 @@
  * exact sensitivities (common practice; see e.g. Nocedal & Wright, Numerical Optimization, 2nd ed.,
  * sec. 8.1, on derivative checking). Step h_k = step * max(1, |theta_k|) in the estimation space.
  */
-import type { RegressionModel } from './model';
+import type { RegressionModel } from './model.js';
 
 export interface JacobianCheck {
   /** Exact Jacobian from the model (n x p, row-major). */

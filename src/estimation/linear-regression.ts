@@ -7,8 +7,8 @@
  * never forming X'X. The condition number reported is that of the column-scaled matrix, so it
  * measures collinearity, not units. Pure; small problems only (it copies the design).
  */
-import { RateloomError } from '../core/errors';
-import { conditionNumber, svd, svdRank } from '../numerics/svd';
+import { RateloomError } from '../core/errors.js';
+import { conditionNumber, svd, svdRank } from '../numerics/svd.js';
 
 export interface LinearFit {
   /** Coefficients, length p (NaN-free; 0 for a column dropped as rank-deficient). */

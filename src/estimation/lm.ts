@@ -18,10 +18,10 @@
  * values) counts as a rejected step: the trust radius shrinks tenfold. If failures shrink the radius
  * to the xtol level, the status is 'model-failure', never a convergence.
  */
-import { outcome, type Outcome } from '../core/outcome';
-import { svd } from '../numerics/svd';
-import type { LeastSquaresProblem } from './residuals';
-import { FIT_STATUS, type FitStatus } from './status';
+import { outcome, type Outcome } from '../core/outcome.js';
+import { svd } from '../numerics/svd.js';
+import type { LeastSquaresProblem } from './residuals.js';
+import { FIT_STATUS, type FitStatus } from './status.js';
 
 export interface LmOptions {
   /** Lower bounds of x in the estimation space; default -Infinity. */

@@ -16,18 +16,18 @@
  * best minimum is returned as a full FitResult. No console output: progress goes through the
  * optional callback.
  */
-import { outcome, type Outcome, type Warning } from '../core/outcome';
-import { toExternal } from '../core/parameter';
-import type { Parameter } from '../core/parameter';
-import { assembleFit } from './fit';
-import type { FitData, FitOptions, FitResult } from './fit-types';
-import { minimumFound } from './verdict';
-import type { LmResult } from './lm';
-import type { RegressionModel } from './model';
-import { mulberry32 } from './random';
-import { prepareFit, solveFree, type PreparedFit } from './solve';
-import { FIT_STATUS, type FitStatus } from './status';
-import { RateloomError } from '../core/errors';
+import { outcome, type Outcome, type Warning } from '../core/outcome.js';
+import { toExternal } from '../core/parameter.js';
+import type { Parameter } from '../core/parameter.js';
+import { assembleFit } from './fit.js';
+import type { FitData, FitOptions, FitResult } from './fit-types.js';
+import { minimumFound } from './verdict.js';
+import type { LmResult } from './lm.js';
+import type { RegressionModel } from './model.js';
+import { mulberry32 } from './random.js';
+import { prepareFit, solveFree, type PreparedFit } from './solve.js';
+import { FIT_STATUS, type FitStatus } from './status.js';
+import { RateloomError } from '../core/errors.js';
 
 export interface MultistartOptions extends FitOptions {
   /** Number of Latin-hypercube starts, in addition to the given start; default 20. */

@@ -13,10 +13,10 @@
  * search range, before a bound, or because a refit failed is reported as null (open), never as a
  * number, and `ends` says which of these happened.
  */
-import { toExternal } from '../core/parameter';
-import { chiSquareQuantile, fQuantile } from './distributions';
-import type { ParameterProfile, ProfileEnd, ProfilePoint } from './fit-types';
-import { makeProblem, solveFree, type PreparedFit } from './solve';
+import { toExternal } from '../core/parameter.js';
+import { chiSquareQuantile, fQuantile } from './distributions.js';
+import type { ParameterProfile, ProfileEnd, ProfilePoint } from './fit-types.js';
+import { makeProblem, solveFree, type PreparedFit } from './solve.js';
 
 export interface ProfileRequest {
   prep: PreparedFit;

@@ -14,8 +14,8 @@
  * or central differences (h_j = eps^(1/3) max(|x_j|, 1)) on request. A step that leaves the bounds
  * is taken to the other side. All buffers are preallocated: the residual loop does not allocate.
  */
-import type { Warning } from '../core/outcome';
-import type { PredictionFailure, RegressionModel } from './model';
+import type { Warning } from '../core/outcome.js';
+import type { PredictionFailure, RegressionModel } from './model.js';
 
 /** A least-squares problem in the free parameters: what the solvers see. */
 export interface LeastSquaresProblem {

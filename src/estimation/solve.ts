@@ -14,13 +14,13 @@
  * (ODE step failure), so the trust-region solver, which shrinks its radius on a failure, is the
  * default.
  */
-import { RateloomError } from '../core/errors';
-import { toInternal, type Parameter } from '../core/parameter';
-import { cardLevenbergMarquardt } from './card-lm';
-import type { FitData, FitOptions } from './fit-types';
-import { levenbergMarquardt, type LmResult } from './lm';
-import type { RegressionModel } from './model';
-import { ResidualProblem } from './residuals';
+import { RateloomError } from '../core/errors.js';
+import { toInternal, type Parameter } from '../core/parameter.js';
+import { cardLevenbergMarquardt } from './card-lm.js';
+import type { FitData, FitOptions } from './fit-types.js';
+import { levenbergMarquardt, type LmResult } from './lm.js';
+import type { RegressionModel } from './model.js';
+import { ResidualProblem } from './residuals.js';
 
 export interface PreparedFit {
   model: RegressionModel;

@@ -15,9 +15,9 @@
  *   AICc = AIC + 2k(k+1)/(n-k-1) (Hurvich & Tsai 1989, Biometrika 76, 297-307); BIC = ... + k ln n
  *   (Schwarz 1978). Only differences between models fitted to the same data mean anything.
  */
-import { conditionNumber, leverages, normalInverse, svd, svdRank, type Svd } from '../numerics/svd';
-import { fSurvival } from './distributions';
-import type { LackOfFit } from './fit-types';
+import { conditionNumber, leverages, normalInverse, svd, svdRank, type Svd } from '../numerics/svd.js';
+import { fSurvival } from './distributions.js';
+import type { LackOfFit } from './fit-types.js';
 
 /** Cosine-free singularity threshold: column-scaled J with condition number above this is singular. */
 export const SINGULAR_CONDITION = 1e12;

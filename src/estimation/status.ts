@@ -4,7 +4,7 @@
  * a fit keeps one of them only when its verdict (verdict.ts) is trustworthy; the last five codes
  * are verdict statuses.
  */
-import type { StatusTable } from '../core/outcome';
+import type { StatusTable } from '../core/outcome.js';
 
 export type FitStatus =
   | 'converged-ftol'

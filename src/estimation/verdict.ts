@@ -29,10 +29,10 @@
  * Analysis and Its Applications", section 1.3 (the weighted SSR is chi-square on n - p degrees of
  * freedom when the error model is right); lack of fit: Draper & Smith 1998, section 2.1.
  */
-import type { Warning } from '../core/outcome';
-import { verdictFrom, type Verdict, type VerdictReason } from '../core/verdict';
-import type { FitResult } from './fit-types';
-import { FIT_STATUS, type FitStatus } from './status';
+import type { Warning } from '../core/outcome.js';
+import { verdictFrom, type Verdict, type VerdictReason } from '../core/verdict.js';
+import type { FitResult } from './fit-types.js';
+import { FIT_STATUS, type FitStatus } from './status.js';
 
 export type FitVerdictStatus =
   | 'converged'

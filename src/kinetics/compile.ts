@@ -7,15 +7,15 @@
  * with common subexpressions hoisted into local constants (expression/codegen.ts, whose header
  * explains why compiling generated source is safe: no user text reaches it).
  */
-import { RateloomError, type FieldPath } from '../core/errors';
-import type { Chemistry } from '../chemistry/mechanism';
-import type { CompiledKinetics } from './compiled';
-import type { RateBasis, RateLawSpec } from './spec';
-import { NodeStore, type Node } from './expression/ast';
-import { differentiate } from './expression/diff';
-import { compileBody, emitBody, type Assignment, type EmittedBody } from './expression/codegen';
-import { printExpression } from './expression/print';
-import { buildRate, variableLayout, type BuiltRate } from './forms';
+import { RateloomError, type FieldPath } from '../core/errors.js';
+import type { Chemistry } from '../chemistry/mechanism.js';
+import type { CompiledKinetics } from './compiled.js';
+import type { RateBasis, RateLawSpec } from './spec.js';
+import { NodeStore, type Node } from './expression/ast.js';
+import { differentiate } from './expression/diff.js';
+import { compileBody, emitBody, type Assignment, type EmittedBody } from './expression/codegen.js';
+import { printExpression } from './expression/print.js';
+import { buildRate, variableLayout, type BuiltRate } from './forms.js';
 
 export interface KineticsInput {
   chemistry: Chemistry;

@@ -18,12 +18,12 @@
  * (species not listed have order 0); when omitted, the stoichiometric coefficients of the reactants
  * (products) are used.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import type { Chemistry } from '../chemistry/mechanism';
-import type { ArrheniusRef, Order, RateBasis, RateLawSpec, VantHoffRef } from './spec';
-import type { Node, NodeStore } from './expression/ast';
-import { parseExpression } from './expression/parser';
-import { GAS_CONSTANT, temperatureFactorNode } from './temperature';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import type { Chemistry } from '../chemistry/mechanism.js';
+import type { ArrheniusRef, Order, RateBasis, RateLawSpec, VantHoffRef } from './spec.js';
+import type { Node, NodeStore } from './expression/ast.js';
+import { parseExpression } from './expression/parser.js';
+import { GAS_CONSTANT, temperatureFactorNode } from './temperature.js';
 
 /** Variable layout shared by forms.ts and compile.ts: C_0..C_{nS-1}, T, theta_0..theta_{nP-1}. */
 export interface VariableLayout {

@@ -6,7 +6,7 @@
  *   van 't Hoff:  K(T) = K_ref * exp(-dH/R * (1/T - 1/T_ref))
  * R = 8.314462618 J/(mol K) (CODATA 2018, exact: N_A * k_B).
  */
-import type { Node, NodeStore } from './expression/ast';
+import type { Node, NodeStore } from './expression/ast.js';
 
 /** Molar gas constant, J/(mol K). Source: CODATA 2018 (exact, N_A k_B). */
 export const GAS_CONSTANT = 8.314462618;

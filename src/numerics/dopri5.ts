@@ -13,7 +13,7 @@
  * step keeps its scalars and arrays in locals; the last stage and the state are swapped, not
  * copied (FSAL), and the dense-output coefficients are formed only when dense output is asked for.
  */
-import type { OdeRhs } from './ode-types';
+import type { OdeRhs } from './ode-types.js';
 import {
   MAX_NONFINITE_RETRIES,
   allFinite,
@@ -21,7 +21,7 @@ import {
   type StepCode,
   type Stepper,
   type StepperSettings,
-} from './ode-common';
+} from './ode-common.js';
 
 // Butcher tableau (Hairer, Norsett & Wanner I, table II.5.2).
 const C2 = 0.2, C3 = 0.3, C4 = 0.8, C5 = 8 / 9;

@@ -1,12 +1,12 @@
 /**
  * Public surface of the numerics layer (pure numerical methods; no chemistry, no I/O).
  */
-export type { OdeRhs, OdeJac, OdeEvent, OdeOptions, OdeStatus, OdeResult } from './ode-types';
-export { integrate, ODE_STATUS, AUTO_STIFFNESS_THRESHOLD, OdeWorkspace } from './integrate';
-export { Dopri5, type Dopri5Options } from './dopri5';
-export { Rosenbrock, RODAS4, type RosenbrockOptions } from './rosenbrock';
-export type { Stepper, StepperSettings, StepCode, OdeCounters } from './ode-common';
-export { newCounters } from './ode-common';
+export type { OdeRhs, OdeJac, OdeEvent, OdeOptions, OdeStatus, OdeResult } from './ode-types.js';
+export { integrate, ODE_STATUS, AUTO_STIFFNESS_THRESHOLD, OdeWorkspace } from './integrate.js';
+export { Dopri5, type Dopri5Options } from './dopri5.js';
+export { Rosenbrock, RODAS4, type RosenbrockOptions } from './rosenbrock.js';
+export type { Stepper, StepperSettings, StepCode, OdeCounters } from './ode-common.js';
+export { newCounters } from './ode-common.js';
 export {
   luFactor,
   luSolve,
@@ -20,7 +20,7 @@ export {
   type LuStatus,
   type LuDecomposition,
   type LinearSolveResult,
-} from './lu';
+} from './lu.js';
 export {
   newton,
   NEWTON_STATUS,
@@ -29,7 +29,7 @@ export {
   type NewtonResult,
   type NewtonResidual,
   type NewtonJacobian,
-} from './newton';
+} from './newton.js';
 export {
   brent,
   findAllRoots,
@@ -41,4 +41,4 @@ export {
   type AllRootsStatus,
   type AllRootsOptions,
   type AllRootsResult,
-} from './roots';
+} from './roots.js';

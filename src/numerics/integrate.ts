@@ -15,11 +15,11 @@
  * Numerical failure (budgets, step-size underflow, persistent non-finite f) is likewise a status;
  * t and y are then the last accepted point. Events and tEval are handled on the dense output.
  */
-import type { OdeOptions, OdeResult, OdeRhs } from './ode-types';
-import { integratePooled } from './ode-workspace';
+import type { OdeOptions, OdeResult, OdeRhs } from './ode-types.js';
+import { integratePooled } from './ode-workspace.js';
 
-export { ODE_STATUS } from './ode-common';
-export { AUTO_STIFFNESS_THRESHOLD, badInputResult, OdeWorkspace } from './ode-workspace';
+export { ODE_STATUS } from './ode-common.js';
+export { AUTO_STIFFNESS_THRESHOLD, badInputResult, OdeWorkspace } from './ode-workspace.js';
 
 /**
  * Integrate y' = f(t, y) from t0 to t1. `f` writes dy/dt into its `out` argument and must not

@@ -7,7 +7,7 @@
  * The hot-path functions `luFactor` / `luSolve` allocate nothing and report singularity as a
  * return code; `luDecompose` / `solveLinear` are convenience wrappers with an Outcome-style status.
  */
-import { outcome, type Outcome, type StatusTable } from '../core/outcome';
+import { outcome, type Outcome, type StatusTable } from '../core/outcome.js';
 
 /** Status of a factorisation or solve. */
 export type LuStatus = 'ok' | 'singular' | 'ill-conditioned' | 'non-finite';

@@ -14,8 +14,8 @@
  * max_i |F_i| <= ftol; a step that becomes negligible while the residual is still large is a
  * failure ('line-search-failed'), never a silent success.
  */
-import { outcome, type Outcome, type StatusTable } from '../core/outcome';
-import { luFactor, luSolve, luRcond, norm1 } from './lu';
+import { outcome, type Outcome, type StatusTable } from '../core/outcome.js';
+import { luFactor, luSolve, luRcond, norm1 } from './lu.js';
 
 export type NewtonStatus =
   | 'converged'

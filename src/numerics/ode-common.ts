@@ -6,8 +6,8 @@
  * A stepper advances one accepted step at a time and then offers dense output on its last step;
  * integrate.ts drives tEval output, event location and method switching on top of that.
  */
-import type { OdeRhs, OdeStatus } from './ode-types';
-import type { StatusTable } from '../core/outcome';
+import type { OdeRhs, OdeStatus } from './ode-types.js';
+import type { StatusTable } from '../core/outcome.js';
 
 /** Status table of integrate(); `success` is derived from the code. */
 export const ODE_STATUS: StatusTable<OdeStatus> = {

@@ -4,7 +4,7 @@
  * state is computed from trial parameters and may legitimately be non-finite. Callers must check
  * `success` before using the result.
  */
-import type { OdeEvent, OdeJac, OdeOptions, OdeRhs } from './ode-types';
+import type { OdeEvent, OdeJac, OdeOptions, OdeRhs } from './ode-types.js';
 
 /** Validated, defaulted integration settings. */
 export interface OdeConfig {

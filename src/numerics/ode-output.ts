@@ -9,9 +9,9 @@
  *
  * Per step this allocates nothing unless a tEval row or an event is recorded.
  */
-import type { OdeEvent, OdeResult, OdeStatus } from './ode-types';
-import { ODE_STATUS, type OdeCounters } from './ode-common';
-import { outcome } from '../core/outcome';
+import type { OdeEvent, OdeResult, OdeStatus } from './ode-types.js';
+import { ODE_STATUS, type OdeCounters } from './ode-common.js';
+import { outcome } from '../core/outcome.js';
 
 /** Anything that can interpolate on its last accepted step. */
 export interface DenseSource {

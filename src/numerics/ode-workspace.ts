@@ -9,13 +9,13 @@
  * A workspace is not re-entrant: a right-hand side must not call integrate() on the workspace
  * that is running it (the free function integrate() takes its workspace from a pool and is safe).
  */
-import type { OdeOptions, OdeResult, OdeRhs, OdeStatus } from './ode-types';
-import { newCounters, type OdeCounters, type StepCode, type Stepper, type StepperSettings } from './ode-common';
-import { checkOdeInput, type OdeConfig } from './ode-input';
-import { OdeRecorder, buildResult } from './ode-output';
-import { Dopri5, type Dopri5Options } from './dopri5';
-import { Rosenbrock } from './rosenbrock';
-import { integrateOdex } from './odex-solver';
+import type { OdeOptions, OdeResult, OdeRhs, OdeStatus } from './ode-types.js';
+import { newCounters, type OdeCounters, type StepCode, type Stepper, type StepperSettings } from './ode-common.js';
+import { checkOdeInput, type OdeConfig } from './ode-input.js';
+import { OdeRecorder, buildResult } from './ode-output.js';
+import { Dopri5, type Dopri5Options } from './dopri5.js';
+import { Rosenbrock } from './rosenbrock.js';
+import { integrateOdex } from './odex-solver.js';
 
 /**
  * h*|lambda| threshold of the automatic switch. Hairer's DOPRI5 uses 3.25, but the two-stage

@@ -15,10 +15,10 @@
  * Its value in rateloom is as an independent cross-check of the Dormand-Prince method in tests.
  */
 import { createRequire } from 'node:module';
-import type { OdeResult, OdeRhs, OdeStatus } from './ode-types';
-import { newCounters } from './ode-common';
-import type { OdeConfig } from './ode-input';
-import { OdeRecorder, buildResult, type DenseSource } from './ode-output';
+import type { OdeResult, OdeRhs, OdeStatus } from './ode-types.js';
+import { newCounters } from './ode-common.js';
+import type { OdeConfig } from './ode-input.js';
+import { OdeRecorder, buildResult, type DenseSource } from './ode-output.js';
 
 /** The part of the odex Solver API used here (typed locally; the package ships only .ts source). */
 interface OdexSolver {

@@ -7,7 +7,7 @@
  * be bracketed; the scan then adds a 'possible-double-root' warning where |f| has a small local
  * minimum. Numerical trouble is a status, never a throw.
  */
-import { outcome, type Outcome, type StatusTable, type Warning } from '../core/outcome';
+import { outcome, type Outcome, type StatusTable, type Warning } from '../core/outcome.js';
 
 export type BrentStatus = 'converged' | 'no-bracket' | 'max-iterations' | 'non-finite' | 'bad-input';
 

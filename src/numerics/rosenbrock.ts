@@ -16,8 +16,8 @@
  *
  * All work arrays are allocated in the constructor; a step allocates nothing.
  */
-import type { OdeJac, OdeRhs } from './ode-types';
-import { luFactor, luSolve } from './lu';
+import type { OdeJac, OdeRhs } from './ode-types.js';
+import { luFactor, luSolve } from './lu.js';
 import {
   MAX_NONFINITE_RETRIES,
   allFinite,
@@ -27,7 +27,7 @@ import {
   type StepCode,
   type Stepper,
   type StepperSettings,
-} from './ode-common';
+} from './ode-common.js';
 
 /** RODAS4 coefficients in the transformed form (Hairer & Wanner II, sec. IV.7). */
 export const RODAS4 = {

@@ -7,19 +7,19 @@
  * whatever the number of workers. A job whose worker fails is rerun here (never dropped).
  * Overlap: the workers start (1-2 s) while this thread runs the main fit or the given start.
  */
-import { applyProfiles, assembleFit, profilesApply } from '../estimation/fit';
-import type { FitResult, ParameterProfile } from '../estimation/fit-types';
-import type { LmResult } from '../estimation/lm';
-import { groupStarts, multistartDesign, runStart, type MultistartOptions } from '../estimation/multistart';
-import { profileParameter } from '../estimation/profile';
-import { prepareFit, solveFree } from '../estimation/solve';
-import type { Study } from '../study/types';
-import { rankStudyFits, type StudyCompareOptions, type StudyComparison } from '../workflow/compare-study';
-import { finishStudyFit, fitPlannedStudy, planStudyFit, studyVariants, type StudyFit, type StudyFitOptions } from '../workflow/fit-study';
-import { chooseWorkers, type WorkersSetting } from './auto';
-import type { JobPool } from './pool';
-import { profileJobs, startJobs, startStudyPool } from './study-adapter';
-import type { StartResult, StudyJob, StudyJobContext, StudyJobResult } from './study-jobs';
+import { applyProfiles, assembleFit, profilesApply } from '../estimation/fit.js';
+import type { FitResult, ParameterProfile } from '../estimation/fit-types.js';
+import type { LmResult } from '../estimation/lm.js';
+import { groupStarts, multistartDesign, runStart, type MultistartOptions } from '../estimation/multistart.js';
+import { profileParameter } from '../estimation/profile.js';
+import { prepareFit, solveFree } from '../estimation/solve.js';
+import type { Study } from '../study/types.js';
+import { rankStudyFits, type StudyCompareOptions, type StudyComparison } from '../workflow/compare-study.js';
+import { finishStudyFit, fitPlannedStudy, planStudyFit, studyVariants, type StudyFit, type StudyFitOptions } from '../workflow/fit-study.js';
+import { chooseWorkers, type WorkersSetting } from './auto.js';
+import type { JobPool } from './pool.js';
+import { profileJobs, startJobs, startStudyPool } from './study-adapter.js';
+import type { StartResult, StudyJob, StudyJobContext, StudyJobResult } from './study-jobs.js';
 
 export interface ParallelFitOptions extends StudyFitOptions {
   /** Worker threads (1 = serial) or 'auto' (see auto.ts); default 'auto'. */

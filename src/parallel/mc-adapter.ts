@@ -5,14 +5,14 @@
  * consecutive chunks; the sizes come back in draw order. So the values, and every statistic of
  * them, equal the serial run's for any number of workers or chunks.
  */
-import { loadCase } from '../design/case';
-import { parameterMap, parseHandoff } from '../design/handoff-load';
-import { kineticsFromHandoff } from '../design/kinetics';
-import { SeededRandom, cholesky, correlatedDraw } from '../design/random';
-import { chunkRanges, runJobs, type PoolOptions } from './pool';
-import type { McContext, McJob, McJobResult } from './mc-jobs';
+import { loadCase } from '../design/case.js';
+import { parameterMap, parseHandoff } from '../design/handoff-load.js';
+import { kineticsFromHandoff } from '../design/kinetics.js';
+import { SeededRandom, cholesky, correlatedDraw } from '../design/random.js';
+import { chunkRanges, runJobs, siblingModule, type PoolOptions } from './pool.js';
+import type { McContext, McJob, McJobResult } from './mc-jobs.js';
 
-const JOBS_URL = new URL('./mc-jobs.ts', import.meta.url).href;
+const JOBS_URL = siblingModule('mc-jobs', import.meta.url);
 
 export interface McDrawOptions extends PoolOptions {
   /** Number of draws; default 10000. */

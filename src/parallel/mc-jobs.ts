@@ -7,15 +7,15 @@
  * target, the conversion for a rating. A job may name the tube count of its pass (the bundle's alpha
  * is then set for it), so one pool serves every pass of the percentile tube design.
  */
-import { RateloomError } from '../core/errors';
-import { drawEvaluator, type DrawEval } from '../design/size';
-import { loadCase } from '../design/case';
-import { applyInternal, parameterMap, parseHandoff, type ParameterMap } from '../design/handoff-load';
-import { kineticsFromHandoff } from '../design/kinetics';
-import { Sizer } from '../design/sizer';
-import { buildSystem } from '../design/system';
-import { systemWithPellet } from '../design/pellet-sizing';
-import { bundleAlpha, designTubes } from '../design/tubes';
+import { RateloomError } from '../core/errors.js';
+import { drawEvaluator, type DrawEval } from '../design/size.js';
+import { loadCase } from '../design/case.js';
+import { applyInternal, parameterMap, parseHandoff, type ParameterMap } from '../design/handoff-load.js';
+import { kineticsFromHandoff } from '../design/kinetics.js';
+import { Sizer } from '../design/sizer.js';
+import { buildSystem } from '../design/system.js';
+import { systemWithPellet } from '../design/pellet-sizing.js';
+import { bundleAlpha, designTubes } from '../design/tubes.js';
 
 export interface McContext {
   /** The fitted-kinetics hand-off as read from its JSON file. */

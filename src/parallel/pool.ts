@@ -10,8 +10,8 @@
  * numbers must derive them from its own index (see deriveSeed). With workers <= 1 the same module
  * runs in this thread (no worker), which is the serial reference.
  *
- * Workers load TypeScript through tsx (its ESM hooks are registered in each worker, see BOOTSTRAP). A job that throws, or a
- * worker that dies, gives an outcome { ok: false, message } for that job; nothing is thrown.
+ * Workers run the compiled JavaScript of the package; from source they load TypeScript through tsx
+ * (see bootstrap). A job that throws, or a worker that dies, gives an outcome { ok: false, message } for that job; nothing is thrown.
  * Method: plain work queue (dynamic scheduling, one job in flight per worker).
  */
 import { availableParallelism } from 'node:os';
@@ -34,12 +34,26 @@ export interface JobModule<C, S, J, R> {
   runJob: (state: S, job: J) => R | Promise<R>;
 }
 
-const WORKER_URL = new URL('./worker.ts', import.meta.url).href;
 /**
- * Bootstrap of a worker: register tsx's ESM hooks in the worker thread, then import worker.ts.
- * (`execArgv: ['--import', 'tsx']` alone does not reach a .ts worker entry on Node 20.)
+ * URL of the module `stem` (no extension) beside the module at `base` (its import.meta.url), with
+ * the same extension: `.js` in the compiled package (dist/), `.ts` when run from source (tests, tsx).
  */
-const BOOTSTRAP = `import('tsx/esm/api').then((m) => { m.register(); return import(${JSON.stringify(WORKER_URL)}); })`;
+export function siblingModule(stem: string, base: string): string {
+  return new URL(`./${stem}${base.endsWith('.ts') ? '.ts' : '.js'}`, base).href;
+}
+
+const WORKER_URL = siblingModule('worker', import.meta.url);
+
+/**
+ * Bootstrap source of a worker. Compiled JavaScript is imported directly; when the worker or the
+ * job module is TypeScript (running from source), tsx's ESM hooks are registered in the worker
+ * thread first (`execArgv: ['--import', 'tsx']` alone does not reach a .ts worker entry on Node 20).
+ */
+function bootstrap(moduleUrl: string): string {
+  const entry = `import(${JSON.stringify(WORKER_URL)})`;
+  if (!WORKER_URL.endsWith('.ts') && !moduleUrl.endsWith('.ts')) return entry;
+  return `import('tsx/esm/api').then((m) => { m.register(); return ${entry}; })`;
+}
 
 /** 32-bit seed of job `index` derived from a base seed (splitmix-style mixing; deterministic). */
 export function deriveSeed(seed: number, index: number): number {
@@ -113,7 +127,7 @@ export async function startPool<C, J, R>(moduleUrl: string, context: C, options:
   await Promise.all(
     Array.from({ length: nWorkers }, () =>
       new Promise<void>((ready) => {
-        const w = new Worker(BOOTSTRAP, { eval: true, workerData: { moduleUrl, context } });
+        const w = new Worker(bootstrap(moduleUrl), { eval: true, workerData: { moduleUrl, context } });
         const slot: Slot = { w, alive: false, current: -1 };
         let started = false;
         w.on('message', (m: { type: 'ready' } | { type: 'result'; index: number; ok: boolean; value?: R; message?: string }) => {

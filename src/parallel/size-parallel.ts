@@ -8,13 +8,13 @@
  * pass. The delta method and the bands stay in this thread. A pass with a failed chunk is drawn
  * here instead (never dropped).
  */
-import { sizeReactorWith, type DrawRequest, type DrawValues, type SizingInput, type SizingResult } from '../design/size';
-import { chooseWorkers, type WorkersSetting } from './auto';
-import { monteCarloVectors } from './mc-adapter';
-import type { McContext, McJob, McJobResult } from './mc-jobs';
-import { chunkRanges, startPool, type JobPool } from './pool';
+import { sizeReactorWith, type DrawRequest, type DrawValues, type SizingInput, type SizingResult } from '../design/size.js';
+import { chooseWorkers, type WorkersSetting } from './auto.js';
+import { monteCarloVectors } from './mc-adapter.js';
+import type { McContext, McJob, McJobResult } from './mc-jobs.js';
+import { chunkRanges, siblingModule, startPool, type JobPool } from './pool.js';
 
-const JOBS_URL = new URL('./mc-jobs.ts', import.meta.url).href;
+const JOBS_URL = siblingModule('mc-jobs', import.meta.url);
 
 export interface ParallelSizingOptions {
   /** Worker threads (1 = serial) or 'auto' (see auto.ts, by the number of draws); default 'auto'. */

@@ -3,13 +3,13 @@
  * of every free parameter, and multistart starts, run on worker threads. Deterministic: the jobs
  * are built here in a fixed order, and each runs the serial code path.
  */
-import type { FitResult } from '../estimation/fit-types';
-import { latinHypercube } from '../estimation/multistart';
-import type { Study } from '../study/types';
-import { runJobs, startPool, type JobOutcome, type JobPool, type PoolOptions } from './pool';
-import type { ProfileJob, StartJob, StartResult, StudyJob, StudyJobContext, StudyJobResult } from './study-jobs';
+import type { FitResult } from '../estimation/fit-types.js';
+import { latinHypercube } from '../estimation/multistart.js';
+import type { Study } from '../study/types.js';
+import { runJobs, siblingModule, startPool, type JobOutcome, type JobPool, type PoolOptions } from './pool.js';
+import type { ProfileJob, StartJob, StartResult, StudyJob, StudyJobContext, StudyJobResult } from './study-jobs.js';
 
-const JOBS_URL = new URL('./study-jobs.ts', import.meta.url).href;
+const JOBS_URL = siblingModule('study-jobs', import.meta.url);
 
 /** Profile jobs for every free parameter of a finished fit (the inputs fitModel gives profileParameter). */
 export function profileJobs(fit: FitResult): ProfileJob[] {

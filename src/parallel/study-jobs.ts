@@ -7,16 +7,16 @@
  * The code path is the serial one (solveFree, profileParameter), so results are identical to a
  * serial run whatever the number of workers.
  */
-import type { FitOptions, ParameterProfile } from '../estimation/fit-types';
-import { profileParameter } from '../estimation/profile';
-import type { LmResult } from '../estimation/lm';
-import { runStart } from '../estimation/multistart';
-import { prepareFit, type PreparedFit } from '../estimation/solve';
-import type { Parameter } from '../core/parameter';
-import type { Study } from '../study/types';
-import { studyFitData } from '../workflow/fit-data';
-import { findVariant } from '../workflow/fit-study';
-import { StudyModel, type StudyModelOptions } from '../workflow/study-model';
+import type { FitOptions, ParameterProfile } from '../estimation/fit-types.js';
+import { profileParameter } from '../estimation/profile.js';
+import type { LmResult } from '../estimation/lm.js';
+import { runStart } from '../estimation/multistart.js';
+import { prepareFit, type PreparedFit } from '../estimation/solve.js';
+import type { Parameter } from '../core/parameter.js';
+import type { Study } from '../study/types.js';
+import { studyFitData } from '../workflow/fit-data.js';
+import { findVariant } from '../workflow/fit-study.js';
+import { StudyModel, type StudyModelOptions } from '../workflow/study-model.js';
 
 export interface StudyJobContext {
   study: Study;

@@ -4,7 +4,7 @@
  * ok, value | message } until the pool terminates the thread.
  */
 import { parentPort, workerData } from 'node:worker_threads';
-import type { JobModule } from './pool';
+import type { JobModule } from './pool.js';
 
 const { moduleUrl, context } = workerData as { moduleUrl: string; context: unknown };
 const port = parentPort!;

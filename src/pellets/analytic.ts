@@ -11,7 +11,7 @@
  * with k the first-order rate constant per m3 of pellet (1/s). Each shape uses its own modulus
  * (half-thickness or radius), as written above; `normalizedModulus` converts to Aris' common one.
  */
-import { besselRatioI1I0 } from './bessel';
+import { besselRatioI1I0 } from './bessel.js';
 
 /** Shape exponent: 1 slab, 2 cylinder, 3 sphere. */
 export type ShapeExponent = 1 | 2 | 3;

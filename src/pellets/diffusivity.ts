@@ -11,11 +11,11 @@
  * effective diffusivity is used as it is. A per-species table that leaves a species out gives that
  * species the smallest value of the table (conservative).
  */
-import { RateloomError, type FieldPath } from '../core/errors';
-import { parseFormula } from '../chemistry/formula';
-import { GAS_CONSTANT } from '../kinetics/temperature';
-import { fullerDiffusivity } from './fuller';
-import type { PelletSpec } from './types';
+import { RateloomError, type FieldPath } from '../core/errors.js';
+import { parseFormula } from '../chemistry/formula.js';
+import { GAS_CONSTANT } from '../kinetics/temperature.js';
+import { fullerDiffusivity } from './fuller.js';
+import type { PelletSpec } from './types.js';
 
 /** A species as the diffusivity estimates need it. */
 export interface DiffusingSpecies {

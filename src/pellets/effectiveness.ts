@@ -13,11 +13,11 @@
  * as in the usual treatment of series resistances (G.F. Froment, K.B. Bischoff, J. De Wilde,
  * Chemical Reactor Analysis and Design, 3rd ed., Wiley 2011, ch. 3). Kinetics stay intrinsic.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import { solveLinear } from '../numerics/lu';
-import type { ShapeExponent } from './analytic';
-import { generalizedModulus } from './generalized';
-import { PelletSolver } from './pellet-bvp';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import { solveLinear } from '../numerics/lu.js';
+import type { ShapeExponent } from './analytic.js';
+import { generalizedModulus } from './generalized.js';
+import { PelletSolver } from './pellet-bvp.js';
 
 /** Everything the evaluator needs, SI. */
 export interface PelletModel {

@@ -12,7 +12,7 @@
  * those of the data the correlations were fitted to (from memory); outside them a warning names the
  * range and the value is still computed.
  */
-import type { Warning } from '../core/outcome';
+import type { Warning } from '../core/outcome.js';
 
 /** A correlation's name and the Reynolds range of its data. */
 export interface CorrelationInfo {

@@ -11,8 +11,8 @@
  * J.P. O'Connell, The Properties of Gases and Liquids, 5th ed., 2001, Table 11-1). Typical error a
  * few per cent for non-polar gases at low pressure. Here in SI: m2/s from T in K and P in Pa.
  */
-import { RateloomError, type FieldPath } from '../core/errors';
-import { parseFormula } from '../chemistry/formula';
+import { RateloomError, type FieldPath } from '../core/errors.js';
+import { parseFormula } from '../chemistry/formula.js';
 
 /** Atomic diffusion-volume increments (Fuller et al. 1969). */
 const ATOMIC: Readonly<Record<string, number>> = { C: 15.9, H: 2.31, O: 6.11, N: 4.54, F: 14.7, Cl: 21.0, Br: 21.9, I: 29.8, S: 22.9 };

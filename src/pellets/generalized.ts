@@ -15,10 +15,10 @@
  * limits for any rate law, approximate in between). The integral is done by Gauss-Legendre
  * quadrature (64 points); c_eq of a reversible reaction by Brent's method.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import { brent } from '../numerics/roots';
-import { etaFirstOrder, type ShapeExponent } from './analytic';
-import { gaussLegendre01 } from './collocation';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import { brent } from '../numerics/roots.js';
+import { etaFirstOrder, type ShapeExponent } from './analytic.js';
+import { gaussLegendre01 } from './collocation.js';
 
 export interface GeneralizedInput {
   kinetics: CompiledKinetics;

@@ -9,7 +9,7 @@
  * The diameter used by packed-bed correlations is 6 Vp/Sp (common practice for non-spherical
  * particles; it equals the diameter of a sphere).
  */
-import type { PelletGeometry, PelletSpec } from './types';
+import type { PelletGeometry, PelletSpec } from './types.js';
 
 /** Volume and external surface of one pellet (per unit length for an infinite cylinder). */
 function volumeAndSurface(p: PelletSpec): { V: number; S: number } {

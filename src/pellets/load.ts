@@ -4,9 +4,9 @@
  * (given the tube) a pellet smaller than the tube. Quantities are written "3 mm" or
  * { "value": 3, "unit": "mm" }. Bad input throws a RateloomError naming the field.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import { toSI, type Quantity } from '../units';
-import type { MolecularDiffusivity, PelletShape, PelletSpec } from './types';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { toSI, type Quantity } from '../units/index.js';
+import type { MolecularDiffusivity, PelletShape, PelletSpec } from './types.js';
 
 type Obj = Record<string, unknown>;
 

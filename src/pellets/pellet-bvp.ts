@@ -17,11 +17,11 @@
  * profile. The number of collocation points grows with the linearised Thiele modulus at the surface.
  * Species no rate depends on are left out of the unknowns (they cannot change eta).
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import { luFactor, luSolve } from '../numerics/lu';
-import { outcome, type Outcome, type StatusTable } from '../core/outcome';
-import { collocationGrid, gaussLegendre01, interpolationRow, type CollocationGrid } from './collocation';
-import type { ShapeExponent } from './analytic';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import { luFactor, luSolve } from '../numerics/lu.js';
+import { outcome, type Outcome, type StatusTable } from '../core/outcome.js';
+import { collocationGrid, gaussLegendre01, interpolationRow, type CollocationGrid } from './collocation.js';
+import type { ShapeExponent } from './analytic.js';
 
 export type PelletStatus = 'converged' | 'newton-failed' | 'non-finite';
 

@@ -5,14 +5,14 @@
  * study's column mapping (data/mapping.ts), so the runs planned on are exactly the runs the CSV
  * handed to the lab describes.
  */
-import { RateloomError } from '../core/errors';
-import { readCsv } from '../data/csv';
-import { RESPONSE_QUANTITY, mapPerRunSource } from '../data/mapping';
-import type { PerRunSourceSpec } from '../data/spec';
-import { DEFAULT_ERROR_MODEL, type Observation, type Study, type StudyRun } from '../study/types';
-import { unitFor } from '../units';
-import { fieldValueSI, inputColumns, rowsCsv, type PlannedRow } from './layout';
-import type { Factor, LabLimits } from './limits';
+import { RateloomError } from '../core/errors.js';
+import { readCsv } from '../data/csv.js';
+import { RESPONSE_QUANTITY, mapPerRunSource } from '../data/mapping.js';
+import type { PerRunSourceSpec } from '../data/spec.js';
+import { DEFAULT_ERROR_MODEL, type Observation, type Study, type StudyRun } from '../study/types.js';
+import { unitFor } from '../units/index.js';
+import { fieldValueSI, inputColumns, rowsCsv, type PlannedRow } from './layout.js';
+import type { Factor, LabLimits } from './limits.js';
 
 /** Candidate grids above this size are refused (lower the levels). */
 export const MAX_CANDIDATES = 20000;

@@ -3,15 +3,15 @@
  * the lab can actually run (solved at today's parameters, inside the conversion and outlet-flow
  * limits), and where the parameters stand for a fitted rate-law set.
  */
-import type { Study } from '../study/types';
-import { studyFitData } from '../workflow/fit-data';
-import { findVariant, type StudyFit } from '../workflow/fit-study';
-import { StudyModel, initialAmount } from '../workflow/study-model';
-import type { PerRunSourceSpec } from '../data/spec';
-import { buildCandidates, studyOfRuns, type CandidateSet } from './candidates';
-import { runInformation, totalInformation, type InformationPoint } from './information';
-import { perRunSource, type LabLimits } from './limits';
-import type { ExcludedCandidates } from './types';
+import type { Study } from '../study/types.js';
+import { studyFitData } from '../workflow/fit-data.js';
+import { findVariant, type StudyFit } from '../workflow/fit-study.js';
+import { StudyModel, initialAmount } from '../workflow/study-model.js';
+import type { PerRunSourceSpec } from '../data/spec.js';
+import { buildCandidates, studyOfRuns, type CandidateSet } from './candidates.js';
+import { runInformation, totalInformation, type InformationPoint } from './information.js';
+import { perRunSource, type LabLimits } from './limits.js';
+import type { ExcludedCandidates } from './types.js';
 
 export interface PlanContext {
   study: Study;

@@ -8,7 +8,7 @@
  *       of variance after to variance now, negated).
  * Every criterion is "larger is better" and -Infinity for a singular F.
  */
-import { cholesky } from '../design/random';
+import { cholesky } from '../design/random.js';
 
 export type CriterionKind = 'D' | 'Ds' | 'A';
 

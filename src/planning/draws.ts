@@ -3,9 +3,9 @@
  * the fit's normal approximation N(theta_hat, C) in the estimation space (Chaloner & Verdinelli
  * 1995, Statistical Science 10, 273-304, section 2: the "pseudo-Bayesian" expected criterion).
  */
-import { SeededRandom, cholesky, correlatedDraw } from '../design/random';
-import type { StudyFit } from '../workflow/fit-study';
-import type { InformationPoint } from './information';
+import { SeededRandom, cholesky, correlatedDraw } from '../design/random.js';
+import type { StudyFit } from '../workflow/fit-study.js';
+import type { InformationPoint } from './information.js';
 
 /** `count` points drawn from the fit's covariance (the estimate itself when count is 0). */
 export function parameterDraws(at: InformationPoint, sf: StudyFit, count: number, seed: number): { points: InformationPoint[]; warning?: string } {

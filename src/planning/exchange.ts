@@ -7,7 +7,7 @@
  * parameter draws (a Bayesian-style design: Chaloner & Verdinelli 1995, Statistical Science 10,
  * 273-304): each draw has its own prior information and candidate informations.
  */
-import { criterionValue, type Criterion } from './criteria';
+import { criterionValue, type Criterion } from './criteria.js';
 
 export interface ExchangeProblem {
   /** Number of free parameters. */

@@ -7,9 +7,9 @@
  * the predicted value; when the fit estimated the scale (unweighted responses), the information is
  * divided by s^2 as the fit's covariance s^2 (J'WJ)^-1 is.
  */
-import type { Study } from '../study/types';
-import { sigmaFromModel } from '../study/types';
-import { StudyModel, type ModelVariant } from '../workflow/study-model';
+import type { Study } from '../study/types.js';
+import { sigmaFromModel } from '../study/types.js';
+import { StudyModel, type ModelVariant } from '../workflow/study-model.js';
 
 export interface RunInformation {
   /** Per run of the study: its information (p x p, free parameters), or null when it failed to solve. */

@@ -3,10 +3,10 @@
  * column mapping, run conditions filled, measured columns empty (the lab fills them). Also the
  * reverse direction for held conditions: the SI value of a mapped field in an existing run.
  */
-import type { FieldSpec, PerRunSourceSpec } from '../data/spec';
-import type { StudyRun } from '../study/types';
-import { unitFor } from '../units';
-import { FIELD_QUANTITY, type ScalarField, type SpeciesField } from './limits';
+import type { FieldSpec, PerRunSourceSpec } from '../data/spec.js';
+import type { StudyRun } from '../study/types.js';
+import { unitFor } from '../units/index.js';
+import { FIELD_QUANTITY, type ScalarField, type SpeciesField } from './limits.js';
 
 /** One input column of the layout. */
 export interface LayoutColumn {

@@ -5,12 +5,12 @@
  * per-run source) and against physics (positive absolute temperature, non-negative amounts,
  * fractions at most 1), and converted to SI.
  */
-import { RateloomError, type FieldPath } from '../core/errors';
-import type { FieldSpec, PerRunSourceSpec } from '../data/spec';
-import { checkSchema, type JsonSchema } from '../study/schema-check';
-import type { Study } from '../study/types';
-import { unitFor, type Quantity } from '../units';
-import schemaJson from '../../schema/limits.schema.json';
+import { RateloomError, type FieldPath } from '../core/errors.js';
+import type { FieldSpec, PerRunSourceSpec } from '../data/spec.js';
+import { checkSchema, type JsonSchema } from '../study/schema-check.js';
+import type { Study } from '../study/types.js';
+import { unitFor, type Quantity } from '../units/index.js';
+import schemaJson from '../../schema/limits.schema.json' with { type: 'json' };
 
 /** The limits-file schema as an object (the same file editors use). */
 export const LIMITS_SCHEMA = schemaJson as unknown as JsonSchema;

@@ -5,17 +5,17 @@
  * chosen, and the expected precision or model probabilities after them. Bad input throws
  * RateloomError; a fit that cannot be trusted is planned with a warning and an unsuccessful status.
  */
-import { RateloomError } from '../core/errors';
-import { outcome, type StatusTable, type Warning } from '../core/outcome';
-import type { Study } from '../study/types';
-import type { StudyFit } from '../workflow/fit-study';
-import type { CriterionKind } from './criteria';
-import { planContext, pointOfFit, type PlanContext } from './context';
-import { rowsCsv } from './layout';
-import type { LabLimits } from './limits';
-import { planPrecision, type PrecisionPlan } from './precision';
-import { conditionsOf, factorSummary, oldRunPoints, plannedRows } from './rows';
-import type { DiscriminationCriterion, PlanMode, PlanResult, PlanStatus, PlannedRun } from './types';
+import { RateloomError } from '../core/errors.js';
+import { outcome, type StatusTable, type Warning } from '../core/outcome.js';
+import type { Study } from '../study/types.js';
+import type { StudyFit } from '../workflow/fit-study.js';
+import type { CriterionKind } from './criteria.js';
+import { planContext, pointOfFit, type PlanContext } from './context.js';
+import { rowsCsv } from './layout.js';
+import type { LabLimits } from './limits.js';
+import { planPrecision, type PrecisionPlan } from './precision.js';
+import { conditionsOf, factorSummary, oldRunPoints, plannedRows } from './rows.js';
+import type { DiscriminationCriterion, PlanMode, PlanResult, PlanStatus, PlannedRun } from './types.js';
 
 export const PLAN_STATUS: StatusTable<PlanStatus> = {
   planned: { success: true, message: 'runs planned' },

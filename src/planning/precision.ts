@@ -4,15 +4,15 @@
  * (exchange.ts), locally at the estimate or averaged over parameter draws (draws.ts). Reports the
  * expected standard errors and linear-interval widths after the planned runs beside today's.
  */
-import { RateloomError } from '../core/errors';
-import { normalQuantile, studentTQuantile } from '../estimation/distributions';
-import type { StudyFit } from '../workflow/fit-study';
-import { criterionValue, inverseSpd, type Criterion, type CriterionKind } from './criteria';
-import { pointOfFit, studyInformation, type PlanContext } from './context';
-import { parameterDraws } from './draws';
-import { greedyExchange, type ExchangeResult } from './exchange';
-import { runInformation, type InformationPoint } from './information';
-import type { ParameterPrecision } from './types';
+import { RateloomError } from '../core/errors.js';
+import { normalQuantile, studentTQuantile } from '../estimation/distributions.js';
+import type { StudyFit } from '../workflow/fit-study.js';
+import { criterionValue, inverseSpd, type Criterion, type CriterionKind } from './criteria.js';
+import { pointOfFit, studyInformation, type PlanContext } from './context.js';
+import { parameterDraws } from './draws.js';
+import { greedyExchange, type ExchangeResult } from './exchange.js';
+import { runInformation, type InformationPoint } from './information.js';
+import type { ParameterPrecision } from './types.js';
 
 export interface PrecisionOptions {
   /** Runs to plan. */

@@ -3,12 +3,12 @@
  * condition with its SI value and its value in the study's own column unit, and the study's old
  * runs placed in the same scaled condition space (for the chart).
  */
-import type { PerRunSourceSpec } from '../data/spec';
-import type { Study } from '../study/types';
-import { siUnit } from '../units';
-import { fieldValueSI, inputColumns, toColumnUnit, type PlannedRow } from './layout';
-import { FIELD_QUANTITY, type LabLimits } from './limits';
-import type { PlanResult, PlannedCondition } from './types';
+import type { PerRunSourceSpec } from '../data/spec.js';
+import type { Study } from '../study/types.js';
+import { siUnit } from '../units/index.js';
+import { fieldValueSI, inputColumns, toColumnUnit, type PlannedRow } from './layout.js';
+import { FIELD_QUANTITY, type LabLimits } from './limits.js';
+import type { PlanResult, PlannedCondition } from './types.js';
 
 /** A run-id prefix not used by the study ('N', else 'N2', 'N3', ...). */
 export function freshPrefix(study: Study, prefix: string, count: number): string {

@@ -3,7 +3,7 @@
  * them beside today's, and (discrimination) the expected posterior model probabilities. Plain data,
  * SI values with their units; serialises to JSON as is.
  */
-import type { Outcome } from '../core/outcome';
+import type { Outcome } from '../core/outcome.js';
 
 export type PlanStatus = 'planned' | 'fewer-runs' | 'fit-not-trustworthy' | 'no-candidates';
 

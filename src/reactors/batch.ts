@@ -7,16 +7,16 @@
  * Method: batch mole balances; integrated by numerics/integrate with the exact Jacobian
  * df/dN = (dR/dC) / V from CompiledKinetics.ratesJacC. RHS and Jacobian do not allocate.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
 import {
   basisWeights, checkKinetics, checkOptions, checkPositive, checkPressure, checkSpeciesVector,
   checkTemperature, checkTheta, profilePositions, runPath,
-} from './checks';
-import { sumFirst } from './gas';
-import { runOde, type OdeCore } from './ode-driver';
-import { RateTerms } from './rate-terms';
-import { buildSolution, type StateReader } from './solution';
-import type { ReactorModel, ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types';
+} from './checks.js';
+import { sumFirst } from './gas.js';
+import { runOde, type OdeCore } from './ode-driver.js';
+import { RateTerms } from './rate-terms.js';
+import { buildSolution, type StateReader } from './solution.js';
+import type { ReactorModel, ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types.js';
 
 /** Default batch volume when run.initialVolume is absent, m3. */
 export const DEFAULT_BATCH_VOLUME = 1;

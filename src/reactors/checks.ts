@@ -4,9 +4,9 @@
  * the fix; numerical trouble never throws (see the status on ReactorSolution).
  * Method: plain range checks; no external reference.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import type { CompiledKinetics } from '../kinetics/compiled';
-import type { ReactorOptions, ReactorSpec, RunConditions } from './types';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import type { ReactorOptions, ReactorSpec, RunConditions } from './types.js';
 
 /** Path of a field of a run. */
 export function runPath(run: RunConditions, ...rest: (string | number)[]): FieldPath {

@@ -7,8 +7,8 @@
  *   alpha = 2 beta0 / (Ac (1 - phi) rho_c P0)                                       (1/kg)
  * so that, for constant total moles and temperature, p = P/P0 = (1 - alpha W)^(1/2).
  */
-import { RateloomError, type FieldPath } from '../core/errors';
-import type { ErgunInputs, PressureDropSpec } from './types';
+import { RateloomError, type FieldPath } from '../core/errors.js';
+import type { ErgunInputs, PressureDropSpec } from './types.js';
 
 function positive(value: number, name: string, path: FieldPath, unit: string): void {
   if (!(Number.isFinite(value) && value > 0)) {

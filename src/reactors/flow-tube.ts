@@ -15,19 +15,19 @@
  * (alpha, basis weights, permeation) resolved once by prepareFlowTube; solvePreparedTube then solves
  * it for any theta without re-validating (the study model prepares its runs at construction).
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
 import {
   basisWeights, bulkDensity, checkKinetics, checkOptions, checkPositive, checkPressure,
   checkSpeciesVector, checkTemperature, checkTheta, profilePositions, runPath, speciesIndex,
-} from './checks';
-import { resolveAlpha } from './ergun';
-import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentration } from './gas';
-import { runOde, type OdeCore } from './ode-driver';
-import { buildSolution, type StateReader } from './solution';
-import { makeTubeRhs, type TubeRhsState } from './tube-rhs';
-import { speciesFromReactions } from './rate-terms';
-import type { ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types';
-import { RateloomError } from '../core/errors';
+} from './checks.js';
+import { resolveAlpha } from './ergun.js';
+import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentration } from './gas.js';
+import { runOde, type OdeCore } from './ode-driver.js';
+import { buildSolution, type StateReader } from './solution.js';
+import { makeTubeRhs, type TubeRhsState } from './tube-rhs.js';
+import { speciesFromReactions } from './rate-terms.js';
+import type { ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types.js';
+import { RateloomError } from '../core/errors.js';
 
 export type TubeKind = 'packed-bed' | 'plug-flow' | 'membrane';
 

@@ -4,15 +4,15 @@
  * the field (['runs', runId, 'temperature'], ...) and the fix. Numerical trouble is a status on the
  * returned ReactorSolution, never a throw.
  */
-import { RateloomError } from '../core/errors';
-import type { CompiledKinetics } from '../kinetics/compiled';
-import { batchReactor } from './batch';
-import { membraneReactor } from './membrane';
-import { packedBed } from './packed-bed';
-import { plugFlow } from './plug-flow';
-import { semibatchReactor } from './semibatch';
-import { stirredTank } from './stirred-tank';
-import type { ReactorKind, ReactorModel, ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types';
+import { RateloomError } from '../core/errors.js';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import { batchReactor } from './batch.js';
+import { membraneReactor } from './membrane.js';
+import { packedBed } from './packed-bed.js';
+import { plugFlow } from './plug-flow.js';
+import { semibatchReactor } from './semibatch.js';
+import { stirredTank } from './stirred-tank.js';
+import type { ReactorKind, ReactorModel, ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types.js';
 
 export const REACTOR_MODELS: Readonly<Record<ReactorKind, ReactorModel>> = {
   'packed-bed': packedBed,
@@ -55,7 +55,7 @@ export function solveReactor(
   return model.solve(spec, run, kinetics, theta, options);
 }
 
-export { ergunAlpha, ergunBeta0, resolveAlpha } from './ergun';
-export { R_GAS, totalConcentration } from './gas';
-export { REACTOR_STATUS } from './status';
-export type * from './types';
+export { ergunAlpha, ergunBeta0, resolveAlpha } from './ergun.js';
+export { R_GAS, totalConcentration } from './gas.js';
+export { REACTOR_STATUS } from './status.js';
+export type * from './types.js';

@@ -5,8 +5,8 @@
  * Method: membrane-reactor mole balances with a linear (first-order) transport law through the wall;
  * the balances live in flow-tube.ts.
  */
-import { solveFlowTube } from './flow-tube';
-import type { ReactorModel } from './types';
+import { solveFlowTube } from './flow-tube.js';
+import type { ReactorModel } from './types.js';
 
 export const membraneReactor: ReactorModel = {
   kind: 'membrane',

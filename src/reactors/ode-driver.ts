@@ -15,9 +15,9 @@
  * differentiates the discrete solution exactly for a fixed step sequence, so the sensitivities agree
  * with differences of the computed outlet, and a Jacobian solve costs the steps of a plain solve.
  */
-import { OdeWorkspace } from '../numerics/integrate';
-import type { OdeEvent, OdeJac, OdeOptions, OdeResult, OdeRhs } from '../numerics/ode-types';
-import type { ReactorOptions, ReactorStatus } from './types';
+import { OdeWorkspace } from '../numerics/integrate.js';
+import type { OdeEvent, OdeJac, OdeOptions, OdeResult, OdeRhs } from '../numerics/ode-types.js';
+import type { ReactorOptions, ReactorStatus } from './types.js';
 
 /** One reactor model written as y' = f(x, y) with exact derivatives. */
 export interface OdeCore {

@@ -4,8 +4,8 @@
  * density (reactor.bulkDensity), and refused without it. The balances live in flow-tube.ts.
  * Method: packed-bed mole balances dF_j/dW = R_j with dp/dW = -alpha/(2p) (F_T/F_T0) (Ergun 1952).
  */
-import { solveFlowTube } from './flow-tube';
-import type { ReactorModel } from './types';
+import { solveFlowTube } from './flow-tube.js';
+import type { ReactorModel } from './types.js';
 
 export const packedBed: ReactorModel = {
   kind: 'packed-bed',

@@ -4,8 +4,8 @@
  * (reactor.bulkDensity), and refused without it. The balances live in flow-tube.ts.
  * Method: plug-flow mole balances dF_j/dV = R_j.
  */
-import { solveFlowTube } from './flow-tube';
-import type { ReactorModel } from './types';
+import { solveFlowTube } from './flow-tube.js';
+import type { ReactorModel } from './types.js';
 
 export const plugFlow: ReactorModel = {
   kind: 'plug-flow',

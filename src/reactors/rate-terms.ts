@@ -6,7 +6,7 @@
  * Method: relative rates from stoichiometry (mole balance bookkeeping); no external reference.
  * All buffers are allocated once in the constructor; the methods do not allocate.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
 
 /**
  * out (nS x ncol) = nu^T diag(w) src, with src a reaction-level matrix (nR x ncol) and nu the

@@ -7,17 +7,17 @@
  * Method: semibatch mole balances with the exact Jacobian in (N, V) from CompiledKinetics.ratesJacC:
  *   d f_N/dN = (dR/dC)/V,  d f_N/dV = R_vol + (dR/dC)(-N/V^2).  RHS and Jacobian do not allocate.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import { RateloomError } from '../core/errors';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import { RateloomError } from '../core/errors.js';
 import {
   basisWeights, checkKinetics, checkOptions, checkPositive, checkSpeciesVector,
   checkTemperature, checkTheta, profilePositions, runPath,
-} from './checks';
-import { sumFirst } from './gas';
-import { runOde, type OdeCore } from './ode-driver';
-import { RateTerms } from './rate-terms';
-import { buildSolution, type StateReader } from './solution';
-import type { ReactorModel, ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types';
+} from './checks.js';
+import { sumFirst } from './gas.js';
+import { runOde, type OdeCore } from './ode-driver.js';
+import { RateTerms } from './rate-terms.js';
+import { buildSolution, type StateReader } from './solution.js';
+import type { ReactorModel, ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types.js';
 
 export function solveSemibatch(
   spec: ReactorSpec,

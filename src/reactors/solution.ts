@@ -3,9 +3,9 @@
  * pressure ratio, profile rows and sensitivities. No numerics here; no external reference.
  * Allocates only the arrays and objects of the result (no views, no temporaries).
  */
-import type { OdeDriverResult } from './ode-driver';
-import type { ReactorProfile, ReactorSolution, RunConditions } from './types';
-import { STATUS_SUCCESS } from './status';
+import type { OdeDriverResult } from './ode-driver.js';
+import type { ReactorProfile, ReactorSolution, RunConditions } from './types.js';
+import { STATUS_SUCCESS } from './status.js';
 
 /** How a model reads its state: concentrations and p/p0 from a state row. */
 export interface StateReader {

@@ -2,8 +2,8 @@
  * The status table of reactor solutions: which statuses count as success and their default
  * messages (the Outcome convention of core/outcome.ts).
  */
-import type { StatusTable } from '../core/outcome';
-import type { ReactorStatus } from './types';
+import type { StatusTable } from '../core/outcome.js';
+import type { ReactorStatus } from './types.js';
 
 export const REACTOR_STATUS: StatusTable<ReactorStatus> = {
   success: { success: true, message: 'reactor solved' },

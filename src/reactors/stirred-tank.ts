@@ -11,19 +11,19 @@
  * points spread between feed and full conversion otherwise. Sensitivities by implicit
  * differentiation, (dG/dF) dF/dtheta = -dG/dtheta, with the LU at the solution.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import { luFactor, luSolve } from '../numerics/lu';
-import { newton } from '../numerics/newton';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import { luFactor, luSolve } from '../numerics/lu.js';
+import { newton } from '../numerics/newton.js';
 import {
   basisWeights, checkKinetics, checkPositive, checkPressure, checkSpeciesVector, checkTemperature, checkTheta, runPath,
-} from './checks';
-import { RateloomError } from '../core/errors';
-import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentration } from './gas';
-import { RateTerms } from './rate-terms';
-import { STATUS_SUCCESS } from './status';
-import type { Warning } from '../core/outcome';
-import { liquidTankStability, nearestState, type SteadyState } from './steady-states';
-import type { ReactorModel, ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types';
+} from './checks.js';
+import { RateloomError } from '../core/errors.js';
+import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentration } from './gas.js';
+import { RateTerms } from './rate-terms.js';
+import { STATUS_SUCCESS } from './status.js';
+import type { Warning } from '../core/outcome.js';
+import { liquidTankStability, nearestState, type SteadyState } from './steady-states.js';
+import type { ReactorModel, ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types.js';
 
 /** Residual tolerance of the steady state, relative to the total feed flow. */
 export const CSTR_RESIDUAL_TOL = 1e-10;

@@ -17,8 +17,8 @@
  * loop (sum_j F_j left to right, nu_ij a_i accumulated in reaction order), so the result is the
  * same to the last bit.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import type { OdeRhs } from '../numerics/ode-types';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import type { OdeRhs } from '../numerics/ode-types.js';
 
 /** The per-run values the generated right-hand side reads on every call (set before each solve). */
 export interface TubeRhsState {

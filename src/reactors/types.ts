@@ -3,9 +3,9 @@
  * parameter values) -> outlet state, optional profile and optional parameter sensitivities.
  * All quantities SI: mol/s, mol/m3, Pa, K, kg, m3, s.
  */
-import type { CompiledKinetics } from '../kinetics/compiled';
-import type { Outcome } from '../core/outcome';
-import type { SteadyState, SteadyStateStart } from './steady-states';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import type { Outcome } from '../core/outcome.js';
+import type { SteadyState, SteadyStateStart } from './steady-states.js';
 
 export type ReactorKind = 'packed-bed' | 'plug-flow' | 'stirred-tank' | 'batch' | 'membrane' | 'semibatch';
 export type Phase = 'gas' | 'liquid';

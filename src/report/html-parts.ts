@@ -3,9 +3,9 @@
  * boxes, tables whose number cells always carry a unit, and chart figures with inline SVG.
  * Every piece of text passes through escapeHtml; SVG comes only from our own renderer.
  */
-import { escapeHtml, formatInterval, formatNumber, formatUnit, NOT_COMPUTED, SIG_VALUE } from './format';
-import { REPORT_CSS } from './style';
-import type { RenderedChart, ReportWarning } from './types';
+import { escapeHtml, formatInterval, formatNumber, formatUnit, NOT_COMPUTED, SIG_VALUE } from './format.js';
+import { REPORT_CSS } from './style.js';
+import type { RenderedChart, ReportWarning } from './types.js';
 
 /** A complete self-contained document: inline CSS, no scripts, no external references. */
 export function htmlDocument(title: string, body: string): string {

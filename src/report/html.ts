@@ -4,7 +4,7 @@
  * rival models, observations. Sections of the sizing report: summary, cautions (always, up front),
  * warnings, size cards, outlet and design tables, charts, sensitivity. Charts arrive rendered.
  */
-import { escapeHtml, formatNumber, formatUnit, paToKPa } from './format';
+import { escapeHtml, formatNumber, formatUnit, paToKPa } from './format.js';
 import {
   cautionsBlock,
   chartGrid,
@@ -20,9 +20,9 @@ import {
   textCell,
   unitSpan,
   warningsBlock,
-} from './html-parts';
-import type { FitReportData, RenderedChart, SizingReportData } from './types';
-import { pelletHtml, transportHtml } from './pellet-html';
+} from './html-parts.js';
+import type { FitReportData, RenderedChart, SizingReportData } from './types.js';
+import { pelletHtml, transportHtml } from './pellet-html.js';
 
 /** Rendered fit charts by section (same keys as FitChartGroups). */
 export interface RenderedFitCharts {

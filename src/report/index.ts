@@ -3,18 +3,18 @@
  * HTML document plus a Markdown summary. Charts are built as vega-lite specs and drawn to SVG
  * headless. The functions do no file I/O; cli/report-render.ts writes the files.
  */
-import { RateloomError } from '../core/errors';
-import { fitCharts, sizingCharts, type FitChartGroups, type SizingChartGroups } from './charts';
-import { renderFitHtml, renderSizingHtml, type RenderedFitCharts, type RenderedSizingCharts } from './html';
-import { renderFitMarkdown, renderSizingMarkdown } from './markdown';
-import { renderCharts } from './svg';
-import type { ChartSpec, FitReportData, RenderedChart, RenderedReport, ReportWarning, SizingReportData } from './types';
+import { RateloomError } from '../core/errors.js';
+import { fitCharts, sizingCharts, type FitChartGroups, type SizingChartGroups } from './charts/index.js';
+import { renderFitHtml, renderSizingHtml, type RenderedFitCharts, type RenderedSizingCharts } from './html.js';
+import { renderFitMarkdown, renderSizingMarkdown } from './markdown.js';
+import { renderCharts } from './svg.js';
+import type { ChartSpec, FitReportData, RenderedChart, RenderedReport, ReportWarning, SizingReportData } from './types.js';
 
-export type * from './types';
-export { fitCharts, sizingCharts } from './charts';
-export { renderSvg, renderCharts, compileToVega } from './svg';
-export { renderFitHtml, renderSizingHtml } from './html';
-export { renderFitMarkdown, renderSizingMarkdown } from './markdown';
+export type * from './types.js';
+export { fitCharts, sizingCharts } from './charts/index.js';
+export { renderSvg, renderCharts, compileToVega } from './svg.js';
+export { renderFitHtml, renderSizingHtml } from './html.js';
+export { renderFitMarkdown, renderSizingMarkdown } from './markdown.js';
 
 function need(ok: boolean, what: string, path: string[]): void {
   if (!ok) throw new RateloomError('E_VALUE', `report data: ${what}`, { path, fix: 'Fill the report view-model completely (see src/report/types.ts).' });

@@ -2,8 +2,8 @@
  * Markdown summaries of the fit and sizing reports: the same numbers as the HTML documents in
  * plain tables (every number followed by its unit), without charts.
  */
-import { escapeMarkdown as md, formatInterval, formatNumber, formatUnit, NOT_COMPUTED, paToKPa, SIG_VALUE } from './format';
-import type { FitReportData, PelletReportData, ReportWarning, SizingReportData, TransportReportData } from './types';
+import { escapeMarkdown as md, formatInterval, formatNumber, formatUnit, NOT_COMPUTED, paToKPa, SIG_VALUE } from './format.js';
+import type { FitReportData, PelletReportData, ReportWarning, SizingReportData, TransportReportData } from './types.js';
 
 /** A number with its unit, or 'not computed'. */
 function q(x: number | null | undefined, unit: string | null | undefined, sig = SIG_VALUE): string {

@@ -2,9 +2,9 @@
  * HTML blocks of the pellet parts of the reports: the plant pellet of a sizing (design values,
  * inlet film, trade-off table) and the transport checks of the lab runs in a fit report.
  */
-import { escapeHtml, formatNumber } from './format';
-import { keyValueTable, numCell, table, textCell } from './html-parts';
-import type { PelletReportData, TransportReportData } from './types';
+import { escapeHtml, formatNumber } from './format.js';
+import { keyValueTable, numCell, table, textCell } from './html-parts.js';
+import type { PelletReportData, TransportReportData } from './types.js';
 
 /** Design values, inlet film and trade-off of the plant pellet. */
 export function pelletHtml(p: PelletReportData): string {

@@ -2,7 +2,7 @@
  * The inline stylesheet of the HTML reports: system fonts only, the Okabe & Ito colours of the
  * charts for status accents, a readable measure on laptops, and an @media print block for A4.
  */
-import { FONT_STACK, OKABE_ITO } from './theme';
+import { FONT_STACK, OKABE_ITO } from './theme.js';
 
 export const REPORT_CSS = `
 :root {

@@ -6,7 +6,7 @@
  */
 import * as vega from 'vega';
 import { compile, type TopLevelSpec } from 'vega-lite';
-import type { ChartSpec, RenderedChart } from './types';
+import type { ChartSpec, RenderedChart } from './types.js';
 
 /** A vega loader that refuses any URL or file: reports are drawn from inline data only. */
 function offlineLoader(): vega.Loader {

@@ -6,11 +6,11 @@
  * t is the run's time on stream (labData.timeOnStream) or its sequence number (labData.sequence).
  * Fitted rate constants are those of the fresh catalyst (a = 1). See docs/lab-data.md.
  */
-import { RateloomError } from '../core/errors';
-import { makeParameter, type Parameter } from '../core/parameter';
-import { unitFor } from '../units';
-import type { Activity, ActivitySpec } from './lab-types';
-import type { Study } from './types';
+import { RateloomError } from '../core/errors.js';
+import { makeParameter, type Parameter } from '../core/parameter.js';
+import { unitFor } from '../units/index.js';
+import type { Activity, ActivitySpec } from './lab-types.js';
+import type { Study } from './types.js';
 
 const PATH = ['activity'];
 

@@ -4,12 +4,12 @@
  * and parameter units whose dimension does not match what the rate law needs. Each refuses with a
  * RateloomError naming the field (the loader adds the file, line and column).
  */
-import { RateloomError, type FieldPath } from '../core/errors';
-import type { Chemistry as ChemistryModel } from '../chemistry/mechanism';
-import type { RateLawSpec } from '../kinetics/spec';
-import type { PressureDropSpec } from '../reactors/types';
-import { unitFor } from '../units';
-import type { ParameterRole } from './parameters';
+import { RateloomError, type FieldPath } from '../core/errors.js';
+import type { Chemistry as ChemistryModel } from '../chemistry/mechanism.js';
+import type { RateLawSpec } from '../kinetics/spec.js';
+import type { PressureDropSpec } from '../reactors/types.js';
+import { unitFor } from '../units/index.js';
+import type { ParameterRole } from './parameters.js';
 
 /**
  * True for a name that is a property of every plain object ('constructor', '__proto__',

@@ -1,5 +1,5 @@
 /** The study file: load, validate and resolve to SI. */
-export { loadStudy, STUDY_SCHEMA, type LoadOptions } from './load';
-export { checkSchema, type JsonSchema } from './schema-check';
-export { buildParameters, runParameterNames, referencedNames, type ParameterSpec } from './parameters';
-export * from './types';
+export { loadStudy, STUDY_SCHEMA, type LoadOptions } from './load.js';
+export { checkSchema, type JsonSchema } from './schema-check.js';
+export { buildParameters, runParameterNames, referencedNames, type ParameterSpec } from './parameters.js';
+export * from './types.js';

@@ -4,13 +4,13 @@
  * activity model's parameters (src/study/activity-params.ts).
  */
 import { isAbsolute, resolve } from 'node:path';
-import { RateloomError, isRateloomError } from '../core/errors';
-import { readCsv } from '../data/csv';
-import { activityParameters } from './activity-params';
-import { resolveLabConfig } from './lab-config';
-import { loadLabRows } from './lab-load';
-import type { ActivitySpec, LabDataSpec } from './lab-types';
-import { DEFAULT_ERROR_MODEL, type Observation, type Study } from './types';
+import { RateloomError, isRateloomError } from '../core/errors.js';
+import { readCsv } from '../data/csv.js';
+import { activityParameters } from './activity-params.js';
+import { resolveLabConfig } from './lab-config.js';
+import { loadLabRows } from './lab-load.js';
+import type { ActivitySpec, LabDataSpec } from './lab-types.js';
+import { DEFAULT_ERROR_MODEL, type Observation, type Study } from './types.js';
 
 export interface LabIo {
   /** Folder of the study file (lab file paths are relative to it). */

@@ -4,12 +4,12 @@
  * their stoichiometric factors, and the responses to fit. Mistakes in the section are
  * RateloomErrors naming the field.
  */
-import type { Chemistry } from '../chemistry/mechanism';
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import { stoichiometricFactor } from '../data/lab-arithmetic';
-import { unitFor } from '../units';
-import type { ErrorModel } from './types';
-import type { LabDataSpec, LabFitKind } from './lab-types';
+import type { Chemistry } from '../chemistry/mechanism.js';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { stoichiometricFactor } from '../data/lab-arithmetic.js';
+import { unitFor } from '../units/index.js';
+import type { ErrorModel } from './types.js';
+import type { LabDataSpec, LabFitKind } from './lab-types.js';
 
 /** Default largest excess of the measured fractions' sum over 1. */
 export const DEFAULT_SUM_TOLERANCE = 0.03;

@@ -6,15 +6,15 @@
  * derived quantities `check` shows: flows from the internal standard, conversion, selectivity,
  * yield and the element balance closure (outside the tolerance: warned, the run is kept).
  */
-import type { Chemistry } from '../chemistry/mechanism';
-import { RateloomError } from '../core/errors';
-import { columnIndex, type CsvRow, type CsvTable } from '../data/csv';
-import { conversionFromStandard, elementClosure, flowFromStandard, selectivity, yieldOf } from '../data/lab-arithmetic';
-import { unitFor } from '../units';
-import type { LabConfig } from './lab-config';
-import { labMeasures } from './lab-measures';
-import type { LabData, LabRunDerived } from './lab-types';
-import type { Observation, StudyRun } from './types';
+import type { Chemistry } from '../chemistry/mechanism.js';
+import { RateloomError } from '../core/errors.js';
+import { columnIndex, type CsvRow, type CsvTable } from '../data/csv.js';
+import { conversionFromStandard, elementClosure, flowFromStandard, selectivity, yieldOf } from '../data/lab-arithmetic.js';
+import { unitFor } from '../units/index.js';
+import type { LabConfig } from './lab-config.js';
+import { labMeasures } from './lab-measures.js';
+import type { LabData, LabRunDerived } from './lab-types.js';
+import type { Observation, StudyRun } from './types.js';
 
 const NUMBER_RE = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 

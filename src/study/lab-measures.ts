@@ -6,10 +6,10 @@
  *   sigma_h^2 = sum_i (dh/dy_i)^2 sigma_i^2,   sigma_i^2 = absolute^2 + (relative y_i)^2.
  * Derivatives by central differences on the fractions (h is a ratio of a few fractions).
  */
-import { conversionFromStandard, flowFromStandard, selectivity, yieldOf } from '../data/lab-arithmetic';
-import type { LabConfig, LabPair } from './lab-config';
-import type { LabFitKind, LabTerms } from './lab-types';
-import { sigmaFromModel } from './types';
+import { conversionFromStandard, flowFromStandard, selectivity, yieldOf } from '../data/lab-arithmetic.js';
+import type { LabConfig, LabPair } from './lab-config.js';
+import type { LabFitKind, LabTerms } from './lab-types.js';
+import { sigmaFromModel } from './types.js';
 
 /** One measured lab response of a run. */
 export interface LabMeasure {

@@ -4,7 +4,7 @@
  * selectivity and yield) and `activity` (catalyst activity over time on stream), and their
  * resolved forms carried by the Study.
  */
-import type { FieldSpec, MeasureSpec } from '../data/spec';
+import type { FieldSpec, MeasureSpec } from '../data/spec.js';
 
 /** Responses computed from analyser fractions; each is predicted from the model's outlet flows. */
 export type LabResponseKind = 'outlet-fraction' | 'fraction-ratio' | 'selectivity' | 'yield';

@@ -4,30 +4,30 @@
  * ValidationReport. Pure apart from the injected `readFile`.
  */
 import { dirname } from 'node:path';
-import { buildChemistry } from '../chemistry/mechanism';
-import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec';
-import { RateloomError, isRateloomError } from '../core/errors';
-import { parseJsonText } from '../core/json-text';
-import type { RateLawSpec } from '../kinetics/spec';
-import type { ReactorSpec } from '../reactors/types';
-import { unitFor } from '../units';
-import { mapLongSource, mapPerRunSource, type MappedObservation, type MappedRun, type MappedSource, type RowLocation } from '../data/mapping';
-import { DEFAULT_CHECKS, type CheckSettings } from '../data/report';
-import type { LongSourceSpec, MeasureSpec, PerRunSourceSpec, SourceSpec } from '../data/spec';
-import { Ledger, assertNoRejections, buildReport, checkAboveInlet, checkElementBalance, findReplicates, mergeDuplicateRuns, pureErrors, rejectZeroFeeds } from '../data/validation';
-import schemaJson from '../../schema/study.schema.json';
-import { checkSchema, type JsonSchema } from './schema-check';
-import { loadTransport } from './transport';
-import { locatePath } from './locate';
-import { readSources, type SourcePathOptions } from './sources';
-import { checkHostileNames, checkOrderSpecies, checkPressureDrop } from './guards';
-import { buildParameters, parameterRoles, referencedNames, type ParameterSpec } from './parameters';
-import { ratesOnlyRuns } from './rate-runs';
-import { parameterStartFor, runParameterNames } from './run-parameters';
-import { referenceTemperatureMatters } from './reference-temperature';
-import { attachLabData } from './lab-attach';
-import type { ActivitySpec, LabDataSpec } from './lab-types';
-import { DEFAULT_ERROR_MODEL, sigmaFromModel, type CandidateSet, type ErrorModel, type LoadedStudy, type Observation, type Study, type StudyRun } from './types';
+import { buildChemistry } from '../chemistry/mechanism.js';
+import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec.js';
+import { RateloomError, isRateloomError } from '../core/errors.js';
+import { parseJsonText } from '../core/json-text.js';
+import type { RateLawSpec } from '../kinetics/spec.js';
+import type { ReactorSpec } from '../reactors/types.js';
+import { unitFor } from '../units/index.js';
+import { mapLongSource, mapPerRunSource, type MappedObservation, type MappedRun, type MappedSource, type RowLocation } from '../data/mapping.js';
+import { DEFAULT_CHECKS, type CheckSettings } from '../data/report.js';
+import type { LongSourceSpec, MeasureSpec, PerRunSourceSpec, SourceSpec } from '../data/spec.js';
+import { Ledger, assertNoRejections, buildReport, checkAboveInlet, checkElementBalance, findReplicates, mergeDuplicateRuns, pureErrors, rejectZeroFeeds } from '../data/validation.js';
+import schemaJson from '../../schema/study.schema.json' with { type: 'json' };
+import { checkSchema, type JsonSchema } from './schema-check.js';
+import { loadTransport } from './transport.js';
+import { locatePath } from './locate.js';
+import { readSources, type SourcePathOptions } from './sources.js';
+import { checkHostileNames, checkOrderSpecies, checkPressureDrop } from './guards.js';
+import { buildParameters, parameterRoles, referencedNames, type ParameterSpec } from './parameters.js';
+import { ratesOnlyRuns } from './rate-runs.js';
+import { parameterStartFor, runParameterNames } from './run-parameters.js';
+import { referenceTemperatureMatters } from './reference-temperature.js';
+import { attachLabData } from './lab-attach.js';
+import type { ActivitySpec, LabDataSpec } from './lab-types.js';
+import { DEFAULT_ERROR_MODEL, sigmaFromModel, type CandidateSet, type ErrorModel, type LoadedStudy, type Observation, type Study, type StudyRun } from './types.js';
 
 /** The study-file schema as an object (the same file editors use). */
 export const STUDY_SCHEMA = schemaJson as unknown as JsonSchema;

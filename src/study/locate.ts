@@ -3,7 +3,7 @@
  * for array items), so that study-file errors can point at the line. A single left-to-right scan
  * over text already known to be valid JSON.
  */
-import type { FieldPath } from '../core/errors';
+import type { FieldPath } from '../core/errors.js';
 
 export interface TextPosition {
   line: number;

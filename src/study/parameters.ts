@@ -4,12 +4,12 @@
  * equilibrium or adsorption constants and 'none' otherwise; a 'per-run-group' parameter becomes
  * one copy per group, named '<base>@<group>'. Every name a rate law references must be declared.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
-import { makeParameter, type Parameter, type Transform } from '../core/parameter';
-import type { RateLawSpec } from '../kinetics/spec';
-import { compoundToSI } from '../units';
-import type { ParameterScope } from './types';
-import { checkRoleUnit } from './guards';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { makeParameter, type Parameter, type Transform } from '../core/parameter.js';
+import type { RateLawSpec } from '../kinetics/spec.js';
+import { compoundToSI } from '../units/index.js';
+import type { ParameterScope } from './types.js';
+import { checkRoleUnit } from './guards.js';
 
 /** A parameter as written in the study file. */
 export interface ParameterSpec {

@@ -8,7 +8,7 @@
  * The first problem found is thrown as a RateloomError with the field path; an unknown field
  * names the closest valid name.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors';
+import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 
 export interface JsonSchema {
   $ref?: string;

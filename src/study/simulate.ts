@@ -3,18 +3,18 @@
  * and solve the lab reactor per run (solveReactor). Per-run-group parameters take the copy of the
  * run's group. Numerical trouble in a run is that run's status, never a throw.
  */
-import { RateloomError } from '../core/errors';
-import type { Parameter } from '../core/parameter';
-import { compileKinetics } from '../kinetics/compile';
-import { solveReactor } from '../reactors';
-import type { ReactorProfile, ReactorSolution, ReactorStatus } from '../reactors/types';
-import { DEFAULT_BATCH_VOLUME } from '../reactors/batch';
-import { ROUND_OFF_NOTE, ROUND_OFF_TOLERANCE, shownAmounts } from '../reactors/round-off';
-import { compoundToSI } from '../units';
-import { activityOf } from './activity-params';
-import { runParameterNames } from './parameters';
-import { measuredConversions } from './summary';
-import type { Study, StudyRun } from './types';
+import { RateloomError } from '../core/errors.js';
+import type { Parameter } from '../core/parameter.js';
+import { compileKinetics } from '../kinetics/compile.js';
+import { solveReactor } from '../reactors/index.js';
+import type { ReactorProfile, ReactorSolution, ReactorStatus } from '../reactors/types.js';
+import { DEFAULT_BATCH_VOLUME } from '../reactors/batch.js';
+import { ROUND_OFF_NOTE, ROUND_OFF_TOLERANCE, shownAmounts } from '../reactors/round-off.js';
+import { compoundToSI } from '../units/index.js';
+import { activityOf } from './activity-params.js';
+import { runParameterNames } from './parameters.js';
+import { measuredConversions } from './summary.js';
+import type { Study, StudyRun } from './types.js';
 
 export interface SimulatedRun {
   runId: string;

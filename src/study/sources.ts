@@ -4,9 +4,9 @@
  * and messages show the path as written in the study, never the resolved one.
  */
 import { dirname, isAbsolute, relative, resolve, sep } from 'node:path';
-import { RateloomError, isRateloomError } from '../core/errors';
-import { readCsv, type CsvTable } from '../data/csv';
-import type { SourceSpec } from '../data/spec';
+import { RateloomError, isRateloomError } from '../core/errors.js';
+import { readCsv, type CsvTable } from '../data/csv.js';
+import type { SourceSpec } from '../data/spec.js';
 
 /** How data paths may be resolved. */
 export interface SourcePathOptions {

@@ -2,9 +2,9 @@
  * The study's `transport` block: the lab pellet (src/pellets/load.ts), the lab tube diameter and
  * the reaction enthalpies, read into SI for the transport diagnostics of the runs.
  */
-import { RateloomError } from '../core/errors';
-import { loadPellet, pelletQuantity } from '../pellets/load';
-import type { StudyTransport } from './types';
+import { RateloomError } from '../core/errors.js';
+import { loadPellet, pelletQuantity } from '../pellets/load.js';
+import type { StudyTransport } from './types.js';
 
 export function loadTransport(raw: unknown, species: readonly string[], reactionIds: readonly string[]): StudyTransport {
   const path = ['transport'];

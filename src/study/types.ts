@@ -2,18 +2,18 @@
  * The resolved study: validated, SI, ready for estimation and simulation. Produced by loadStudy
  * (load.ts) from the study file and its CSV sources.
  */
-import type { Chemistry } from '../chemistry/mechanism';
-import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec';
-import type { Parameter } from '../core/parameter';
-import type { ReactorSpec, RunConditions } from '../reactors/types';
-import type { ReplicateGroup, ValidationReport } from '../data/report';
-import type { ResponseKind, SourceSpec } from '../data/spec';
-import type { RunParameterRef } from '../data/run-parameters';
-import type { PelletSpec } from '../pellets/types';
-import type { PelletFluid } from '../pellets/load';
-import type { Activity, LabData, LabResponseKind, LabTerms } from './lab-types';
+import type { Chemistry } from '../chemistry/mechanism.js';
+import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec.js';
+import type { Parameter } from '../core/parameter.js';
+import type { ReactorSpec, RunConditions } from '../reactors/types.js';
+import type { ReplicateGroup, ValidationReport } from '../data/report.js';
+import type { ResponseKind, SourceSpec } from '../data/spec.js';
+import type { RunParameterRef } from '../data/run-parameters.js';
+import type { PelletSpec } from '../pellets/types.js';
+import type { PelletFluid } from '../pellets/load.js';
+import type { Activity, LabData, LabResponseKind, LabTerms } from './lab-types.js';
 
-export type { ResponseKind } from '../data/spec';
+export type { ResponseKind } from '../data/spec.js';
 
 /** Where a value came from: file and 1-based line (and column header) of the CSV. */
 export interface SourceLocation {

@@ -10,7 +10,7 @@
  * chemistry tables. Exponents may be negative or fractional ('Pa^1.5', 's-1'). Atoms and their
  * factors come from table.ts (NIST SP 811 Appendix B, SI Brochure 9th ed.).
  */
-import { ALIASES, ATOMS, DIM_NAMES, type Dims } from './table';
+import { ALIASES, ATOMS, DIM_NAMES, type Dims } from './table.js';
 
 export interface ParsedUnit {
   /** Multiply a value in this unit by `factor` to get SI. */

@@ -6,9 +6,9 @@
  * Temperatures in degC/degF are affine; gauge pressures (barg, psig, kPa(g)) need the column to be
  * marked gauge and an ambient pressure.
  */
-import { RateloomError, closestName, type ErrorLocation, type FieldPath } from '../core/errors';
-import { formatSiUnit, parseCompoundUnit, sameDims, UnitSyntaxError, type ParsedUnit } from './parse';
-import { AFFINE_TEMPERATURE, DIMS, TEMPERATURE_ALIASES, type Dims } from './table';
+import { RateloomError, closestName, type ErrorLocation, type FieldPath } from '../core/errors.js';
+import { formatSiUnit, parseCompoundUnit, sameDims, UnitSyntaxError, type ParsedUnit } from './parse.js';
+import { AFFINE_TEMPERATURE, DIMS, TEMPERATURE_ALIASES, type Dims } from './table.js';
 
 export type Quantity =
   | 'molar-flow'

@@ -4,8 +4,8 @@
  * solving the reactor at the equivalent contact size a * size (exact for the isobaric reactors
  * the activity section admits: every balance term then scales with the rates alone).
  */
-import { activityOf } from '../study/activity-params';
-import type { Study } from '../study/types';
+import { activityOf } from '../study/activity-params.js';
+import type { Study } from '../study/types.js';
 
 export class ActivityTerms {
   /** Index in the full parameter vector of each activity parameter. */

@@ -2,9 +2,9 @@
  * Fit every rate-law set of a study (the study's own and each candidate) to the same data and rank
  * them with estimation/compare.ts (SSR, dof, AICc, BIC, Akaike weights, F tests for nested pairs).
  */
-import { compareModels, type Comparison } from '../estimation/compare';
-import type { Study } from '../study/types';
-import { fitStudy, studyVariants, type StudyFit, type StudyFitOptions } from './fit-study';
+import { compareModels, type Comparison } from '../estimation/compare.js';
+import type { Study } from '../study/types.js';
+import { fitStudy, studyVariants, type StudyFit, type StudyFitOptions } from './fit-study.js';
 
 export interface StudyComparison {
   fits: StudyFit[];

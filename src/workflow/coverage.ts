@@ -2,9 +2,9 @@
  * The range of conditions a study's data covered, carried in the fitted-kinetics hand-off so that
  * sizing can warn when a production case extrapolates.
  */
-import type { FittedKinetics, Range } from '../design/handoff';
-import type { Study } from '../study/types';
-import { measuredConversions } from '../study/summary';
+import type { FittedKinetics, Range } from '../design/handoff.js';
+import type { Study } from '../study/types.js';
+import { measuredConversions } from '../study/summary.js';
 
 function range(values: number[], unit: string): Range | undefined {
   const v = values.filter(Number.isFinite);

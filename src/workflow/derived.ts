@@ -8,10 +8,10 @@
  * covariance. The same holds for K = K0 exp(-dH/(R T)) with K0 = K_ref exp(dH/(R T_ref)).
  * Intervals are built on ln A (normal or t quantile as for the parameters) and mapped back.
  */
-import type { FitResult } from '../estimation/fit-types';
-import { normalQuantile, studentTQuantile } from '../estimation/distributions';
-import type { RateLawSpec } from '../kinetics/spec';
-import { GAS_CONSTANT } from '../kinetics/temperature';
+import type { FitResult } from '../estimation/fit-types.js';
+import { normalQuantile, studentTQuantile } from '../estimation/distributions.js';
+import type { RateLawSpec } from '../kinetics/spec.js';
+import { GAS_CONSTANT } from '../kinetics/temperature.js';
 
 export interface DerivedQuantity {
   /** e.g. 'A(k1)'. */

@@ -9,9 +9,9 @@
  * standard deviation; cited from memory), pooled over the groups. Without an activity model a flagged spread is a warning: the rate
  * constants absorb the decay.
  */
-import type { Warning } from '../core/outcome';
-import { chiSquareCdf } from '../estimation/distributions';
-import type { Observation, Study } from '../study/types';
+import type { Warning } from '../core/outcome.js';
+import { chiSquareCdf } from '../estimation/distributions.js';
+import type { Observation, Study } from '../study/types.js';
 
 /** Significance level of the drift test. */
 export const DRIFT_ALPHA = 0.01;

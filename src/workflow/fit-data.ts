@@ -9,8 +9,8 @@
  * observation has a sigma column or an error model whose size is known; one 'unweighted' response
  * or one error model with size 'weights' makes the fit estimate one common scale factor.
  */
-import type { FitData } from '../estimation/fit-types';
-import { sigmaFromModel, type Study } from '../study/types';
+import type { FitData } from '../estimation/fit-types.js';
+import { sigmaFromModel, type Study } from '../study/types.js';
 
 export interface StudyFitData extends FitData {
   /** Per observation: how sigma was obtained. */

@@ -3,14 +3,14 @@
  * (report/types.ts). Only reshapes numbers it is handed, plus one profile solve per profiled run
  * at the fitted parameters for the predicted curves.
  */
-import { transportReportData } from './pellet-report-data';
-import type { Comparison } from '../estimation/compare';
-import type { FitReportData, ParameterRowData, RunObservationData, RunProfileData, RivalModelData, StartValuesData } from '../report/types';
-import type { Study } from '../study/types';
-import type { StudyFit } from './fit-study';
-import { feedRatio, responseLabel, spaceTime } from './labels';
-import { labReportData } from './lab-report-data';
-import { VERSION } from '../version';
+import { transportReportData } from './pellet-report-data.js';
+import type { Comparison } from '../estimation/compare.js';
+import type { FitReportData, ParameterRowData, RunObservationData, RunProfileData, RivalModelData, StartValuesData } from '../report/types.js';
+import type { Study } from '../study/types.js';
+import type { StudyFit } from './fit-study.js';
+import { feedRatio, responseLabel, spaceTime } from './labels.js';
+import { labReportData } from './lab-report-data.js';
+import { VERSION } from '../version.js';
 
 const COVARIANCE_TEXT: Record<string, string> = {
   's2-scaled': 's² (JᵀJ)⁻¹ at the optimum (sigma scale estimated from the residuals)',

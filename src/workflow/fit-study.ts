@@ -2,23 +2,23 @@
  * Fit a study (or one of its candidate rate-law sets): build the study model, the fit data, run
  * the estimator, and assemble the fitted-kinetics hand-off for design.
  */
-import { tankBranchWarnings } from './tank-branches';
-import { fitModel } from '../estimation/fit';
-import { multistartFit, type Minimum, type StartRun } from '../estimation/multistart';
-import type { FitOptions, FitResult } from '../estimation/fit-types';
-import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics } from '../design/handoff';
-import { handoffHash } from '../design/handoff-hash';
-import { RateloomError, closestName } from '../core/errors';
-import type { Study } from '../study/types';
-import { studyCoverage } from './coverage';
-import { nameObservations } from './observation-names';
-import { derivedQuantities, type DerivedQuantity } from './derived';
-import { driftCheck } from './drift';
-import { studyFitData, type StudyFitData } from './fit-data';
-import { StudyModel, baseVariant, candidateVariant, type ModelVariant, type StudyModelOptions } from './study-model';
-import { estimateStartValues, type StartValueOptions, type StartValues } from './start-values';
-import { VERSION } from '../version';
-import { fittedLabTransport, type LabTransport } from './lab-transport';
+import { tankBranchWarnings } from './tank-branches.js';
+import { fitModel } from '../estimation/fit.js';
+import { multistartFit, type Minimum, type StartRun } from '../estimation/multistart.js';
+import type { FitOptions, FitResult } from '../estimation/fit-types.js';
+import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics } from '../design/handoff.js';
+import { handoffHash } from '../design/handoff-hash.js';
+import { RateloomError, closestName } from '../core/errors.js';
+import type { Study } from '../study/types.js';
+import { studyCoverage } from './coverage.js';
+import { nameObservations } from './observation-names.js';
+import { derivedQuantities, type DerivedQuantity } from './derived.js';
+import { driftCheck } from './drift.js';
+import { studyFitData, type StudyFitData } from './fit-data.js';
+import { StudyModel, baseVariant, candidateVariant, type ModelVariant, type StudyModelOptions } from './study-model.js';
+import { estimateStartValues, type StartValueOptions, type StartValues } from './start-values.js';
+import { VERSION } from '../version.js';
+import { fittedLabTransport, type LabTransport } from './lab-transport.js';
 
 export interface StudyFitOptions extends FitOptions {
   /** Candidate rate-law set to fit ('base' = the study's own rate laws); default 'base'. */

@@ -7,8 +7,8 @@
  *   yield            g = f (F_P - F_P0) / F_A0          dg/dF_P = f/F_A0
  * Method: mole balance bookkeeping (common practice); see src/data/lab-arithmetic.ts.
  */
-import { fractionsFromFlows, selectivity, yieldOf } from '../data/lab-arithmetic';
-import type { Observation, StudyRun } from '../study/types';
+import { fractionsFromFlows, selectivity, yieldOf } from '../data/lab-arithmetic.js';
+import type { Observation, StudyRun } from '../study/types.js';
 
 /** True for the responses this file predicts. */
 export function isLabResponse(o: Pick<Observation, 'response'>): boolean {

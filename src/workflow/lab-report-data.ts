@@ -4,11 +4,11 @@
  * the rate constants with the fitted decay rate and its interval, and the repeated reference
  * conditions against time on stream (src/workflow/drift.ts).
  */
-import type { LabReportData } from '../report/types';
-import type { Study } from '../study/types';
-import { driftCheck } from './drift';
-import type { StudyFit } from './fit-study';
-import { responseLabel } from './labels';
+import type { LabReportData } from '../report/types.js';
+import type { Study } from '../study/types.js';
+import { driftCheck } from './drift.js';
+import type { StudyFit } from './fit-study.js';
+import { responseLabel } from './labels.js';
 
 /** Why the fractions are fitted as measured (shown whenever a study has lab data). */
 export const FRACTIONS_NOTE =

@@ -8,21 +8,21 @@
  * (the largest in the bed for rates that fall with conversion, so the check errs on the safe
  * side); before a fit (`rateloom check`), the mean rate F_A0 X / W from the measured conversion.
  */
-import type { Study, StudyRun } from '../study/types';
-import type { CompiledKinetics } from '../kinetics/compiled';
-import type { Warning } from '../core/outcome';
-import type { FitResult } from '../estimation/fit-types';
-import type { StudyModel } from './study-model';
-import { GAS_CONSTANT } from '../kinetics/temperature';
-import { molarMassOf } from '../chemistry/formula';
-import { measuredConversions } from '../study/summary';
-import { pelletGeometry } from '../pellets/geometry';
-import { effectiveDiffusivities, molecularDiffusivities } from '../pellets/diffusivity';
-import { HEAT_TRANSFER, MASS_TRANSFER, heatTransfer, massTransfer, rangeWarning } from '../pellets/external';
+import type { Study, StudyRun } from '../study/types.js';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
+import type { Warning } from '../core/outcome.js';
+import type { FitResult } from '../estimation/fit-types.js';
+import type { StudyModel } from './study-model.js';
+import { GAS_CONSTANT } from '../kinetics/temperature.js';
+import { molarMassOf } from '../chemistry/formula.js';
+import { measuredConversions } from '../study/summary.js';
+import { pelletGeometry } from '../pellets/geometry.js';
+import { effectiveDiffusivities, molecularDiffusivities } from '../pellets/diffusivity.js';
+import { HEAT_TRANSFER, MASS_TRANSFER, heatTransfer, massTransfer, rangeWarning } from '../pellets/external.js';
 import {
   ACTIVATION_ENERGY_NOTE, MEARS_LIMIT, WEISZ_PRATER_LIMIT, diagnosticsWarnings, runDiagnostics,
   type RunDiagnostics, type TransportContext,
-} from '../pellets/diagnostics';
+} from '../pellets/diagnostics.js';
 
 export interface LabTransport {
   /** Where the observed rates came from. */

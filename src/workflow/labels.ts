@@ -1,8 +1,8 @@
 /**
  * Labels and SI units of responses and run conditions, shared by reports and command output.
  */
-import type { Observation, Study, StudyRun } from '../study/types';
-import { spaceTime as studySpaceTime } from '../study/summary';
+import type { Observation, Study, StudyRun } from '../study/types.js';
+import { spaceTime as studySpaceTime } from '../study/summary.js';
 
 /** Label and SI unit of an observation's response, e.g. { label: 'F_A out', unit: 'mol/s' }. */
 export function responseLabel(o: Pick<Observation, 'response' | 'species' | 'lab'>, study: Pick<Study, 'reactor'>): { label: string; unit: string } {

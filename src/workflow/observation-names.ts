@@ -3,9 +3,9 @@
  * rewrites make the influence warning and the misfit verdict name them: the runs and responses
  * whose weighted residuals are largest (root mean square, in units of sigma).
  */
-import type { VerdictReason } from '../core/verdict';
-import type { FitResult } from '../estimation/fit-types';
-import type { Study } from '../study/types';
+import type { VerdictReason } from '../core/verdict.js';
+import type { FitResult } from '../estimation/fit-types.js';
+import type { Study } from '../study/types.js';
 
 const label = (study: Study, i: number): string => {
   const o = study.observations[i];

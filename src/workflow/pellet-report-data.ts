@@ -2,9 +2,9 @@
  * From the pellet parts of a sizing result and of a study's transport diagnostics to the report
  * view models (report/types.ts): reshaping and unit changes only (mm, kPa).
  */
-import type { PelletSizing } from '../design/pellet-sizing';
-import type { LabTransport } from './lab-transport';
-import type { PelletReportData, TransportReportData } from '../report/types';
+import type { PelletSizing } from '../design/pellet-sizing.js';
+import type { LabTransport } from './lab-transport.js';
+import type { PelletReportData, TransportReportData } from '../report/types.js';
 
 export function pelletReportData(p: PelletSizing, nominalSize: number | null): PelletReportData {
   return {

@@ -2,10 +2,10 @@
  * From a sizing result (design/size.ts) to the sizing report's view model (report/types.ts).
  * Only reshapes numbers; the cautions are passed through unchanged, always.
  */
-import type { SizingResult } from '../design/size';
-import type { SizingReportData } from '../report/types';
-import { VERSION } from '../version';
-import { pelletReportData } from './pellet-report-data';
+import type { SizingResult } from '../design/size.js';
+import type { SizingReportData } from '../report/types.js';
+import { VERSION } from '../version.js';
+import { pelletReportData } from './pellet-report-data.js';
 
 function targetText(r: SizingResult): SizingReportData['target'] {
   const t = r.target;

@@ -26,14 +26,14 @@
  * 1 / (mean inlet concentration, or partial pressure, of its species) so that its term in the
  * denominator is of order 1. Estimates are put inside the parameter bounds. Pure: no I/O.
  */
-import type { Parameter } from '../core/parameter';
-import { compileKinetics } from '../kinetics/compile';
-import type { RateLawSpec } from '../kinetics/spec';
-import { R_GAS } from '../reactors/gas';
-import { weightedLinearLeastSquares } from '../estimation/linear-regression';
-import { parameterRoles } from '../study/parameters';
-import type { Study, StudyRun } from '../study/types';
-import { inletConcentrations, rateConcentrations, type ModelVariant } from './study-model';
+import type { Parameter } from '../core/parameter.js';
+import { compileKinetics } from '../kinetics/compile.js';
+import type { RateLawSpec } from '../kinetics/spec.js';
+import { R_GAS } from '../reactors/gas.js';
+import { weightedLinearLeastSquares } from '../estimation/linear-regression.js';
+import { parameterRoles } from '../study/parameters.js';
+import type { Study, StudyRun } from '../study/types.js';
+import { inletConcentrations, rateConcentrations, type ModelVariant } from './study-model.js';
 
 /** How one open starting value was obtained. */
 export interface EstimatedStart {

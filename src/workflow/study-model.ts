@@ -7,20 +7,20 @@
  * parameter mapping and the log transform; rate data are predicted from the rate law directly,
  * without integration.
  */
-import { RateloomError } from '../core/errors';
-import type { Parameter } from '../core/parameter';
-import { compileKinetics, type CompiledKineticsInfo } from '../kinetics/compile';
-import type { RateLawSpec } from '../kinetics/spec';
-import { solveReactor } from '../reactors';
-import { prepareFlowTube, solvePreparedTube, type PreparedTube } from '../reactors/flow-tube';
-import { R_GAS } from '../reactors/gas';
-import type { ReactorOptions, ReactorSolution, RunConditions } from '../reactors/types';
-import type { PredictionFailure, RegressionModel } from '../estimation/model';
-import type { CandidateSet, Observation, Study, StudyRun } from '../study/types';
-import { RunValues } from './run-values';
-import { measuredStarts } from './tank-start';
-import { ActivityTerms } from './activity-terms';
-import { isLabResponse, labGradient, labValue } from './lab-predict';
+import { RateloomError } from '../core/errors.js';
+import type { Parameter } from '../core/parameter.js';
+import { compileKinetics, type CompiledKineticsInfo } from '../kinetics/compile.js';
+import type { RateLawSpec } from '../kinetics/spec.js';
+import { solveReactor } from '../reactors/index.js';
+import { prepareFlowTube, solvePreparedTube, type PreparedTube } from '../reactors/flow-tube.js';
+import { R_GAS } from '../reactors/gas.js';
+import type { ReactorOptions, ReactorSolution, RunConditions } from '../reactors/types.js';
+import type { PredictionFailure, RegressionModel } from '../estimation/model.js';
+import type { CandidateSet, Observation, Study, StudyRun } from '../study/types.js';
+import { RunValues } from './run-values.js';
+import { measuredStarts } from './tank-start.js';
+import { ActivityTerms } from './activity-terms.js';
+import { isLabResponse, labGradient, labValue } from './lab-predict.js';
 
 /** Options of the study model. */
 export interface StudyModelOptions {

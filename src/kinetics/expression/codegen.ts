@@ -18,7 +18,7 @@
  * indices and a closed set of operator and function tags. The function body runs in strict mode
  * and receives Math and the helper functions as arguments, so it touches no other scope.
  */
-import { RUNTIME, children, type Node } from './ast';
+import { RUNTIME, children, type Node } from './ast.js';
 
 const ACCESS_RE = /^[A-Za-z_][A-Za-z0-9_]*(\[\d+\])?$/;
 const NUMBER_TEXT_RE = /^-?(\d+(\.\d+)?|\.\d+)(e[+-]?\d+)?$/;

@@ -12,7 +12,7 @@
  *  - abs: sign(u) u'; min/max: the derivative of the selected argument (ties pick the second).
  *  - step and sign: 0; reg(u): step(u - 1e-30) u'.
  */
-import { NodeStore, TINY, type Node } from './ast';
+import { NodeStore, TINY, type Node } from './ast.js';
 
 /** d root / d variable v, built in the same store (so results share nodes with the input). */
 export function differentiate(store: NodeStore, root: Node, v: number, memo = new Map<number, Node>()): Node {

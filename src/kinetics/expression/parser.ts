@@ -15,9 +15,9 @@
  * globalThis, this, Function, eval, ...) are refused by name. Nesting depth and tree height are
  * bounded so hostile input fails fast with a typed error instead of exhausting the stack.
  */
-import { closestName, type FieldPath } from '../../core/errors';
-import type { Node, NodeStore } from './ast';
-import { MAX_EXPRESSION_LENGTH, expressionError, tokenize, type Token } from './tokenizer';
+import { closestName, type FieldPath } from '../../core/errors.js';
+import type { Node, NodeStore } from './ast.js';
+import { MAX_EXPRESSION_LENGTH, expressionError, tokenize, type Token } from './tokenizer.js';
 
 /** Functions a user may call, with their arity (min/max take two or more arguments). */
 export const USER_FUNCTIONS: ReadonlyMap<string, { min: number; max: number }> = new Map([

@@ -3,7 +3,7 @@
  * precedence), used for debugging, describe() output and round-trip tests. The printed text parses
  * back to the same tree when every variable name maps to the same variable.
  */
-import type { Node } from './ast';
+import type { Node } from './ast.js';
 
 /** Precedence: higher binds tighter. */
 const PREC = { add: 1, sub: 1, mul: 2, div: 2, neg: 3, pow: 4, atom: 5 } as const;

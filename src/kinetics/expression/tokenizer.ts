@@ -6,7 +6,7 @@
  * brackets, quotes and backticks, assignment). The tokenizer is a single left-to-right scan,
  * linear in the input length.
  */
-import { RateloomError, type FieldPath } from '../../core/errors';
+import { RateloomError, type FieldPath } from '../../core/errors.js';
 
 export type Token =
   | { readonly kind: 'num'; readonly value: number; readonly text: string; readonly col: number }

@@ -11,13 +11,13 @@
  * its finite-difference Jacobian); the hottest point is located as an event where dT/dt changes
  * sign from + to -. A run passing the runaway cap (default T0 + 1000 K) stops as 'runaway'.
  */
-import { outcome, type Outcome } from '../../core/outcome';
-import type { CompiledKinetics } from '../../kinetics/compiled';
-import { integrate } from '../../numerics/integrate';
-import type { OdeEvent } from '../../numerics/ode-types';
-import type { ReactionEnthalpy } from './enthalpy';
-import { cpAt, cpIntegral, type HeatCapacity } from './heat-capacity';
-import { THERMAL_STATUS, type ThermalStatus } from './thermal-tube';
+import { outcome, type Outcome } from '../../core/outcome.js';
+import type { CompiledKinetics } from '../../kinetics/compiled.js';
+import { integrate } from '../../numerics/integrate.js';
+import type { OdeEvent } from '../../numerics/ode-types.js';
+import type { ReactionEnthalpy } from './enthalpy.js';
+import { cpAt, cpIntegral, type HeatCapacity } from './heat-capacity.js';
+import { THERMAL_STATUS, type ThermalStatus } from './thermal-tube.js';
 
 export interface BatchHeatSpec {
   /** Initial temperature, K. */

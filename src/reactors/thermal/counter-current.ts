@@ -11,10 +11,10 @@
  * the iterations, the final residual |Ta(L) - Ta,in| and the bracket; a failure is the status
  * 'bvp-not-converged' with a message naming the coolant inputs and what to change.
  */
-import { outcome } from '../../core/outcome';
-import { brent } from '../../numerics/roots';
-import type { ThermalSolveOptions, ThermalTube, ThermalTubeSolution } from './thermal-tube';
-import { THERMAL_STATUS } from './thermal-tube';
+import { outcome } from '../../core/outcome.js';
+import { brent } from '../../numerics/roots.js';
+import type { ThermalSolveOptions, ThermalTube, ThermalTubeSolution } from './thermal-tube.js';
+import { THERMAL_STATUS } from './thermal-tube.js';
 
 export interface ShootingReport {
   method: 'shooting on the coolant temperature at the gas inlet (Brent)';

@@ -5,7 +5,7 @@
  * Species without a heat capacity (ones that never flow) contribute nothing; the caller has refused
  * a missing heat capacity for any species that flows (thermal-inputs.ts).
  */
-import { cpAt, cpIntegral, type HeatCapacity } from './heat-capacity';
+import { cpAt, cpIntegral, type HeatCapacity } from './heat-capacity.js';
 
 export class ReactionEnthalpy {
   readonly nR: number;

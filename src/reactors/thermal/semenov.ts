@@ -10,7 +10,7 @@
  * is the critical temperature minus the design Ta. Consumption of reactant is ignored, so the
  * criterion is conservative for fast, low-order reactions (common practice).
  */
-import { brent } from '../../numerics/roots';
+import { brent } from '../../numerics/roots.js';
 
 /** 1/e: the critical Semenov number. */
 export const SEMENOV_CRITICAL = Math.exp(-1);

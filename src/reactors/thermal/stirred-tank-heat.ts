@@ -19,13 +19,13 @@
  * flows bounded below by 0) continued from the previous temperature; it is taken to have one
  * solution at each T (the usual case for rate laws with non-negative orders).
  */
-import { outcome, type Outcome, type StatusTable } from '../../core/outcome';
-import type { CompiledKinetics } from '../../kinetics/compiled';
-import { findAllRoots } from '../../numerics/roots';
-import { newton } from '../../numerics/newton';
-import { R_GAS } from '../gas';
-import type { ReactionEnthalpy } from './enthalpy';
-import { cpIntegral, type HeatCapacity } from './heat-capacity';
+import { outcome, type Outcome, type StatusTable } from '../../core/outcome.js';
+import type { CompiledKinetics } from '../../kinetics/compiled.js';
+import { findAllRoots } from '../../numerics/roots.js';
+import { newton } from '../../numerics/newton.js';
+import { R_GAS } from '../gas.js';
+import type { ReactionEnthalpy } from './enthalpy.js';
+import { cpIntegral, type HeatCapacity } from './heat-capacity.js';
 
 /** A stirred tank with heat exchange, SI. */
 export interface StirredTankHeatSpec {

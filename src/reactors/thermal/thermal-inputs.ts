@@ -3,8 +3,8 @@
  * the case-file field under `heat` and the fix. There is no isothermal fallback: a cooled or
  * adiabatic mode with missing data is refused, never solved as isothermal.
  */
-import { RateloomError } from '../../core/errors';
-import type { ThermalTubeSpec } from './tube-balances';
+import { RateloomError } from '../../core/errors.js';
+import type { ThermalTubeSpec } from './tube-balances.js';
 
 /** Refuse a spec the balances cannot use; species names for the messages. */
 export function checkThermalSpec(spec: ThermalTubeSpec, species: readonly string[]): void {

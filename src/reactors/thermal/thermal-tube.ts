@@ -10,12 +10,12 @@
  * temperature passes the runaway cap (status 'runaway') and where the pressure runs out.
  * Numerical trouble is a status on the result, never a throw.
  */
-import { outcome, type Outcome, type StatusTable } from '../../core/outcome';
-import type { CompiledKinetics } from '../../kinetics/compiled';
-import { OdeWorkspace } from '../../numerics/integrate';
-import type { OdeEvent, OdeOptions, OdeResult } from '../../numerics/ode-types';
-import { TubeBalances, type ThermalTubeSpec } from './tube-balances';
-import { shootCounterCurrent, type ShootingReport } from './counter-current';
+import { outcome, type Outcome, type StatusTable } from '../../core/outcome.js';
+import type { CompiledKinetics } from '../../kinetics/compiled.js';
+import { OdeWorkspace } from '../../numerics/integrate.js';
+import type { OdeEvent, OdeOptions, OdeResult } from '../../numerics/ode-types.js';
+import { TubeBalances, type ThermalTubeSpec } from './tube-balances.js';
+import { shootCounterCurrent, type ShootingReport } from './counter-current.js';
 
 export type ThermalStatus = 'success' | 'target-reached' | 'runaway' | 'pressure-exhausted' | 'integration-failed' | 'bvp-not-converged';
 

@@ -20,12 +20,12 @@
  * sqrt(eps) max(|y_k|, scale_k) (the documented fallback: the compiled kinetics give dr/dC but not
  * dr/dT). No allocation per call.
  */
-import type { CompiledKinetics } from '../../kinetics/compiled';
-import type { ReactionEnthalpy } from './enthalpy';
-import type { HeatCapacity } from './heat-capacity';
-import { cpAt } from './heat-capacity';
-import { stateLayout, type CoolingMode, type StateLayout } from './layout';
-import { R_GAS } from '../gas';
+import type { CompiledKinetics } from '../../kinetics/compiled.js';
+import type { ReactionEnthalpy } from './enthalpy.js';
+import type { HeatCapacity } from './heat-capacity.js';
+import { cpAt } from './heat-capacity.js';
+import { stateLayout, type CoolingMode, type StateLayout } from './layout.js';
+import { R_GAS } from '../gas.js';
 
 /**
  * Per-reaction multiplicative factor on the intrinsic rate (effectiveness factor of a pellet

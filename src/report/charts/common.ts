@@ -4,7 +4,7 @@
  * Builders never emit a `$schema` URL: reports must not reference anything on the network.
  */
 import type { TopLevelSpec } from 'vega-lite';
-import { CHART_CONFIG, CHART_HEIGHT, CHART_WIDTH } from '../theme';
+import { CHART_CONFIG, CHART_HEIGHT, CHART_WIDTH } from '../theme.js';
 
 /** Size options accepted by every builder. */
 export interface ChartSize {

@@ -2,9 +2,9 @@
  * Flattening of runs into chart rows and the run-condition axes (T, P, space time, feed ratio)
  * that residual charts are drawn against. Pressure is shown in kPa.
  */
-import { axisTitle, paToKPa } from '../format';
-import { OKABE_ITO, SHAPES } from '../theme';
-import type { RunObservationData } from '../types';
+import { axisTitle, paToKPa } from '../format.js';
+import { OKABE_ITO, SHAPES } from '../theme.js';
+import type { RunObservationData } from '../types.js';
 
 /** One observation as a flat chart row. */
 export interface ObservationRow {

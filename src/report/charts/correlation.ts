@@ -2,10 +2,10 @@
  * Correlation heat map of the parameter estimates: a diverging colour scale fixed to [-1, 1]
  * (Paul Tol's BuRd) with the coefficient printed in each cell.
  */
-import { axisTitle } from '../format';
-import { TOL_BURD } from '../theme';
-import type { ChartSpec, CorrelationData } from '../types';
-import { caption, topLevel, type ChartSize } from './common';
+import { axisTitle } from '../format.js';
+import { TOL_BURD } from '../theme.js';
+import type { ChartSpec, CorrelationData } from '../types.js';
+import { caption, topLevel, type ChartSize } from './common.js';
 
 /** The heat map, or an empty list when there is no matrix. */
 export function correlationCharts(corr: CorrelationData | null | undefined, size: ChartSize = {}): ChartSpec[] {

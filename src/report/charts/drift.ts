@@ -3,10 +3,10 @@
  * +/- 1 sigma bars where known) and predicted at the fitted parameters (line), against time on
  * stream (h) or sequence number; one colour per reference group.
  */
-import { axisTitle } from '../format';
-import { OKABE_ITO } from '../theme';
-import type { ChartSpec, LabReportData } from '../types';
-import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common';
+import { axisTitle } from '../format.js';
+import { OKABE_ITO } from '../theme.js';
+import type { ChartSpec, LabReportData } from '../types.js';
+import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common.js';
 
 /** The drift chart of a fit report's lab section (none without reference groups). */
 export function driftCharts(lab: LabReportData | null | undefined, size: ChartSize = {}): ChartSpec[] {

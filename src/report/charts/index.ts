@@ -1,22 +1,22 @@
 /**
  * All charts of a fit report and of a sizing report, in document order.
  */
-import type { ChartSpec, FitReportData, SizingReportData } from '../types';
-import { correlationCharts } from './correlation';
-import { driftCharts } from './drift';
-import { likelihoodCharts } from './likelihood';
-import { parityCharts } from './parity';
-import { productionCharts } from './production';
-import { pelletCharts } from './pellets';
-import { thermalCharts } from './thermal';
-import { profileCharts } from './profiles';
-import { residualCharts } from './residuals';
-import { rivalCharts } from './rivals';
-import { sensitivityCharts } from './sensitivity';
-import { sizeDistributionCharts } from './size-distribution';
+import type { ChartSpec, FitReportData, SizingReportData } from '../types.js';
+import { correlationCharts } from './correlation.js';
+import { driftCharts } from './drift.js';
+import { likelihoodCharts } from './likelihood.js';
+import { parityCharts } from './parity.js';
+import { productionCharts } from './production.js';
+import { pelletCharts } from './pellets.js';
+import { thermalCharts } from './thermal.js';
+import { profileCharts } from './profiles.js';
+import { residualCharts } from './residuals.js';
+import { rivalCharts } from './rivals.js';
+import { sensitivityCharts } from './sensitivity.js';
+import { sizeDistributionCharts } from './size-distribution.js';
 
 export { correlationCharts, driftCharts, likelihoodCharts, parityCharts, pelletCharts, productionCharts, profileCharts, residualCharts, rivalCharts, sensitivityCharts, sizeDistributionCharts };
-export { binSamples } from './size-distribution';
+export { binSamples } from './size-distribution.js';
 
 /** Charts of a fit report grouped by section. */
 export interface FitChartGroups {

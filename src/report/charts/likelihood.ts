@@ -3,10 +3,10 @@
  * parameter's value, with the threshold that bounds the profile interval (dashed) and the
  * estimate (dotted). Where the curve crosses the threshold are the interval ends.
  */
-import { axisTitle, slug } from '../format';
-import { INK, OKABE_ITO } from '../theme';
-import type { ChartSpec, LikelihoodProfileData } from '../types';
-import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common';
+import { axisTitle, slug } from '../format.js';
+import { INK, OKABE_ITO } from '../theme.js';
+import type { ChartSpec, LikelihoodProfileData } from '../types.js';
+import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common.js';
 
 /** One chart per parameter profile. */
 export function likelihoodCharts(profiles: LikelihoodProfileData[] | undefined, size: ChartSize = {}): ChartSpec[] {

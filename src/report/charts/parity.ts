@@ -2,12 +2,12 @@
  * Parity plot: predicted against measured for one response, with the y = x line. Both axes share
  * one padded domain so distance from the line reads the same in both directions.
  */
-import { axisTitle } from '../format';
-import { INK } from '../theme';
-import type { ChartSpec, RunObservationData } from '../types';
-import { caption, droppedNote, keepFinite, paddedDomain, topLevel, type ChartSize } from './common';
-import { observationRows, temperatureColour, temperatureShape } from './conditions';
-import { slug } from '../format';
+import { axisTitle } from '../format.js';
+import { INK } from '../theme.js';
+import type { ChartSpec, RunObservationData } from '../types.js';
+import { caption, droppedNote, keepFinite, paddedDomain, topLevel, type ChartSize } from './common.js';
+import { observationRows, temperatureColour, temperatureShape } from './conditions.js';
+import { slug } from '../format.js';
 
 /** One parity chart per response label, in first-seen order. */
 export function parityCharts(runs: RunObservationData[], size: ChartSize = {}): ChartSpec[] {

@@ -3,10 +3,10 @@
  * and the pellet trade-off (catalyst mass and pressure drop against pellet diameter, two panels
  * side by side sharing the diameter axis).
  */
-import { axisTitle } from '../format';
-import { OKABE_ITO } from '../theme';
-import type { ChartSpec, PelletReportData } from '../types';
-import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common';
+import { axisTitle } from '../format.js';
+import { OKABE_ITO } from '../theme.js';
+import type { ChartSpec, PelletReportData } from '../types.js';
+import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common.js';
 
 /** eta along the bed. */
 function etaChart(p: PelletReportData, size: ChartSize): ChartSpec {

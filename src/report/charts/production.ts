@@ -2,10 +2,10 @@
  * Production profile along the production reactor with its uncertainty band: a shaded lo–hi band
  * and the median line for each series (species flow or conversion).
  */
-import { axisTitle, formatNumber } from '../format';
-import { OKABE_ITO } from '../theme';
-import type { ChartSpec, SizingReportData } from '../types';
-import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common';
+import { axisTitle, formatNumber } from '../format.js';
+import { OKABE_ITO } from '../theme.js';
+import type { ChartSpec, SizingReportData } from '../types.js';
+import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common.js';
 
 /** The band chart, or an empty list when there is no profile. */
 export function productionCharts(profile: SizingReportData['productionProfile'], size: ChartSize = {}): ChartSpec[] {

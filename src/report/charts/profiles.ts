@@ -2,10 +2,10 @@
  * Measured against predicted profiles along the reactor coordinate (or time) for each run:
  * predicted curves as lines, measured points as symbols, one colour and shape per species.
  */
-import { axisTitle, formatNumber, paToKPa, slug } from '../format';
-import { OKABE_ITO, SHAPES } from '../theme';
-import type { ChartSpec, RunObservationData, RunProfileData } from '../types';
-import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common';
+import { axisTitle, formatNumber, paToKPa, slug } from '../format.js';
+import { OKABE_ITO, SHAPES } from '../theme.js';
+import type { ChartSpec, RunObservationData, RunProfileData } from '../types.js';
+import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common.js';
 
 /** One chart per run profile; `runs` (optional) adds the run's T and P to the title. */
 export function profileCharts(profiles: RunProfileData[], runs: RunObservationData[] = [], size: ChartSize = {}): ChartSpec[] {

@@ -4,11 +4,11 @@
  * one dimensionless axis (colour = response) with guide lines at 0 and ±2; otherwise each
  * response gets its own chart of raw residuals in its own unit.
  */
-import { axisTitle, slug } from '../format';
-import { INK, OKABE_ITO, SHAPES } from '../theme';
-import type { ChartSpec, RunObservationData } from '../types';
-import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common';
-import { conditionAxes, observationRows, type ObservationRow } from './conditions';
+import { axisTitle, slug } from '../format.js';
+import { INK, OKABE_ITO, SHAPES } from '../theme.js';
+import type { ChartSpec, RunObservationData } from '../types.js';
+import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common.js';
+import { conditionAxes, observationRows, type ObservationRow } from './conditions.js';
 
 function zeroRules(studentized: boolean): Record<string, unknown>[] {
   const values = studentized ? [{ y: 0, kind: 'zero' }, { y: -2, kind: 'band' }, { y: 2, kind: 'band' }] : [{ y: 0, kind: 'zero' }];

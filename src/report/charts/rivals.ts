@@ -2,10 +2,10 @@
  * Rival-model chart: Akaike weights (AICc-based) as horizontal bars on a fixed 0–1 axis, each
  * labelled with its weight and ΔAICc to the best model, coloured by verdict.
  */
-import { axisTitle } from '../format';
-import { OKABE_ITO } from '../theme';
-import type { ChartSpec, RivalModelData } from '../types';
-import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common';
+import { axisTitle } from '../format.js';
+import { OKABE_ITO } from '../theme.js';
+import type { ChartSpec, RivalModelData } from '../types.js';
+import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common.js';
 
 /** The comparison chart, or an empty list with fewer than two models. */
 export function rivalCharts(models: RivalModelData[] | undefined, size: ChartSize = {}): ChartSpec[] {

@@ -2,10 +2,10 @@
  * Sensitivity bar chart: the signed effect of each parameter on the required size, largest
  * magnitude on top; increases and decreases in two palette colours.
  */
-import { axisTitle } from '../format';
-import { OKABE_ITO } from '../theme';
-import type { ChartSpec, SizingReportData } from '../types';
-import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common';
+import { axisTitle } from '../format.js';
+import { OKABE_ITO } from '../theme.js';
+import type { ChartSpec, SizingReportData } from '../types.js';
+import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common.js';
 
 /** The bar chart, or an empty list when there are no rows. */
 export function sensitivityCharts(data: SizingReportData, size: ChartSize = {}): ChartSpec[] {

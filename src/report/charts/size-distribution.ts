@@ -2,10 +2,10 @@
  * Monte Carlo size distribution: histogram of the required size over parameter draws with rules
  * at the median (P50), P90 and P95. Takes raw samples (binned here) or a ready histogram.
  */
-import { axisTitle, formatNumber } from '../format';
-import { INK, OKABE_ITO } from '../theme';
-import type { ChartSpec, SizingReportData } from '../types';
-import { caption, droppedNote, topLevel, type ChartSize } from './common';
+import { axisTitle, formatNumber } from '../format.js';
+import { INK, OKABE_ITO } from '../theme.js';
+import type { ChartSpec, SizingReportData } from '../types.js';
+import { caption, droppedNote, topLevel, type ChartSize } from './common.js';
 
 /** Bin samples into about sqrt(n) (10..40) equal bins. */
 export function binSamples(samples: number[]): { start: number; end: number; count: number }[] {

@@ -4,10 +4,10 @@
  * hot spot against the coolant temperature with the critical coolant temperature of the runaway
  * criterion and the design value marked.
  */
-import { axisTitle, formatNumber } from '../format';
-import { INK, OKABE_ITO } from '../theme';
-import type { ChartSpec, ThermalReportData } from '../types';
-import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common';
+import { axisTitle, formatNumber } from '../format.js';
+import { INK, OKABE_ITO } from '../theme.js';
+import type { ChartSpec, ThermalReportData } from '../types.js';
+import { caption, droppedNote, keepFinite, topLevel, type ChartSize } from './common.js';
 
 function profileChart(t: ThermalReportData, size: ChartSize): ChartSpec {
   const all = t.profile.z.flatMap((z, i) => [

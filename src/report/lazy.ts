@@ -1,0 +1,16 @@
+/**
+ * The report renderers of the public API, loaded on first call: the chart libraries (vega,
+ * vega-lite) take about a second to load and use top-level await, so importing rateloom must not
+ * load them; only rendering a report does.
+ */
+import type { FitReportData, RenderedReport, SizingReportData } from './types.js';
+
+/** Render a fit report: self-contained HTML (charts as inline SVG) and Markdown. */
+export async function renderFitReport(data: FitReportData): Promise<RenderedReport> {
+  return (await import('./index.js')).renderFitReport(data);
+}
+
+/** Render a sizing report: self-contained HTML (charts as inline SVG, cautions) and Markdown. */
+export async function renderSizingReport(data: SizingReportData): Promise<RenderedReport> {
+  return (await import('./index.js')).renderSizingReport(data);
+}
