@@ -12,6 +12,6 @@ rmSync(join(root, 'dist'), { recursive: true, force: true });
 try {
   execFileSync(process.execPath, [tsc, '-p', join(root, 'tsconfig.build.json')], { cwd: root, stdio: 'inherit' });
 } catch {
-  console.error('rateloom build failed: see the TypeScript errors above (relative imports in src/ and cli/ need their .js extension).');
+  console.error('rateloom build failed: see the TypeScript errors above. Relative imports in src/ and cli/ need their .js extension: import specifiers given their extension: 0 adds them.');
   process.exit(1);
 }
