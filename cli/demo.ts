@@ -25,8 +25,11 @@ import { writeFitReport, writeSizingReport } from './report-render.js';
 import { runCommand, toJson } from './run.js';
 import { readStudy } from './study-input.js';
 
-/** datasets-demo/ of this checkout. */
-export const DEMO_DATA_DIR = fileURLToPath(new URL('../datasets-demo/', import.meta.url));
+/**
+ * datasets-demo/ of this checkout or package: beside cli/ when run from source, two levels up when
+ * run compiled from dist/cli/.
+ */
+export const DEMO_DATA_DIR = fileURLToPath(new URL(/\/dist\/cli\/[^/]*$/.test(import.meta.url) ? '../../datasets-demo/' : '../datasets-demo/', import.meta.url));
 const MARKER = '.rateloom-demo';
 
 export interface DemoOptions {

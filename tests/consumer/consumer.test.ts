@@ -27,4 +27,10 @@ describe('compiled package', () => {
     expect(r.status).toBe(0);
     expect(r.stdout.trim()).toBe(pkg.version);
   });
+
+  it('the compiled demo command finds datasets-demo/ (two levels above dist/cli/)', () => {
+    const probe = "const { DEMO_DATA_DIR } = await import('./dist/cli/demo.js'); const fs = await import('node:fs'); console.log(fs.existsSync(DEMO_DATA_DIR + 'truth.json'));";
+    const r = node(['--input-type=module', '-e', probe]);
+    expect(r.stdout.trim()).toBe('true');
+  });
 });
