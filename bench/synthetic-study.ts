@@ -10,7 +10,9 @@
  * only on i, so a larger study contains the smaller one as its first runs.
  */
 import { buildChemistry } from '../src/chemistry/mechanism';
-import type { ReactionSpec, SpeciesSpec } from '../src/chemistry/spec';
+import type { SpeciesSpec } from '../src/chemistry/spec';
+import type { ReactionSpec } from '../src/kinetics/spec';
+import { GAS_CONSTANT } from '../src/core/constants';
 import { makeParameter, type Parameter } from '../src/core/parameter';
 import type { Observation, Study, StudyRun } from '../src/study/types';
 import { StudyModel } from '../src/workflow/study-model';
@@ -121,7 +123,7 @@ export function studyAsJson(study: Study): unknown {
   return {
     referenceTemperature: study.referenceTemperature,
     alpha: ALPHA,
-    R: 8.314462618,
+    R: GAS_CONSTANT,
     start: START,
     truth: TRUTH,
     runs: study.runs.map((r) => ({ T: r.temperature, P: r.pressure, W: r.size, feed: Array.from(r.feed!) })),

@@ -6,7 +6,7 @@
  * (or any rejected row under --strict).
  */
 import type { Command } from 'commander';
-import { loadStudy, summarizeStudy, type Range, type StudySummary, formatRejection, type ValidationReport, checkLabTransport } from '../src/index.js';
+import { CELSIUS_ZERO, loadStudy, summarizeStudy, type Range, type StudySummary, formatRejection, type ValidationReport, checkLabTransport } from '../src/index.js';
 import { readText } from './io.js';
 import { runCommand } from './run.js';
 import { studyLoadOptions } from './study-input.js';
@@ -45,7 +45,7 @@ export function formatCheck(s: StudySummary, report: ValidationReport): string {
   L.push(`  observations: ${s.observations}`);
   for (const r of s.responses) L.push(`    ${r.response}${r.species ? ` of ${r.species}` : ''}: ${r.count} (${r.unit})`);
   L.push('Ranges:');
-  L.push(`  temperature: ${fmtRange(s.ranges.temperature, (x) => `${g(x - 273.15)} degC`)}`);
+  L.push(`  temperature: ${fmtRange(s.ranges.temperature, (x) => `${g(x - CELSIUS_ZERO)} degC`)}`);
   if (s.ranges.pressure) L.push(`  pressure: ${fmtRange(s.ranges.pressure, (x) => `${g(x / 1e5)} bar`)}`);
   if (s.ranges.size) L.push(`  ${s.ranges.size.quantity}: ${fmtRange(s.ranges.size)}`);
   if (s.ranges.spaceTime) L.push(`  space time ${s.ranges.spaceTime.definition}: ${fmtRange(s.ranges.spaceTime)}`);

@@ -5,7 +5,7 @@
 export { VERSION } from './version.js';
 
 // Core: typed errors, outcomes, parameters.
-export { RateloomError, ERROR_CODES, isRateloomError, formatPath, type ErrorCode, type ErrorLocation } from './core/errors.js';
+export { RateloomError, InternalError, ERROR_CODES, isRateloomError, formatPath, type ErrorCode, type ErrorLocation } from './core/errors.js';
 export { parseJsonText } from './core/json-text.js';
 export type { Outcome, Warning, StatusTable } from './core/outcome.js';
 export { exitCodeOf, verdictFrom, EXIT_TRUSTWORTHY, EXIT_UNTRUSTWORTHY, EXIT_BAD_INPUT, type Verdict, type VerdictReason } from './core/verdict.js';
@@ -15,14 +15,15 @@ export { makeParameter, toInternal, toExternal, type Parameter, type Transform }
 export { toSI, fromSI, unitFor, acceptedUnits, siUnit, compoundToSI } from './units/index.js';
 
 // Chemistry and kinetics.
-export type { SpeciesSpec, ReactionSpec } from './chemistry/spec.js';
+export type { SpeciesSpec, ReactionEquationSpec } from './chemistry/spec.js';
 export { parseFormula, molarMassOf } from './chemistry/formula.js';
 export { parseEquation } from './chemistry/equation.js';
 export { buildChemistry, elementBalanceResidual, type Chemistry } from './chemistry/mechanism.js';
-export type { RateLawSpec, RateBasis, ArrheniusRef, VantHoffRef } from './kinetics/spec.js';
+export type { ReactionSpec, RateLawSpec, RateBasis, ArrheniusRef, VantHoffRef } from './kinetics/spec.js';
 export type { CompiledKinetics } from './kinetics/compiled.js';
 export { compileKinetics, netRates, type KineticsInput, type CompiledKineticsInfo, type RateDescription } from './kinetics/compile.js';
-export { arrhenius, vantHoff, GAS_CONSTANT } from './kinetics/temperature.js';
+export { arrhenius, vantHoff } from './kinetics/temperature.js';
+export { GAS_CONSTANT, STANDARD_ATMOSPHERE, CELSIUS_ZERO } from './core/constants.js';
 
 // Reactor models.
 export { solveReactor, REACTOR_MODELS, ergunAlpha, resolveAlpha } from './reactors/index.js';

@@ -4,7 +4,7 @@
  * element e) whenever every species of the reaction has a formula.
  */
 import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
-import type { ReactionSpec, SpeciesSpec } from './spec.js';
+import type { ReactionEquationSpec, SpeciesSpec } from './spec.js';
 import { parseFormula } from './formula.js';
 import { formatEquation, parseEquation } from './equation.js';
 
@@ -50,7 +50,7 @@ function fmt(x: number): string {
  */
 export function buildChemistry(
   species: readonly SpeciesSpec[],
-  reactions: readonly Pick<ReactionSpec, 'id' | 'equation'>[],
+  reactions: readonly ReactionEquationSpec[],
   path: FieldPath = [],
 ): Chemistry {
   if (!Array.isArray(species) || species.length === 0) {

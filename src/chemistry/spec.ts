@@ -13,11 +13,10 @@ export interface SpeciesSpec {
   inert?: boolean;
 }
 
-export interface ReactionSpec {
+/** A reaction as chemistry sees it: an id and an equation (the rate law is added in kinetics/spec.ts). */
+export interface ReactionEquationSpec {
   /** Short unique id, for example 'r1'. */
   id: string;
   /** Equation such as 'A + 2 B <=> C' (reversible) or 'A -> B' (irreversible). */
   equation: string;
-  /** The rate law of this reaction (see kinetics/spec.ts). */
-  rate: import('../kinetics/spec.js').RateLawSpec;
 }

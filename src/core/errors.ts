@@ -111,6 +111,20 @@ export class RateloomError extends Error {
   }
 }
 
+/**
+ * A broken invariant inside rateloom (a bug, never bad input): thrown where the code's own
+ * assumptions fail. It carries the stable code E_INTERNAL so the commands report it like any other
+ * error (exit 2, with the advice to report the bug); user input errors stay RateloomError.
+ */
+export class InternalError extends Error {
+  readonly code = 'E_INTERNAL' as const;
+
+  constructor(problem: string) {
+    super(`internal: ${problem}`);
+    this.name = 'InternalError';
+  }
+}
+
 export function isRateloomError(e: unknown): e is RateloomError {
   return e instanceof RateloomError;
 }

@@ -4,8 +4,7 @@
  * of cells, unknown species) reject that row and are listed; problems with the mapping itself
  * (missing column, unknown unit, missing field for the reactor kind) are RateloomErrors, because
  * they are mistakes in the study file, not in the data.
- * Ideal gas for fractions with a volumetric flow: F_T0 = P0 v0 / (R T0), R = 8.314 462 618 J/(mol K)
- * (exact since the 2019 SI redefinition, SI Brochure 9th ed.).
+ * Ideal gas for fractions with a volumetric flow: F_T0 = P0 v0 / (R T0), R from src/core/constants.ts.
  */
 import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import type { Phase, ReactorKind } from '../reactors/types.js';
@@ -17,9 +16,7 @@ import type { Rejection } from './report.js';
 import type { FieldSpec, LongSourceSpec, MeasureSpec, MeasuredSpec, PerRunColumns, PerRunSourceSpec, ResponseKind } from './spec.js';
 import type { RunParameterRef } from './run-parameters.js';
 import { prepareBalanceRates, prepareRateComposition, readBalanceRate, readRateComposition, type MappingTools, type PreparedBalanceRate, type PreparedComposition } from './rate-composition.js';
-
-/** Molar gas constant, J/(mol K): exact (SI Brochure 9th ed., k_B N_A). */
-export const GAS_CONSTANT = 8.314462618;
+import { GAS_CONSTANT } from '../core/constants.js';
 
 export interface MappingContext {
   speciesNames: readonly string[];

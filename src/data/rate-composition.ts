@@ -7,8 +7,8 @@
  * law is evaluated at the feed (or initial) composition, and `check` says so.
  *
  * Ideal gas (common practice): C_j = p_j / (R T) = y_j P / (R T) = (F_j / F_T) P / (R T); a liquid's
- * outlet flows give C_j = F_j / v0 (constant density). R = 8.314 462 618 J/(mol K), exact since the
- * 2019 SI redefinition (SI Brochure 9th ed.), defined once in mapping.ts.
+ * outlet flows give C_j = F_j / v0 (constant density). R (CODATA 2018) is
+ * defined once in src/core/constants.ts.
  *
  * Balance rates: for a stirred tank (or a differential bed) with feed and outlet flows, the mole
  * balance of an ideal stirred tank gives the rate of species j at the outlet composition,
@@ -20,8 +20,8 @@
 import { RateloomError, type FieldPath } from '../core/errors.js';
 import type { Quantity } from '../units/index.js';
 import type { Phase, ReactorKind } from '../reactors/types.js';
-import { GAS_CONSTANT } from './mapping.js';
 import type { FieldSpec } from './spec.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 /** The composition at which measured rates of a per-run source were measured. */
 export interface RateCompositionSpec {

@@ -28,6 +28,7 @@ import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import { quantityToSI, type QuantityKind } from './case-units.js';
 import { cpAt } from '../reactors/thermal/heat-capacity.js';
 import { loadThermalCase, THERMAL_FIELDS, type ThermalCase } from './heat-case.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 export type DesignReactorKind = 'packed-bed' | 'plug-flow' | 'stirred-tank' | 'batch';
 
@@ -224,7 +225,7 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
       }
     } else if (f.moleFractions !== undefined && phase === 'gas') {
       const y = moleFractions(f.moleFractions, species);
-      const cT = pressure! / (8.314462618 * temperature);
+      const cT = pressure! / (GAS_CONSTANT * temperature);
       concentrations = Float64Array.from(y, (v) => v * cT);
     } else {
       throw new RateloomError('E_MISSING_FIELD', 'a batch case needs the initial composition', {

@@ -2,7 +2,8 @@
  * The fitted-kinetics hand-off: everything a designer needs to reproduce the fitted model's
  * predictions, written by `rateloom fit` and read by `rateloom size`. Plain JSON, SI units.
  */
-import type { SpeciesSpec, ReactionSpec } from '../chemistry/spec.js';
+import type { SpeciesSpec } from '../chemistry/spec.js';
+import type { ReactionSpec } from '../kinetics/spec.js';
 import type { ReactorSpec } from '../reactors/types.js';
 import type { Transform } from '../core/parameter.js';
 

@@ -22,6 +22,7 @@ import { buildSystem, type DesignSystem, type RateHook } from './system.js';
 import { Sizer } from './sizer.js';
 import { Marcher } from './march.js';
 import type { OdeEvent } from '../numerics/ode-types.js';
+import { STANDARD_ATMOSPHERE } from '../core/constants.js';
 
 /** The pellet scaled to another diameter (all lengths in proportion). */
 export function scaledPellet(p: PelletSpec, diameter: number): PelletSpec {
@@ -50,7 +51,7 @@ function rateToPellet(kinetics: CompiledKinetics, kase: DesignCase, rhoP: number
 /** The resolved pellet model of a case (SI). */
 export function casePelletModel(kinetics: CompiledKinetics, kase: DesignCase, cp: CasePellet, species: readonly SpeciesSpec[], pellet: PelletSpec = cp.pellet): PelletModel {
   const geo = pelletGeometry(pellet);
-  const P = kase.pressure ?? 101325;
+  const P = kase.pressure ?? STANDARD_ATMOSPHERE;
   if (kase.reactor.phase === 'liquid' && pellet.molecularDiffusivity !== undefined && typeof pellet.molecularDiffusivity === 'object' && 'estimate' in pellet.molecularDiffusivity) {
     throw new RateloomError('E_CASE', "Fuller's correlation estimates gas diffusivities; this case is liquid", { path: ['pellet', 'molecularDiffusivity'], fix: 'Give the molecular or effective diffusivity (m2/s).' });
   }

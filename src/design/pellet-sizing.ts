@@ -19,11 +19,12 @@ import { molecularDiffusivities } from '../pellets/diffusivity.js';
 import { HEAT_TRANSFER, MASS_TRANSFER, heatTransfer, massTransfer, rangeWarning, type BedFlow } from '../pellets/external.js';
 import type { DesignCase } from './case.js';
 import type { CasePellet } from './case-pellet.js';
-import { buildSystem, GAS_CONSTANT, type DesignSystem } from './system.js';
+import { buildSystem, type DesignSystem } from './system.js';
 import { Sizer } from './sizer.js';
 import { Marcher } from './march.js';
 import { bundleAlpha } from './tubes.js';
 import { casePelletModel, keySpecies, PelletRateHook, scaledPellet } from './pellet-hook.js';
+import { GAS_CONSTANT, STANDARD_ATMOSPHERE } from '../core/constants.js';
 
 /** One row of the pellet trade-off. */
 export interface TradeOffRow {
@@ -114,7 +115,7 @@ function inletDensity(kase: DesignCase, molarMasses: ArrayLike<number>): number 
 function filmAtInlet(input: PelletSizingInput, G: number, warnings: Warning[]): PelletSizing['film'] {
   const { kinetics, kase, pellet: cp, species, molarMasses, theta } = input;
   const mu = cp.fluid.viscosity ?? kase.tubes?.viscosity;
-  const Dm = molecularDiffusivities(cp.pellet, species, kase.temperature, kase.pressure ?? 101325, ['pellet']);
+  const Dm = molecularDiffusivities(cp.pellet, species, kase.temperature, kase.pressure ?? STANDARD_ATMOSPHERE, ['pellet']);
   if (mu === undefined || !Dm || !molarMasses || kase.pressure === undefined) return undefined;
   const geo = pelletGeometry(cp.pellet);
   const flow: BedFlow = { particleDiameter: geo.equivalentDiameter, massFlux: G, density: inletDensity(kase, molarMasses), viscosity: mu };

@@ -10,7 +10,7 @@ import type { CompiledKinetics } from '../kinetics/compiled.js';
 import { outcome, type Outcome, type StatusTable, type Warning } from '../core/outcome.js';
 import type { FittedKinetics } from './handoff.js';
 import type { DesignCase } from './case.js';
-import { buildSystem, GAS_CONSTANT, type DesignSystem } from './system.js';
+import { buildSystem, type DesignSystem } from './system.js';
 import { Sizer, fmt, type SizeOnce } from './sizer.js';
 import { equilibriumConversion, type EquilibriumLimit } from './feasibility.js';
 import { designTubes, type TubeDesign } from './tubes.js';
@@ -25,6 +25,7 @@ import { PELLET_CAUTIONS, pelletSizing, systemWithPellet, type PelletSizing } fr
 import { sizeCooledBed, type ThermalSizing } from './heat-design.js';
 import type { HandoffVerdict } from './handoff-verdict.js';
 import { finishGated, gateSizing, type SizingVerdict } from './size-gate.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 /** A sizing result before the hand-off gate adds its verdict (size-gate.ts). */
 type UngatedResult = Omit<SizingResult, 'kinetics' | 'verdict'>;

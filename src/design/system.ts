@@ -16,8 +16,7 @@
 import type { CompiledKinetics } from '../kinetics/compiled.js';
 import type { DesignCase } from './case.js';
 import { RateloomError } from '../core/errors.js';
-
-export const GAS_CONSTANT = 8.314462618;
+import { GAS_CONSTANT } from '../core/constants.js';
 
 /**
  * A multiplicative hook on the rate term: it may scale the intrinsic rates r (per reaction, in

@@ -11,9 +11,9 @@
  * L = W_t / (rho_b A_c).
  */
 import type { DesignSystem } from './system.js';
-import { GAS_CONSTANT } from './system.js';
 import { Sizer, type SizeOnce } from './sizer.js';
 import { ergunAlpha } from '../reactors/ergun.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 export interface TubeDesign {
   /** Number of tubes. */

@@ -23,7 +23,8 @@ import type { Chemistry } from '../chemistry/mechanism.js';
 import type { ArrheniusRef, Order, RateBasis, RateLawSpec, VantHoffRef } from './spec.js';
 import type { Node, NodeStore } from './expression/ast.js';
 import { parseExpression } from './expression/parser.js';
-import { GAS_CONSTANT, temperatureFactorNode } from './temperature.js';
+import { temperatureFactorNode } from './temperature.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 /** Variable layout shared by forms.ts and compile.ts: C_0..C_{nS-1}, T, theta_0..theta_{nP-1}. */
 export interface VariableLayout {

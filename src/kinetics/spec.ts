@@ -4,6 +4,13 @@
  * (mol/(kg s)) according to `basis`. Concentrations are in mol/m3, partial pressures in Pa,
  * temperatures in K: SI throughout.
  */
+import type { ReactionEquationSpec } from '../chemistry/spec.js';
+
+/** A reaction as written in a study file: its equation (chemistry) and its rate law. */
+export interface ReactionSpec extends ReactionEquationSpec {
+  /** The rate law of this reaction. */
+  rate: RateLawSpec;
+}
 
 /** Where the rate is counted: per m3 of reacting fluid, or per kg of catalyst. */
 export type RateBasis = 'volume' | 'mass';

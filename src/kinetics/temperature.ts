@@ -4,12 +4,10 @@
  * 62, 2750):
  *   Arrhenius:    k(T) = k_ref * exp(-E/R  * (1/T - 1/T_ref))
  *   van 't Hoff:  K(T) = K_ref * exp(-dH/R * (1/T - 1/T_ref))
- * R = 8.314462618 J/(mol K) (CODATA 2018, exact: N_A * k_B).
+ * R: GAS_CONSTANT of src/core/constants.ts (CODATA 2018).
  */
 import type { Node, NodeStore } from './expression/ast.js';
-
-/** Molar gas constant, J/(mol K). Source: CODATA 2018 (exact, N_A k_B). */
-export const GAS_CONSTANT = 8.314462618;
+import { GAS_CONSTANT } from '../core/constants.js';
 
 /** k(T) = kRef exp(-E/R (1/T - 1/Tref)); E in J/mol, T and Tref in K. */
 export function arrhenius(kRef: number, activationEnergy: number, T: number, Tref: number): number {

@@ -17,8 +17,8 @@
  * Chem. Eng. Sci. 18 (1963) 147-148. The Weisz-Prater bound 0.3 is common practice (for a
  * first-order sphere it keeps eta above 0.97).
  */
-import { GAS_CONSTANT } from '../kinetics/temperature.js';
 import type { Warning } from '../core/outcome.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 export const WEISZ_PRATER_LIMIT = 0.3;
 export const MEARS_LIMIT = 0.15;

@@ -13,9 +13,9 @@
  */
 import { RateloomError, type FieldPath } from '../core/errors.js';
 import { parseFormula } from '../chemistry/formula.js';
-import { GAS_CONSTANT } from '../kinetics/temperature.js';
 import { fullerDiffusivity } from './fuller.js';
 import type { PelletSpec } from './types.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 /** A species as the diffusivity estimates need it. */
 export interface DiffusingSpecies {

@@ -13,6 +13,7 @@
  */
 import { RateloomError, type FieldPath } from '../core/errors.js';
 import { parseFormula } from '../chemistry/formula.js';
+import { STANDARD_ATMOSPHERE } from '../core/constants.js';
 
 /** Atomic diffusion-volume increments (Fuller et al. 1969). */
 const ATOMIC: Readonly<Record<string, number>> = { C: 15.9, H: 2.31, O: 6.11, N: 4.54, F: 14.7, Cl: 21.0, Br: 21.9, I: 29.8, S: 22.9 };
@@ -59,6 +60,6 @@ export function fullerDiffusivity(formulaA: string, formulaB: string, T: number,
   const MA = gramsPerMol(formulaA, path);
   const MB = gramsPerMol(formulaB, path);
   const s = Math.cbrt(diffusionVolume(formulaA, path)) + Math.cbrt(diffusionVolume(formulaB, path));
-  const cm2s = (1.0e-3 * T ** 1.75 * Math.sqrt(1 / MA + 1 / MB)) / ((P / 101325) * s * s);
+  const cm2s = (1.0e-3 * T ** 1.75 * Math.sqrt(1 / MA + 1 / MB)) / ((P / STANDARD_ATMOSPHERE) * s * s);
   return cm2s * 1e-4;
 }

@@ -9,8 +9,8 @@
  */
 import type { CompiledKinetics } from '../kinetics/compiled.js';
 import {
-  basisWeights, checkKinetics, checkOptions, checkPositive, checkPressure, checkSpeciesVector,
-  checkTemperature, checkTheta, profilePositions, runPath,
+  basisWeights, checkRunInputs, checkOptions, checkPositive, checkPressure, checkSpeciesVector,
+  profilePositions, runPath,
 } from './checks.js';
 import { sumFirst } from './gas.js';
 import { runOde, type OdeCore } from './ode-driver.js';
@@ -28,9 +28,7 @@ export function solveBatch(
   theta: Float64Array,
   options: ReactorOptions = {},
 ): ReactorSolution {
-  checkKinetics(kinetics);
-  checkTheta(kinetics, theta);
-  checkTemperature(run);
+  checkRunInputs(run, kinetics, theta);
   checkPressure(run, false);
   const C0 = checkSpeciesVector(run, 'initialConcentrations', kinetics, true);
   const tEnd = checkPositive(run, 'size', 's', true);

@@ -4,7 +4,7 @@
  * the fix; numerical trouble never throws (see the status on ReactorSolution).
  * Method: plain range checks; no external reference.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { InternalError, RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import type { CompiledKinetics } from '../kinetics/compiled.js';
 import type { ReactorOptions, ReactorSpec, RunConditions } from './types.js';
 
@@ -17,8 +17,18 @@ function bad(problem: string, path: FieldPath, fix: string, code: 'E_VALUE' | 'E
   throw new RateloomError(code, problem, { path, fix });
 }
 
+/**
+ * The checks every reactor model runs first, in this order: the compiled kinetics are usable, the
+ * parameter vector (when given) has one finite value per parameter, the temperature is positive.
+ */
+export function checkRunInputs(run: RunConditions, kinetics: CompiledKinetics, theta?: Float64Array): void {
+  checkKinetics(kinetics);
+  if (theta) checkTheta(kinetics, theta);
+  checkTemperature(run);
+}
+
 /** Temperature finite and > 0 (K). */
-export function checkTemperature(run: RunConditions): void {
+function checkTemperature(run: RunConditions): void {
   const T = run.temperature;
   if (!(Number.isFinite(T) && T > 0)) {
     bad(`run '${run.id}' has temperature ${T} K; it must be a positive absolute temperature`, runPath(run, 'temperature'),
@@ -92,7 +102,7 @@ export function checkPositive(
 }
 
 /** Parameter vector length and finiteness. */
-export function checkTheta(kinetics: CompiledKinetics, theta: Float64Array): void {
+function checkTheta(kinetics: CompiledKinetics, theta: Float64Array): void {
   const nP = kinetics.parameterNames.length;
   if (theta.length !== nP) {
     bad(`parameter vector has ${theta.length} values for ${nP} parameters`, ['parameters'],
@@ -175,11 +185,11 @@ export function basisWeights(
 }
 
 /** Structural consistency of the compiled kinetics (sizes of the stoichiometric matrix and basis list). */
-export function checkKinetics(kinetics: CompiledKinetics): void {
+function checkKinetics(kinetics: CompiledKinetics): void {
   const nS = kinetics.speciesNames.length;
   const nR = kinetics.reactionIds.length;
   if (kinetics.stoich.length !== nS * nR || kinetics.basis.length !== nR) {
-    throw new RateloomError('E_INTERNAL', 'compiled kinetics has inconsistent sizes', { path: ['reactions'] });
+    throw new InternalError('compiled kinetics has inconsistent sizes (stoichiometric matrix or basis list)');
   }
 }
 

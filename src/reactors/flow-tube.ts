@@ -17,8 +17,8 @@
  */
 import type { CompiledKinetics } from '../kinetics/compiled.js';
 import {
-  basisWeights, bulkDensity, checkKinetics, checkOptions, checkPositive, checkPressure,
-  checkSpeciesVector, checkTemperature, checkTheta, profilePositions, runPath, speciesIndex,
+  basisWeights, bulkDensity, checkRunInputs, checkOptions, checkPositive, checkPressure,
+  checkSpeciesVector, profilePositions, runPath, speciesIndex,
 } from './checks.js';
 import { resolveAlpha } from './ergun.js';
 import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentration } from './gas.js';
@@ -71,8 +71,7 @@ export function solveFlowTube(
   theta: Float64Array,
   options: ReactorOptions = {},
 ): ReactorSolution {
-  checkKinetics(kinetics);
-  checkTheta(kinetics, theta);
+  checkRunInputs(run, kinetics, theta);
   const prep = prepareChecked(kind, spec, run, kinetics);
   checkOptions(options, prep.size);
   return solvePreparedTube(prep, theta, options);
@@ -80,13 +79,12 @@ export function solveFlowTube(
 
 /** Check a run and resolve its constants (throws RateloomError for bad input). */
 export function prepareFlowTube(kind: TubeKind, spec: ReactorSpec, run: RunConditions, kinetics: CompiledKinetics): PreparedTube {
-  checkKinetics(kinetics);
+  checkRunInputs(run, kinetics);
   return prepareChecked(kind, spec, run, kinetics);
 }
 
-/** prepareFlowTube for kinetics already checked by checkKinetics. */
+/** prepareFlowTube after checkRunInputs. */
 function prepareChecked(kind: TubeKind, spec: ReactorSpec, run: RunConditions, kinetics: CompiledKinetics): PreparedTube {
-  checkTemperature(run);
   const gas = spec.phase === 'gas';
   const P0 = checkPressure(run, gas);
   const F0 = checkSpeciesVector(run, 'feed', kinetics, true);

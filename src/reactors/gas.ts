@@ -7,13 +7,11 @@
  * Reference: ideal-gas law with the Mohr-Rayleigh form of R; CODATA 2018 value of R.
  * Inerts are ordinary species here: they are carried in the flows and count in F_T.
  */
-
-/** Molar gas constant, J/(mol K) (CODATA 2018, exact). */
-export const R_GAS = 8.314462618;
+import { GAS_CONSTANT } from '../core/constants.js';
 
 /** Total inlet concentration C_T0 = P0 / (R T0), mol/m3, for pressure P0 (Pa) and temperature T0 (K). */
 export function totalConcentration(pressure: number, temperature: number): number {
-  return pressure / (R_GAS * temperature);
+  return pressure / (GAS_CONSTANT * temperature);
 }
 
 /** Sum of the first n entries of a vector. */

@@ -56,6 +56,6 @@ export function solveReactor(
 }
 
 export { ergunAlpha, ergunBeta0, resolveAlpha } from './ergun.js';
-export { R_GAS, totalConcentration } from './gas.js';
+export { totalConcentration } from './gas.js';
 export { REACTOR_STATUS } from './status.js';
 export type * from './types.js';

@@ -10,8 +10,8 @@
 import type { CompiledKinetics } from '../kinetics/compiled.js';
 import { RateloomError } from '../core/errors.js';
 import {
-  basisWeights, checkKinetics, checkOptions, checkPositive, checkSpeciesVector,
-  checkTemperature, checkTheta, profilePositions, runPath,
+  basisWeights, checkRunInputs, checkOptions, checkPositive, checkSpeciesVector,
+  profilePositions, runPath,
 } from './checks.js';
 import { sumFirst } from './gas.js';
 import { runOde, type OdeCore } from './ode-driver.js';
@@ -103,9 +103,7 @@ export function solveSemibatch(
 
 /** Input checks of a semibatch run; its feed, charge, time, volumes and catalyst mass (SI). */
 function checkSemibatchRun(spec: ReactorSpec, run: RunConditions, kinetics: CompiledKinetics, theta: Float64Array, options: ReactorOptions) {
-  checkKinetics(kinetics);
-  checkTheta(kinetics, theta);
-  checkTemperature(run);
+  checkRunInputs(run, kinetics, theta);
   if (spec.phase !== 'liquid') {
     throw new RateloomError('E_VALUE', 'the semibatch reactor is modelled for the liquid phase only', {
       path: ['reactor', 'phase'],

@@ -15,7 +15,7 @@ import type { CompiledKinetics } from '../kinetics/compiled.js';
 import { luFactor, luSolve } from '../numerics/lu.js';
 import { newton } from '../numerics/newton.js';
 import {
-  basisWeights, checkKinetics, checkPositive, checkPressure, checkSpeciesVector, checkTemperature, checkTheta, runPath,
+  basisWeights, checkRunInputs, checkPositive, checkPressure, checkSpeciesVector, runPath,
 } from './checks.js';
 import { RateloomError } from '../core/errors.js';
 import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentration } from './gas.js';
@@ -147,9 +147,7 @@ export function solveStirredTank(
   theta: Float64Array,
   options: ReactorOptions = {},
 ): ReactorSolution {
-  checkKinetics(kinetics);
-  checkTheta(kinetics, theta);
-  checkTemperature(run);
+  checkRunInputs(run, kinetics, theta);
   const gas = spec.phase === 'gas';
   const P0 = checkPressure(run, gas);
   const F0 = checkSpeciesVector(run, 'feed', kinetics, true);

@@ -7,12 +7,13 @@
 import * as vega from 'vega';
 import { compile, type TopLevelSpec } from 'vega-lite';
 import type { ChartSpec, RenderedChart } from './types.js';
+import { InternalError } from '../core/errors.js';
 
 /** A vega loader that refuses any URL or file: reports are drawn from inline data only. */
 function offlineLoader(): vega.Loader {
   const base = vega.loader();
   const refuse = async (uri: string): Promise<never> => {
-    throw new Error(`report charts load no external resources (refused '${uri}')`);
+    throw new InternalError(`report charts load no external resources (refused '${uri}')`);
   };
   return { ...base, load: refuse, sanitize: refuse, http: refuse, file: refuse } as unknown as vega.Loader;
 }
@@ -68,7 +69,7 @@ export async function renderSvg(spec: TopLevelSpec, messages: string[] = []): Pr
     const svg = await view.toSVG();
     // vega logs data-load and dataflow failures and draws an empty chart: treat them as failures
     const errors = messages.slice(before).filter((m) => m.startsWith('error: ') || m.startsWith('Loading failed'));
-    if (errors.length) throw new Error(errors.map((m) => m.replace(/^error: /, '')).join('; '));
+    if (errors.length) throw new InternalError(errors.map((m) => m.replace(/^error: /, '')).join('; '));
     return tidySvg(svg);
   } finally {
     view.finalize();

@@ -8,10 +8,10 @@
  *   (ideal gas; common practice). A difference above 10 % is reported.
  * - A gas batch run's initial pressure against the ideal-gas pressure of its initial
  *   concentrations, P = sum_j C_j0 R T; a difference above 2 % is reported.
- * R = 8.314 462 618 J/(mol K), defined once in src/data/mapping.ts.
+ * R = 8.314 462 618 J/(mol K), defined once in src/core/constants.ts.
  */
-import { GAS_CONSTANT } from '../data/mapping.js';
 import type { Study, StudyRun } from './types.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 /** Relative difference above which the Ergun inputs are reported against a run. */
 export const ERGUN_TOLERANCE = 0.1;

@@ -5,7 +5,8 @@
  */
 import { dirname } from 'node:path';
 import { buildChemistry } from '../chemistry/mechanism.js';
-import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec.js';
+import type { SpeciesSpec } from '../chemistry/spec.js';
+import type { ReactionSpec } from '../kinetics/spec.js';
 import { RateloomError, isRateloomError } from '../core/errors.js';
 import { parseJsonText } from '../core/json-text.js';
 import type { RateLawSpec } from '../kinetics/spec.js';

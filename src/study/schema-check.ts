@@ -8,7 +8,7 @@
  * The first problem found is thrown as a RateloomError with the field path; an unknown field
  * names the closest valid name.
  */
-import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { InternalError, RateloomError, closestName, type FieldPath } from '../core/errors.js';
 
 export interface JsonSchema {
   $ref?: string;
@@ -54,7 +54,7 @@ class Checker {
     for (let guard = 0; cur.$ref && guard < 32; guard++) {
       const m = /^#\/\$defs\/(.+)$/.exec(cur.$ref);
       const target = m ? this.root.$defs?.[m[1]] : undefined;
-      if (!target) throw new RateloomError('E_INTERNAL', `schema reference '${cur.$ref}' cannot be resolved`);
+      if (!target) throw new InternalError(`schema reference '${cur.$ref}' cannot be resolved`);
       // Sibling keywords beside $ref (description) carry no constraints here.
       cur = target;
     }

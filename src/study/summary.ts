@@ -4,11 +4,11 @@
  * the ideal gas law at inlet T and P), measured conversion of the key reactant where computable,
  * and the degrees of freedom left for fitting (observations minus free parameters).
  */
-import { GAS_CONSTANT } from '../data/mapping.js';
 import type { ValidationReport } from '../data/report.js';
 import type { Study, StudyRun } from './types.js';
 import { consistencyWarnings } from './consistency.js';
 import { referenceTemperatureMatters } from './reference-temperature.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 export interface Range {
   min: number;

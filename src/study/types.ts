@@ -3,7 +3,8 @@
  * (load.ts) from the study file and its CSV sources.
  */
 import type { Chemistry } from '../chemistry/mechanism.js';
-import type { ReactionSpec, SpeciesSpec } from '../chemistry/spec.js';
+import type { SpeciesSpec } from '../chemistry/spec.js';
+import type { ReactionSpec } from '../kinetics/spec.js';
 import type { Parameter } from '../core/parameter.js';
 import type { ReactorSpec, RunConditions } from '../reactors/types.js';
 import type { ReplicateGroup, ValidationReport } from '../data/report.js';

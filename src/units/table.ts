@@ -10,6 +10,7 @@
  * the standard atmosphere, the bar, the thermochemical calorie, the poise, the international inch
  * and avoirdupois pound behind the psi, the torr as 1/760 atm, the conventional mmHg).
  */
+import { CELSIUS_ZERO, STANDARD_ATMOSPHERE, STANDARD_GRAVITY } from '../core/constants.js';
 
 /** Dimension exponents in the order [kg, m, s, mol, K]. */
 export type Dims = readonly [number, number, number, number, number];
@@ -48,7 +49,7 @@ function atom(factor: number, dims: Dims, exact: boolean, source: string): UnitA
 }
 
 /** Pound-force in newtons: 0.45359237 kg x 9.80665 m/s2 (both exact by definition), NIST SP 811 B.8. */
-const LBF = 0.45359237 * 9.80665;
+const LBF = 0.45359237 * STANDARD_GRAVITY;
 /** Inch in metres, exact (NIST SP 811 B.8: 2.54 E-02 m). */
 const INCH = 0.0254;
 
@@ -101,9 +102,9 @@ export const ATOMS: Readonly<Record<string, UnitAtom>> = {
   mPa: atom(1e-3, D.pressure, true, SI),
   bar: atom(1e5, D.pressure, true, `${NIST} (bar 1.0 E+05 Pa, exact)`),
   mbar: atom(1e2, D.pressure, true, `${NIST} (millibar 1.0 E+02 Pa, exact)`),
-  atm: atom(101325, D.pressure, true, `${NIST} (standard atmosphere 1.013 25 E+05 Pa, exact)`),
+  atm: atom(STANDARD_ATMOSPHERE, D.pressure, true, `${NIST} (standard atmosphere 1.013 25 E+05 Pa, exact)`),
   psi: atom(LBF / (INCH * INCH), D.pressure, true, `${NIST} (psi 6.894 757 E+03 Pa; exact via lbf and inch)`),
-  torr: atom(101325 / 760, D.pressure, true, `${NIST} (torr 1.333 224 E+02 Pa; 1/760 atm exact)`),
+  torr: atom(STANDARD_ATMOSPHERE / 760, D.pressure, true, `${NIST} (torr 1.333 224 E+02 Pa; 1/760 atm exact)`),
   mmHg: atom(133.322387415, D.pressure, true, `${NIST} (conventional mmHg 1.333 224 E+02 Pa)`),
   // energy: thermochemical calorie 4.184 J exact (NIST SP 811 B.8, calorie_th)
   J: atom(1, D.energy, true, SI),
@@ -138,7 +139,7 @@ export const ALIASES: Readonly<Record<string, string>> = {
 /** Affine temperature units: K = (x + offset) * factor. Celsius and Fahrenheit per NIST SP 811 B.8 (exact). */
 export const AFFINE_TEMPERATURE: Readonly<Record<string, { factor: number; offset: number }>> = {
   K: { factor: 1, offset: 0 },
-  degC: { factor: 1, offset: 273.15 },
+  degC: { factor: 1, offset: CELSIUS_ZERO },
   degF: { factor: 5 / 9, offset: 459.67 },
 };
 

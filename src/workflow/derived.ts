@@ -11,7 +11,7 @@
 import type { FitResult } from '../estimation/fit-types.js';
 import { normalQuantile, studentTQuantile } from '../estimation/distributions.js';
 import type { RateLawSpec } from '../kinetics/spec.js';
-import { GAS_CONSTANT } from '../kinetics/temperature.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 export interface DerivedQuantity {
   /** e.g. 'A(k1)'. */

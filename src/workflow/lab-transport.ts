@@ -13,7 +13,6 @@ import type { CompiledKinetics } from '../kinetics/compiled.js';
 import type { Warning } from '../core/outcome.js';
 import type { FitResult } from '../estimation/fit-types.js';
 import type { StudyModel } from './study-model.js';
-import { GAS_CONSTANT } from '../kinetics/temperature.js';
 import { molarMassOf } from '../chemistry/formula.js';
 import { measuredConversions } from '../study/summary.js';
 import { pelletGeometry } from '../pellets/geometry.js';
@@ -23,6 +22,7 @@ import {
   ACTIVATION_ENERGY_NOTE, MEARS_LIMIT, WEISZ_PRATER_LIMIT, diagnosticsWarnings, runDiagnostics,
   type RunDiagnostics, type TransportContext,
 } from '../pellets/diagnostics.js';
+import { GAS_CONSTANT, STANDARD_ATMOSPHERE } from '../core/constants.js';
 
 export interface LabTransport {
   /** Where the observed rates came from. */
@@ -116,7 +116,7 @@ export function labTransport(study: Study, kinetics: Stoichiometry, values: Para
     const rate = rates ? rates(r, C) : X !== undefined ? (F0 * X) / run.size : NaN;
     if (!Number.isFinite(rate)) return void skipped.push({ runId: run.id, reason: 'no measured conversion of the key reactant' });
     const film = filmOf(study, run, geo.equivalentDiameter, key, warnings);
-    const De = effectiveDiffusivities(tr.pellet, study.species, run.temperature, run.pressure ?? 101325, ['transport', 'pellet'])[key];
+    const De = effectiveDiffusivities(tr.pellet, study.species, run.temperature, run.pressure ?? STANDARD_ATMOSPHERE, ['transport', 'pellet'])[key];
     rows.push(runDiagnostics({ runId: run.id, observedRate: rate, bulkConcentration: C[key], temperature: run.temperature, effectiveDiffusivity: De, ...film }, ctx));
   });
   warnings.push(...diagnosticsWarnings(rows));

@@ -29,11 +29,11 @@
 import type { Parameter } from '../core/parameter.js';
 import { compileKinetics } from '../kinetics/compile.js';
 import type { RateLawSpec } from '../kinetics/spec.js';
-import { R_GAS } from '../reactors/gas.js';
 import { weightedLinearLeastSquares } from '../estimation/linear-regression.js';
 import { parameterRoles } from '../study/parameters.js';
 import type { Study, StudyRun } from '../study/types.js';
 import { inletConcentrations, rateConcentrations, type ModelVariant } from './study-model.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 /** How one open starting value was obtained. */
 export interface EstimatedStart {
@@ -133,7 +133,7 @@ export function estimateStartValues(study: Study, variant: ModelVariant, open: r
     for (const [sp, ref] of Object.entries(r.adsorption)) {
       const j = chem.speciesNames.indexOf(sp);
       let sum = 0;
-      for (const run of study.runs) sum += inletConcentrations(run, study, C)[j] * (r.pressureBasis ? R_GAS * run.temperature : 1);
+      for (const run of study.runs) sum += inletConcentrations(run, study, C)[j] * (r.pressureBasis ? GAS_CONSTANT * run.temperature : 1);
       const mean = study.runs.length && j >= 0 ? sum / study.runs.length : 0;
       for (const p of variant.parameters) {
         if (baseOf(p.name) !== ref.K || !openSet.has(p.name) || (p.lower > 0 && Number.isFinite(p.upper)) || !(mean > 0)) continue;
@@ -255,8 +255,8 @@ function differential(
     const y = new Float64Array(m);
     pts.forEach((pt, i) => {
       const T = pt.run.temperature;
-      const X_ = (j: number) => (rate.pressureBasis ? pt.C[j] * R_GAS * T : pt.C[j]);
-      const arr = -(1 / T - 1 / Tref) / R_GAS;
+      const X_ = (j: number) => (rate.pressureBasis ? pt.C[j] * GAS_CONSTANT * T : pt.C[j]);
+      const arr = -(1 / T - 1 / Tref) / GAS_CONSTANT;
       let off = 0;
       const term = (base: string, coef: number) => {
         const n = runName(base, pt.run, names);
@@ -355,7 +355,7 @@ function ratePoints(study: Study, target: number, basis: 'volume' | 'mass', note
       // C_A = C_T0 F_A / F_T, F_T = F_T0 + delta xi, pressure ratio taken as 1 (differential bed).
       let FT0 = 0;
       for (let j = 0; j < nS; j++) FT0 += F0[j];
-      const yA = o.value / ((run.pressure ?? NaN) / (R_GAS * run.temperature));
+      const yA = o.value / ((run.pressure ?? NaN) / (GAS_CONSTANT * run.temperature));
       FA = (yA * (FT0 + (delta * F0[key]) / nuA)) / (1 + (yA * delta) / nuA);
     }
     if (!Number.isFinite(FA)) continue;
@@ -377,7 +377,7 @@ function ratePoints(study: Study, target: number, basis: 'volume' | 'mass', note
     }
     const C = new Float64Array(nS);
     if (gas) {
-      const CT = (run.pressure ?? NaN) / (R_GAS * run.temperature);
+      const CT = (run.pressure ?? NaN) / (GAS_CONSTANT * run.temperature);
       for (let j = 0; j < nS; j++) C[j] = (CT * F[j]) / FT;
     } else for (let j = 0; j < nS; j++) C[j] = F[j] / (run.volumetricFlow ?? NaN);
     out.push({ run, rate: xi / amount, C, conversion });

@@ -13,7 +13,6 @@ import { compileKinetics, type CompiledKineticsInfo } from '../kinetics/compile.
 import type { RateLawSpec } from '../kinetics/spec.js';
 import { solveReactor } from '../reactors/index.js';
 import { prepareFlowTube, solvePreparedTube, type PreparedTube } from '../reactors/flow-tube.js';
-import { R_GAS } from '../reactors/gas.js';
 import type { ReactorOptions, ReactorSolution, RunConditions } from '../reactors/types.js';
 import type { PredictionFailure, RegressionModel } from '../estimation/model.js';
 import type { CandidateSet, Observation, Study, StudyRun } from '../study/types.js';
@@ -21,6 +20,7 @@ import { RunValues } from './run-values.js';
 import { measuredStarts } from './tank-start.js';
 import { ActivityTerms } from './activity-terms.js';
 import { isLabResponse, labGradient, labValue } from './lab-predict.js';
+import { GAS_CONSTANT } from '../core/constants.js';
 
 /** Options of the study model. */
 export interface StudyModelOptions {
@@ -439,7 +439,7 @@ function concentrationSensitivity(j: number, k: number, nK: number, run: RunCond
   // Gas flow (isothermal): C_j = C_T0 (F_j / F_T) p, so
   // dC_j = C_T0 [ (dF_j F_T - F_j dF_T) / F_T^2 p + (F_j / F_T) dp ].
   const F = sol.outletAmounts;
-  const CT0 = (run.pressure ?? 0) / (R_GAS * run.temperature);
+  const CT0 = (run.pressure ?? 0) / (GAS_CONSTANT * run.temperature);
   let FT = 0;
   let dFT = 0;
   for (let s = 0; s < F.length; s++) {
@@ -461,7 +461,7 @@ export function inletConcentrations(run: RunConditions, study: Study, out: Float
   if (study.reactor.phase === 'gas') {
     let FT = 0;
     for (let j = 0; j < F.length; j++) FT += F[j];
-    const CT = (run.pressure ?? 0) / (R_GAS * run.temperature);
+    const CT = (run.pressure ?? 0) / (GAS_CONSTANT * run.temperature);
     for (let j = 0; j < F.length; j++) out[j] = (CT * F[j]) / FT;
   } else {
     const v0 = run.volumetricFlow ?? 1;

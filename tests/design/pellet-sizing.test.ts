@@ -15,8 +15,8 @@ import { sizingReportData } from '../../src/workflow/sizing-report-data';
 import { renderSizingReport } from '../../src/report';
 import { EffectivenessEvaluator } from '../../src/pellets/effectiveness';
 import { etaSphereFirstOrder } from '../../src/pellets/analytic';
-import { GAS_CONSTANT } from '../../src/kinetics/temperature';
 import { handoff, param, tubeBundleCase, tubeBundleHandoff } from './handoff-fixture';
+import { GAS_CONSTANT } from '../../src/core/constants';
 
 const pellet = { shape: 'sphere', diameter: '3 mm', porosity: 0.4, effectiveDiffusivity: '1e-6 m2/s', density: '1333 kg/m3' };
 

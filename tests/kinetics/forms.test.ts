@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { buildChemistry } from '../../src/chemistry/mechanism';
 import { compileKinetics, type CompiledKineticsInfo } from '../../src/kinetics/compile';
 import type { RateLawSpec } from '../../src/kinetics/spec';
-import { GAS_CONSTANT as R } from '../../src/kinetics/temperature';
+import { GAS_CONSTANT as R } from '../../src/core/constants';
 import { centralDiff, close, err } from './helpers';
 
 const Tref = 600;

@@ -5,9 +5,9 @@
  */
 import { describe, expect, it } from 'vitest';
 import { solveReactor } from '../../src/reactors';
-import { R_GAS } from '../../src/reactors/gas';
 import { compile, pl, rpl } from './compiled';
 import { massAction } from './mass-action';
+import { GAS_CONSTANT } from '../../src/core/constants';
 
 const tight = { rtol: 1e-11, atol: 1e-14 };
 const rel = (a: number, b: number): number => Math.abs(a - b) / Math.abs(b);
@@ -23,7 +23,7 @@ describe('membrane reactor', () => {
     const s = solveReactor({ kind: 'membrane', phase: 'gas', membrane: { permeation: { A: kp } } }, run, kin, Float64Array.from([0]), tight);
     expect(s.status).toBe('success');
     const FA = s.outletAmounts[0];
-    const cT0 = P0 / (R_GAS * T);
+    const cT0 = P0 / (GAS_CONSTANT * T);
     // Source: analytic solution of dF_A/dV = -k C_T0 F_A/(F_A + F_I) (separable; common practice)
     expect(Math.abs(FA - 0.6 + 0.4 * Math.log(FA / 0.6) + kp * cT0 * V)).toBeLessThan(1e-10);
     expect(s.outletAmounts[2]).toBe(0.4);

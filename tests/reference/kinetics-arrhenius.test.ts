@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { buildChemistry } from '../../src/chemistry/mechanism';
 import { compileKinetics } from '../../src/kinetics/compile';
-import { GAS_CONSTANT, arrhenius, vantHoff } from '../../src/kinetics/temperature';
+import { arrhenius, vantHoff } from '../../src/kinetics/temperature';
+import { GAS_CONSTANT } from '../../src/core/constants';
 
 const chem = buildChemistry([{ name: 'A' }, { name: 'B' }], [{ id: 'r1', equation: 'A <=> B' }]);
 const Tref = 550;

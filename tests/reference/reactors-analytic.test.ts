@@ -3,8 +3,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { solveReactor } from '../../src/reactors';
-import { R_GAS } from '../../src/reactors/gas';
 import { compile, pl, rpl } from '../reactors/compiled';
+import { GAS_CONSTANT } from '../../src/core/constants';
 
 const tight = { rtol: 1e-11, atol: 1e-14 };
 const rel = (a: number, b: number): number => Math.abs(a - b) / Math.abs(b);
@@ -111,7 +111,7 @@ describe('first order gas A -> 2 B with volume change, plug flow without pressur
     const T = 550;
     const P0 = 2e5;
     const feed = Float64Array.from([0.6, 0, 0.4]); // mol/s, y_A0 = 0.6
-    const cT0 = P0 / (R_GAS * T);
+    const cT0 = P0 / (GAS_CONSTANT * T);
     const v0 = 1 / cT0; // F_T0 = 1 mol/s
     const V = 3 * v0; // tau = 3 s
     const run = { id: 'g', temperature: T, pressure: P0, feed, size: V };
@@ -132,7 +132,7 @@ describe('equilibrium of A <=> 2 B with an inert over a very large catalyst mass
     const T = 700;
     const P0 = 3e5;
     const KC = 20; // mol/m3
-    const cT0 = P0 / (R_GAS * T);
+    const cT0 = P0 / (GAS_CONSTANT * T);
     const FA0 = 0.7;
     const FI = 0.3;
     const run = { id: 'eq', temperature: T, pressure: P0, feed: Float64Array.from([FA0, 0, FI]), size: 5e4 };

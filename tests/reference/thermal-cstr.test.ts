@@ -9,8 +9,8 @@ import { ReactionEnthalpy } from '../../src/reactors/thermal/enthalpy';
 import type { HeatCapacity } from '../../src/reactors/thermal/heat-capacity';
 import { semenovCriterion, semenovNumber, SEMENOV_CRITICAL } from '../../src/reactors/thermal/semenov';
 import { stirredTankSteadyStates } from '../../src/reactors/thermal/stirred-tank-heat';
-import { R_GAS } from '../../src/reactors/gas';
 import { compile } from '../reactors/compiled';
+import { GAS_CONSTANT } from '../../src/core/constants';
 
 const ref = JSON.parse(readFileSync(new URL('./scipy/cstr_heat.json', import.meta.url), 'utf8')) as {
   params: Record<string, number> & { range: [number, number] };
@@ -57,10 +57,10 @@ describe('stirred tank heat balance', () => {
 describe('Semenov criterion', () => {
   it('psi equals Qg E / (R Ta^2 UA) for an Arrhenius heat generation', () => {
     const E = 9e4;
-    const qg = (T: number): number => 5e3 * Math.exp((-E / R_GAS) * (1 / T - 1 / 350));
+    const qg = (T: number): number => 5e3 * Math.exp((-E / GAS_CONSTANT) * (1 / T - 1 / 350));
     const UA = 800;
     // Source: Semenov number for Arrhenius kinetics, psi = Qg(Ta) E / (R Ta^2 UA) (common practice)
-    expect(semenovNumber(qg, 340, UA) / ((qg(340) * E) / (R_GAS * 340 * 340 * UA)) - 1).toBeLessThan(1e-6);
+    expect(semenovNumber(qg, 340, UA) / ((qg(340) * E) / (GAS_CONSTANT * 340 * 340 * UA)) - 1).toBeLessThan(1e-6);
     const c = semenovCriterion(qg, 300, UA);
     expect(c.safe).toBe(true);
     // at the critical coolant temperature psi = 1/e

@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { loadStudy } from '../../src/study';
 import type { Study } from '../../src/study/types';
 import { fitStudy } from '../../src/workflow/fit-study';
-import { GAS_CONSTANT } from '../../src/kinetics/temperature';
+import { GAS_CONSTANT } from '../../src/core/constants';
 
 const studyPath = resolve(__dirname, '../data/fixtures/study.json');
 const load = (): Study =>

@@ -15,6 +15,7 @@
  * The numeric meaning of every helper is defined once in RUNTIME below and shared by the
  * interpreter (evaluate) and the generated code.
  */
+import { InternalError } from '../../core/errors.js';
 
 /** Floor used when differentiating fractional powers of concentrations near zero (see RUNTIME.reg). */
 export const TINY = 1e-30;
@@ -77,7 +78,7 @@ export class NodeStore {
   }
 
   variable(v: number): Node {
-    if (!Number.isInteger(v) || v < 0) throw new Error(`internal: bad variable index ${v}`);
+    if (!Number.isInteger(v) || v < 0) throw new InternalError(`bad variable index ${v}`);
     return this.intern(`v${v}`, (id) => ({ kind: 'var', id, height: 0, v }));
   }
 
@@ -163,7 +164,7 @@ export class NodeStore {
 
   call(fn: FnName, args: readonly Node[]): Node {
     const arity = fn === 'min' || fn === 'max' ? 2 : 1;
-    if (args.length !== arity) throw new Error(`internal: ${fn} takes ${arity} arguments`);
+    if (args.length !== arity) throw new InternalError(`${fn} takes ${arity} arguments`);
     if (args.every((x) => x.kind === 'num')) {
       const f = evalCall(fn, args.map((x) => (x as NumNode).value));
       const folded = this.fold(f);

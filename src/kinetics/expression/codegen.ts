@@ -19,15 +19,16 @@
  * and receives Math and the helper functions as arguments, so it touches no other scope.
  */
 import { RUNTIME, children, type Node } from './ast.js';
+import { InternalError } from '../../core/errors.js';
 
 const ACCESS_RE = /^[A-Za-z_][A-Za-z0-9_]*(\[\d+\])?$/;
 const NUMBER_TEXT_RE = /^-?(\d+(\.\d+)?|\.\d+)(e[+-]?\d+)?$/;
 
 /** A finite number as a JavaScript literal (negative values parenthesised). */
 export function formatNumber(x: number): string {
-  if (typeof x !== 'number' || !Number.isFinite(x)) throw new Error(`internal: cannot emit non-finite literal ${String(x)}`);
+  if (typeof x !== 'number' || !Number.isFinite(x)) throw new InternalError(`cannot emit non-finite literal ${String(x)}`);
   const s = String(x);
-  if (!NUMBER_TEXT_RE.test(s)) throw new Error(`internal: unexpected number text ${s}`);
+  if (!NUMBER_TEXT_RE.test(s)) throw new InternalError(`unexpected number text ${s}`);
   return x < 0 ? `(${s})` : s;
 }
 
@@ -82,7 +83,7 @@ export function emitBody(assignments: readonly Assignment[], opts: EmitOptions):
     let s = varText.get(v);
     if (s === undefined) {
       s = opts.access(v);
-      if (!ACCESS_RE.test(s)) throw new Error(`internal: unsafe variable accessor '${s}'`);
+      if (!ACCESS_RE.test(s)) throw new InternalError(`unsafe variable accessor '${s}'`);
       varText.set(v, s);
     }
     return s;
@@ -126,7 +127,7 @@ export function emitBody(assignments: readonly Assignment[], opts: EmitOptions):
         break;
       case 'call': {
         const f = CALL_TEXT[n.fn];
-        if (f === undefined) throw new Error(`internal: unknown function tag`);
+        if (f === undefined) throw new InternalError('unknown function tag');
         t = `${f}(${n.args.map((a) => text.get(a.id)).join(',')})`;
         break;
       }
@@ -140,7 +141,7 @@ export function emitBody(assignments: readonly Assignment[], opts: EmitOptions):
     text.set(n.id, t);
   }
   const outLines = assignments.map((a) => {
-    if (!Number.isInteger(a.index) || a.index < 0) throw new Error('internal: bad output index');
+    if (!Number.isInteger(a.index) || a.index < 0) throw new InternalError('bad output index');
     return `out[${a.index}]=${text.get(a.node.id)};`;
   });
   return {

@@ -23,9 +23,9 @@ import { outcome, type Outcome, type StatusTable } from '../../core/outcome.js';
 import type { CompiledKinetics } from '../../kinetics/compiled.js';
 import { findAllRoots } from '../../numerics/roots.js';
 import { newton } from '../../numerics/newton.js';
-import { R_GAS } from '../gas.js';
 import type { ReactionEnthalpy } from './enthalpy.js';
 import { cpIntegral, type HeatCapacity } from './heat-capacity.js';
+import { GAS_CONSTANT } from '../../core/constants.js';
 
 /** A stirred tank with heat exchange, SI. */
 export interface StirredTankHeatSpec {
@@ -124,7 +124,7 @@ class FixedTemperatureBalance {
     if (spec.gas) {
       let FT = 0;
       for (let j = 0; j < nS; j++) FT += Math.max(F[j], 0);
-      f = FT > 0 ? (spec.P as number) / (R_GAS * T * FT) : 0;
+      f = FT > 0 ? (spec.P as number) / (GAS_CONSTANT * T * FT) : 0;
     }
     for (let j = 0; j < nS; j++) this.C[j] = Math.max(F[j], 0) * f;
     this.kin.rates(this.C, T, this.theta, this.r);

@@ -25,7 +25,7 @@ import type { ReactionEnthalpy } from './enthalpy.js';
 import type { HeatCapacity } from './heat-capacity.js';
 import { cpAt } from './heat-capacity.js';
 import { stateLayout, type CoolingMode, type StateLayout } from './layout.js';
-import { R_GAS } from '../gas.js';
+import { GAS_CONSTANT } from '../../core/constants.js';
 
 /**
  * Per-reaction multiplicative factor on the intrinsic rate (effectiveness factor of a pellet
@@ -101,7 +101,7 @@ export class TubeBalances {
     let FT0 = 0;
     for (let j = 0; j < this.nS; j++) FT0 += spec.F0[j];
     this.FT0 = FT0;
-    this.cT0 = spec.gas ? (spec.P0 as number) / (R_GAS * spec.T0) : 0;
+    this.cT0 = spec.gas ? (spec.P0 as number) / (GAS_CONSTANT * spec.T0) : 0;
     this.scale = new Float64Array(this.layout.n).fill(FT0);
     const L = this.layout;
     if (L.p >= 0) this.scale[L.p] = 1;
