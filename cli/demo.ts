@@ -31,6 +31,11 @@ import { readStudy } from './study-input.js';
  */
 export const DEMO_DATA_DIR = fileURLToPath(new URL(/\/dist\/cli\/[^/]*$/.test(import.meta.url) ? '../../datasets-demo/' : '../datasets-demo/', import.meta.url));
 const MARKER = '.rateloom-demo';
+/**
+ * The production cases the demo sizes (datasets-demo/pbr/<name>.case.json): the cooled multitubular
+ * plant (energy balance), its adiabatic variant, and the hotter isothermal option that extrapolates.
+ */
+export const DEMO_CASES = ['plant', 'plant-adiabatic', 'hot'] as const;
 
 export interface DemoOptions {
   /** Output folder; default 'reports/demo'. */
@@ -75,7 +80,7 @@ export interface DemoResult {
   check: { rowsIn: number; rowsUsed: number; rowsRejected: number; rejections: { line: number; reason: string; message: string }[]; replicateGroups: number; observations: number; degreesOfFreedom: number };
   comparison: { best: string; ranking: { name: string; delta: number | null; weight: number | null; converged: boolean }[]; verdict: string; report: { html: string; markdown: string } };
   fit: DemoStudyResult & { handoff: string; lackOfFitP: number | null };
-  sizing: { case: string; status: string; success: boolean; size: number | null; unit: string | null; p90: number | null; p95: number | null; warnings: string[]; cautions: string[]; report: { html: string; markdown: string }; json: string }[];
+  sizing: { case: string; status: string; success: boolean; size: number | null; unit: string | null; p90: number | null; p95: number | null; thermal: string | null; warnings: string[]; cautions: string[]; report: { html: string; markdown: string }; json: string }[];
   liquids: DemoStudyResult[];
   index: string;
   /** Every file written, absolute. */
@@ -181,7 +186,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
   const h = parseHandoff(JSON.parse(handoffText));
   const dk = kineticsFromHandoff(h);
   const sizing: DemoResult['sizing'] = [];
-  for (const name of ['plant', 'hot']) {
+  for (const name of DEMO_CASES) {
     const casePath = join(dataDir, 'pbr', `${name}.case.json`);
     const caseRaw = readJson(casePath, 'case file');
     const kase = loadCase(caseRaw, dk.kinetics.speciesNames, dk.kinetics.reactionIds);
@@ -209,6 +214,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
       unit: result.size?.unit ?? null,
       p90: pct(0.9),
       p95: pct(0.95),
+      thermal: thermalLine(result),
       warnings: result.warnings.map((x) => `[${x.code}] ${x.message}`),
       cautions: result.cautions,
       report: { html: sr.html, markdown: sr.markdown },
@@ -266,6 +272,16 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
   return { ...base, index, files, seconds, text: `${text}\n\nDemo finished in ${g(seconds, 3)} s. Open ${rel(index)} for all reports.` };
 }
 
+/** One line on the energy-balance design of a sizing (null for an isothermal case). */
+function thermalLine(r: SizingResult): string | null {
+  const th = r.thermal;
+  if (!th) return null;
+  const d = th.design;
+  const margin = th.runaway?.margin;
+  return `${th.mode}: ${d.count} tubes x ${g(d.innerDiameter * 1000, 3)} mm x ${g(d.length, 3)} m, binding ${d.binding}${d.met ? '' : ' (NOT MET)'}; hot spot ${g(th.hotSpot.temperature, 4)} K (limit ${th.hotSpot.limit === null ? 'none' : `${g(th.hotSpot.limit, 4)} K`})` +
+    (margin !== undefined && margin !== null ? `; runaway margin ${g(margin, 3)} K` : '');
+}
+
 function fmtTruthTable(ps: ParameterVsTruth[]): string[] {
   return ps.map((p) => {
     const ci = p.linear ? `[${g(p.linear[0])}, ${g(p.linear[1])}]` : 'n/a';
@@ -286,6 +302,7 @@ function narrate(r: Omit<DemoResult, 'index' | 'files' | 'text' | 'seconds'>, st
   L.push(`         reference temperature ${g(study.referenceTemperature, 4)} K; hand-off file ${rel(r.fit.handoff)}`);
   for (const s of r.sizing) {
     L.push(`4. size  ${s.case}: ${s.status}${s.size !== null ? `, ${g(s.size, 4)} ${s.unit} catalyst (nominal), P90 ${g(s.p90 ?? NaN, 4)}, P95 ${g(s.p95 ?? NaN, 4)} ${s.unit}` : ''}`);
+    if (s.thermal) L.push(`         ${s.thermal}`);
     for (const w of s.warnings.filter((x) => x.startsWith('[W_EXTRAPOLATION]'))) L.push(`         ${w}`);
   }
   if (r.sizing.length) {
@@ -297,7 +314,7 @@ function narrate(r: Omit<DemoResult, 'index' | 'files' | 'text' | 'seconds'>, st
     L.push(...fmtTruthTable(l.parameters));
   }
   L.push('');
-  L.push(`Reports in ${rel(r.fit.report.html).replace(/[^/\\]*$/, '')}: index.html, pbr-compare.html, pbr-fit.html, plant-sizing.html, hot-sizing.html${r.liquids.length ? ', batch-fit.html, cstr-fit.html' : ''} (each with a .md twin).`);
+  L.push(`Reports in ${rel(r.fit.report.html).replace(/[^/\\]*$/, '')}: index.html, pbr-compare.html, pbr-fit.html, ${DEMO_CASES.map((c) => `${c}-sizing.html`).join(', ')}${r.liquids.length ? ', batch-fit.html, cstr-fit.html' : ''} (each with a .md twin).`);
   return L.join('\n');
 }
 

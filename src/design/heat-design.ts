@@ -108,7 +108,7 @@ function drawsFor(input: SizingInput, map: ParameterMap, sys: DesignSystem, hs: 
   const seed = opts.seed ?? kase.uncertainty.seed;
   const levels = opts.levels ?? kase.uncertainty.levels;
   const quantity = (): { value: number; status: string } => {
-    const r = hs.trial(t.N, key, X);
+    const r = hs.trial(t.N, key, X, 1e-7);
     return { value: r.status === 'sized' ? r.W * t.N : NaN, status: r.status };
   };
   const unc = propagate(new Sizer(sys), map, quantity, t.W * t.N, 'size', 'kg', undefined, { draws, seed, levels, ...(opts.onProgress ? { onProgress: opts.onProgress } : {}) });
@@ -141,6 +141,13 @@ export function sizeCooledBed(input: SizingInput, map: ParameterMap, sys: Design
     thermal.outletTemperature.percentiles = mc.draws.outletTemperature.percentiles;
   }
   return verdict(input, thermal, mc.unc, warnings, base, t, hs);
+}
+
+/** Superficial mass flux of one tube, kg/(m2 s). */
+function massFlux(t: TubeTrial, hs: HeatSizer): number {
+  let m = 0;
+  t.tube.spec.F0.forEach((f, j) => (m += f * hs.molarMasses[j]));
+  return m / hs.area();
 }
 
 /** The full sizing result of a cooled bed: status from the limits and the hot-spot percentile. */
@@ -183,7 +190,7 @@ function verdict(input: SizingInput, thermal: ThermalSizing, unc: UncertaintyRes
     pressure: { inlet: P0, outlet: P0 - t.drop, drop: t.drop, dropBar: t.drop / 1e5, unit: 'Pa' },
     tubes: {
       count: t.N, innerDiameter: hs.diameter, length: t.length, catalystPerTube: t.W, flowPerTube: t.tube.spec.F0.reduce((a, b) => a + b, 0),
-      superficialMassFlux: NaN, alphaPerTube: t.tube.spec.alpha, pressureDrop: { pa: t.drop, bar: t.drop / 1e5 },
+      superficialMassFlux: massFlux(t, hs), alphaPerTube: t.tube.spec.alpha, pressureDrop: { pa: t.drop, bar: t.drop / 1e5 },
       allowedPressureDrop: kase.tubes!.allowedPressureDrop, designedFor: { level: null, basis: `nominal fit, energy balance (${thermal.design.binding} binding)` }, nominalCount: t.N,
     },
     uncertainty: unc,

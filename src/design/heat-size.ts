@@ -70,8 +70,12 @@ export class HeatSizer {
     return (f0 - F[key]) / f0;
   }
 
-  /** Size one tube of N for the target conversion X of species `key` (theta: the sys theta). */
-  trial(N: number, key: number, X: number): TubeTrial {
+  /**
+   * Size one tube of N for the target conversion X of species `key` (theta: the sys theta); rtol is
+   * the integrator's relative tolerance (default 1e-8; Monte Carlo draws use 1e-7, far below the
+   * spread the draws measure).
+   */
+  trial(N: number, key: number, X: number, rtol = 1e-8): TubeTrial {
     const tube = this.tubeOf(N);
     const tt = new ThermalTube(tube.spec, this.kinetics, this.sys.theta);
     const bound = this.th.maxTubeLength * 20 * this.sys.kase.tubes!.bulkDensity * this.area();
@@ -79,12 +83,12 @@ export class HeatSizer {
     let sol: ThermalTubeSolution;
     let W: number;
     if (tube.spec.mode === 'counter-current') {
-      const r = this.counterCurrentSize(tt, bound, N, key, X);
+      const r = this.counterCurrentSize(tt, bound, N, key, X, rtol);
       if (!r.sol) return this.failedTrial(N, tube, r.status, r.detail);
       sol = r.sol;
       W = r.W;
     } else {
-      sol = tt.solve(bound, { target });
+      sol = tt.solve(bound, { target, rtol });
       if (sol.status !== 'target-reached') {
         const status = sol.status === 'success' ? 'target-unreachable' : sol.status;
         return this.failedTrial(N, tube, status as TubeTrial['status'], sol.message, sol);
@@ -100,12 +104,12 @@ export class HeatSizer {
   }
 
   /** Counter-current: the catalyst mass whose BVP solution meets the target (Brent on the mass). */
-  private counterCurrentSize(tt: ThermalTube, bound: number, N: number, key: number, X: number): { sol?: ThermalTubeSolution; W: number; status: TubeTrial['status']; detail: string } {
-    const guess = new ThermalTube({ ...tt.spec, mode: 'constant-coolant' }, this.kinetics, this.sys.theta).solve(bound, { target: (y) => this.conversion(y, N, key) - X });
+  private counterCurrentSize(tt: ThermalTube, bound: number, N: number, key: number, X: number, rtol: number): { sol?: ThermalTubeSolution; W: number; status: TubeTrial['status']; detail: string } {
+    const guess = new ThermalTube({ ...tt.spec, mode: 'constant-coolant' }, this.kinetics, this.sys.theta).solve(bound, { target: (y) => this.conversion(y, N, key) - X, rtol });
     if (guess.status !== 'target-reached') return { W: NaN, status: 'target-unreachable', detail: 'the target is not reached even with the coolant held at its inlet temperature' };
     let last: ThermalTubeSolution | undefined;
     const g = (W: number): number => {
-      last = tt.solve(W);
+      last = tt.solve(W, { rtol });
       return last.success ? this.conversion(last.outlet, N, key) - X : NaN;
     };
     let lo = guess.x * 0.5;
@@ -114,7 +118,7 @@ export class HeatSizer {
     for (let k = 0; k < 20 && !(g(lo) < 0); k++) lo /= 2;
     const br = brent(g, lo, hi, { xtol: 1e-9 * hi });
     if (!br.success || !last) return { W: NaN, status: last?.status === 'bvp-not-converged' ? 'bvp-not-converged' : 'target-unreachable', detail: last?.message ?? br.message };
-    const sol = tt.solve(br.x);
+    const sol = tt.solve(br.x, { rtol });
     return sol.success ? { sol, W: br.x, status: 'sized', detail: '' } : { W: NaN, status: 'bvp-not-converged', detail: sol.message };
   }
 

@@ -3,7 +3,7 @@
  * plain tables (every number followed by its unit), without charts.
  */
 import { escapeMarkdown as md, formatInterval, formatNumber, formatUnit, NOT_COMPUTED, paToKPa, SIG_VALUE } from './format.js';
-import type { FitReportData, PelletReportData, ReportWarning, SizingReportData, TransportReportData } from './types.js';
+import type { FitReportData, PelletReportData, ReportWarning, SizingReportData, ThermalReportData, TransportReportData } from './types.js';
 
 /** A number with its unit, or 'not computed'. */
 function q(x: number | null | undefined, unit: string | null | undefined, sig = SIG_VALUE): string {
@@ -177,8 +177,43 @@ export function renderSizingMarkdown(data: SizingReportData): string {
     const rows = [...data.sensitivity].sort((a, b) => Math.abs(b.effect) - Math.abs(a.effect));
     parts.push('## Sensitivity', data.sensitivityMeasure ? md(data.sensitivityMeasure) : '', mdTable(['Parameter', 'Effect'], rows.map((r) => [md(r.parameter), q(r.effect, data.sensitivityUnit ?? '1', 3)])));
   }
+  if (data.thermal) parts.push(...thermalMarkdown(data.thermal));
   if (data.pellet) parts.push(...pelletMarkdown(data.pellet));
   return parts.filter((p) => p !== '').join('\n\n') + '\n';
+}
+
+/** A value with its P50/P90/P95 (or whatever levels were drawn) in one cell. */
+function withPercentiles(x: number | null, unit: string, ps?: { level: number; value: number }[]): string {
+  const tail = ps && ps.length ? ` (${ps.map((p) => `P${formatNumber(p.level * 100, 3)} ${q(p.value, unit, 5)}`).join(', ')})` : '';
+  return `${q(x, unit, 5)}${tail}`;
+}
+
+/** The energy-balance section of a sizing summary. */
+function thermalMarkdown(t: ThermalReportData): string[] {
+  const rows: string[][] = [
+    ['Mode', md(t.mode)],
+    ['Binding constraint', `${md(t.binding)}${t.met ? '' : ' (NOT MET)'}`],
+  ];
+  const d = t.design;
+  if (d) {
+    rows.push(
+      ['Tubes', `${q(d.count, 'tubes', 12)} x ${q(d.diameter * 1000, 'mm', 3)}`],
+      ['Tube length (limit)', `${q(d.length, 'm', 4)} (${q(d.maxLength, 'm', 4)})`],
+      ['Pressure drop (allowed)', `${q(paToKPa(d.pressureDrop), 'kPa')} (${q(paToKPa(d.allowedPressureDrop), 'kPa')})`],
+      ['Overall coefficient U', d.U === null ? md(d.uSource) : `${q(d.U, 'W/(m2 K)', 4)}, ${md(d.uSource)}`],
+    );
+  }
+  rows.push(['Hot spot (nominal; percentiles over the draws)', `${withPercentiles(t.hotSpot.value, 'K', t.hotSpotPercentiles)} at ${q(t.hotSpot.position, 'm', 3)}`]);
+  rows.push(['Hot-spot limit', t.hotSpot.limit === null ? 'none given' : q(t.hotSpot.limit, 'K', 5)]);
+  if (t.outletTemperature) rows.push(['Outlet temperature', withPercentiles(t.outletTemperature.value, 'K', t.outletTemperature.percentiles)]);
+  if (t.runaway) rows.push(['Design / critical coolant temperature', `${q(t.runaway.design, 'K', 5)} / ${q(t.runaway.critical, 'K', 5)}`]);
+  const m = t.runawayMargin;
+  if (m) rows.push([`Runaway margin${m.of ? ` (percentiles over ${m.draws} of ${m.of} draws)` : ''}`, withPercentiles(m.value, 'K', m.percentiles)]);
+  return [
+    '## Energy balance',
+    t.runaway ? `Runaway criterion: ${md(t.runaway.criterion)}.` : 'No coolant: no runaway margin.',
+    mdTable(['Quantity', 'Value'], rows),
+  ];
 }
 
 /** The plant pellet section of a sizing summary. */

@@ -379,6 +379,12 @@ export interface ThermalReportData {
   hotSpotPercentiles?: { level: number; value: number }[];
   hotSpotHistogram?: { start: number; end: number; count: number }[];
   runaway?: { criterion: string; coolant: number[]; hotSpot: number[]; critical: number | null; design: number };
+  /** Tube design under heat: count, inner diameter (m), length and its limit (m), pressure drop (Pa), U (W/(m2 K)) and its source. */
+  design?: { count: number; diameter: number; length: number; maxLength: number; pressureDrop: number; allowedPressureDrop: number; U: number | null; uSource: string };
+  /** Outlet temperature (K) with percentiles over the draws. */
+  outletTemperature?: { value: number; percentiles?: { level: number; value: number }[] };
+  /** Runaway margin: critical minus design coolant temperature (K), with percentiles over the draws it was computed for. */
+  runawayMargin?: { value: number | null; percentiles?: { level: number; value: number }[]; draws?: number; of?: number };
 }
 
 /** The plant pellet in a sizing report (lengths in mm, masses in kg, pressures in kPa). */

@@ -97,5 +97,11 @@ function thermalData(r: SizingResult): SizingReportData['thermal'] {
     profile: { z: t.profile.z, T: t.profile.T, Ta: t.profile.Ta },
     ...(t.draws ? { hotSpotPercentiles: t.draws.hotSpot.percentiles, hotSpotHistogram: t.draws.hotSpot.histogram } : {}),
     ...(t.runaway ? { runaway: { criterion: t.runaway.criterion, coolant: t.runaway.scan.coolant, hotSpot: t.runaway.scan.hotSpot, critical: t.runaway.criticalCoolantTemperature, design: t.runaway.coolantTemperature } } : {}),
+    design: {
+      count: t.design.count, diameter: t.design.innerDiameter, length: t.design.length, maxLength: t.design.maxTubeLength,
+      pressureDrop: t.design.pressureDrop.pa, allowedPressureDrop: t.design.allowedPressureDrop, U: t.heatTransfer.U, uSource: t.heatTransfer.source,
+    },
+    outletTemperature: { value: t.outletTemperature.value, ...(t.outletTemperature.percentiles ? { percentiles: t.outletTemperature.percentiles } : {}) },
+    ...(t.runaway ? { runawayMargin: { value: t.runaway.margin, ...(t.draws ? { percentiles: t.draws.runawayMargin.percentiles, draws: t.draws.runawayMargin.succeeded, of: t.draws.runawayMargin.draws } : {}) } } : {}),
   };
 }

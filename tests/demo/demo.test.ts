@@ -24,6 +24,18 @@ describe('demo data generator', () => {
     expect(a).toEqual(b);
   });
 
+  it('the plant cases carry the invented heat data recorded in truth.json', () => {
+    const rec = (readTruth() as unknown as { plantHeat: Record<string, unknown> }).plantHeat;
+    for (const name of ['plant', 'plant-adiabatic']) {
+      const heat = JSON.parse(readFileSync(join(DEMO_DIR, 'pbr', `${name}.case.json`), 'utf8')).heat;
+      for (const k of ['reactionEnthalpy', 'referenceTemperature', 'heatCapacities', 'maxTemperature', 'maxTubeLength']) expect(heat[k], `${name} ${k}`).toEqual(rec[k]);
+      if (heat.mode !== 'adiabatic') {
+        expect(heat.overallCoefficient).toEqual(rec.overallCoefficient);
+        expect(heat.coolant).toEqual(rec.coolant);
+      }
+    }
+  });
+
   it('writes the flaws recorded in truth.json', () => {
     const truth = readTruth();
     const csv = readFileSync(join(DEMO_DIR, 'pbr/runs.csv'), 'utf8');
@@ -41,7 +53,7 @@ describe('demo pipeline (in-process)', () => {
   }, 120_000);
 
   it('writes every report and an index page linking them', () => {
-    for (const name of ['index.html', 'pbr-check.txt', 'pbr-compare.html', 'pbr-compare.md', 'pbr-fit.html', 'pbr-fit.md', 'pbr-kinetics.json', 'plant-sizing.html', 'plant-sizing.md', 'plant-sizing.json', 'hot-sizing.html', 'batch-fit.html', 'cstr-fit.html']) {
+    for (const name of ['index.html', 'pbr-check.txt', 'pbr-compare.html', 'pbr-compare.md', 'pbr-fit.html', 'pbr-fit.md', 'pbr-kinetics.json', 'plant-sizing.html', 'plant-sizing.md', 'plant-sizing.json', 'plant-adiabatic-sizing.html', 'hot-sizing.html', 'batch-fit.html', 'cstr-fit.html']) {
       expect(existsSync(join(out, name)), name).toBe(true);
     }
     const index = readFileSync(join(out, 'index.html'), 'utf8');
@@ -91,13 +103,28 @@ describe('demo pipeline (in-process)', () => {
   });
 
   it('sizes the in-range case without and the hot case with an extrapolation warning', () => {
-    const [plant, hot] = r.sizing;
+    const [plant, , hot] = r.sizing;
     expect(plant.success).toBe(true);
     expect(plant.unit).toBe('kg');
     expect(plant.size!).toBeGreaterThan(0);
     expect(plant.p95!).toBeGreaterThanOrEqual(plant.p90!);
     expect(plant.warnings.some((w) => w.startsWith('[W_EXTRAPOLATION]'))).toBe(false);
     expect(hot.warnings.some((w) => w.startsWith('[W_EXTRAPOLATION]') && w.includes('temperature'))).toBe(true);
+  });
+
+  it('sizes the plant as a cooled multitubular bed and shows why the adiabatic variant fails', () => {
+    const [plant, adiabatic] = r.sizing;
+    const cooled = JSON.parse(readFileSync(plant.json, 'utf8'));
+    expect(cooled.thermal.mode).toBe('constant-coolant');
+    expect(cooled.thermal.design.length).toBeLessThanOrEqual(12);
+    expect(cooled.thermal.hotSpot.temperature).toBeLessThanOrEqual(cooled.thermal.hotSpot.limit);
+    expect(cooled.thermal.runaway.margin).toBeGreaterThan(0);
+    expect(plant.thermal).toMatch(/binding (tube length|pressure drop|target conversion)/);
+    expect(readFileSync(plant.report.markdown, 'utf8')).toMatch(/Energy balance/);
+    // without cooling the hot spot passes the 260 degC limit: reported as not met (exit 1)
+    expect(adiabatic.status).toBe('hot-spot-exceeded');
+    expect(adiabatic.success).toBe(false);
+    expect(adiabatic.thermal).toMatch(/NOT MET/);
   });
 
   it('refuses a foreign non-empty folder and leaves its files alone', async () => {

@@ -34,4 +34,12 @@ describe('energy-balance report', () => {
     expect(html).toContain('Energy balance');
     expect(html).toContain('Critical coolant temperature');
   });
+  it('the Markdown summary has the energy-balance table with the same numbers as the JSON', async () => {
+    const mdText = (await renderSizingReport(data)).markdown;
+    expect(mdText).toContain('## Energy balance');
+    expect(mdText).toContain(`Binding constraint | ${r.thermal!.design.binding}`);
+    expect(mdText).toMatch(/Hot spot \(nominal; percentiles over the draws\) \| [0-9.]+ K \(P50 [0-9.]+ K, P90 [0-9.]+ K, P95 [0-9.]+ K\)/);
+    expect(mdText).toMatch(/Runaway margin/);
+    expect(mdText).toContain(`${r.thermal!.design.count} tubes`);
+  });
 });
