@@ -41,6 +41,9 @@ export function formatLabCheck(lab: LabData): string {
     L.push(...table(rows).split('\n').map((l) => `    ${l}`));
     L.push(`  element balance closure tolerance: 100 +/- ${g(100 * lab.balanceTolerance)} %${elems.length ? '' : ' (no element has all its carriers measured)'}`);
   }
+  if (lab.skipped.length) {
+    L.push(`  skipped (${lab.skipped.length} lab row(s) of runs rejected by the per-run sources, not fitted): ${lab.skipped.map((k) => `${k.runId} (${lab.file}:${k.line})`).join(', ')}`);
+  }
   if (lab.warnings.length) {
     L.push(`  warnings (${lab.warnings.length}; the runs are kept):`);
     for (const w of lab.warnings) L.push(`    ${w}`);

@@ -7,6 +7,7 @@ import type { Outcome } from '../core/outcome.js';
 import type { Parameter } from '../core/parameter.js';
 import type { FitStatus } from './status.js';
 import type { FitVerdict, VerdictRules } from './verdict.js';
+import type { WhitenBlock } from './whiten.js';
 
 export interface FitData {
   /** Measured values, one per observation (same order as the model's predictions). */
@@ -20,6 +21,11 @@ export interface FitData {
   sigmaKnown: boolean;
   /** Replicate group label per observation (same label = same conditions), for the lack-of-fit test. */
   groups?: ReadonlyArray<string | number>;
+  /**
+   * Blocks of observations whose errors are correlated (whiten.ts): the fit minimises the
+   * generalised sum e' R^-1 e and its residuals r are the whitened ones. Default: independent errors.
+   */
+  whiten?: readonly WhitenBlock[];
 }
 
 export type SolverName = 'trust-region' | 'card';

@@ -12,10 +12,13 @@
  * one when it provides `jacobian`, else forward differences with the relative step of MINPACK's
  * fdjac2 (h_j = sqrt(eps) |x_j|, or sqrt(eps) when x_j = 0; More, Garbow & Hillstrom 1980, ANL-80-74),
  * or central differences (h_j = eps^(1/3) max(|x_j|, 1)) on request. A step that leaves the bounds
- * is taken to the other side. All buffers are preallocated: the residual loop does not allocate.
+ * is taken to the other side. With blocks of correlated observations (`whiten`, see whiten.ts) the
+ * residuals and the Jacobian are those of the whitened problem, r = L^-1 e. All buffers are
+ * preallocated: the residual loop does not allocate.
  */
 import type { Warning } from '../core/outcome.js';
 import type { PredictionFailure, RegressionModel } from './model.js';
+import { applyWhitening, unwhiten, type WhitenBlock } from './whiten.js';
 
 /** A least-squares problem in the free parameters: what the solvers see. */
 export interface LeastSquaresProblem {
@@ -47,6 +50,8 @@ export interface ResidualProblemInit {
   differences?: 'forward' | 'central';
   /** Ignore the model's exact Jacobian and use finite differences; default false. */
   forceFiniteDifferences?: boolean;
+  /** Blocks of correlated observations (whiten.ts): residuals and Jacobian are whitened; default none. */
+  whiten?: readonly WhitenBlock[];
 }
 
 const SQRT_EPS = Math.sqrt(2.220446049250313e-16);
@@ -76,6 +81,8 @@ export class ResidualProblem implements LeastSquaresProblem {
   private readonly upper: Float64Array | undefined;
   private readonly central: boolean;
   private readonly exact: boolean;
+  private readonly whiten: readonly WhitenBlock[];
+  private readonly rRaw: Float64Array;
 
   constructor(init: ResidualProblemInit) {
     this.model = init.model;
@@ -94,6 +101,8 @@ export class ResidualProblem implements LeastSquaresProblem {
     this.lower = init.lower;
     this.upper = init.upper;
     this.central = init.differences === 'central';
+    this.whiten = init.whiten ?? [];
+    this.rRaw = new Float64Array(this.whiten.length ? this.m : 0);
   }
 
   /** Whether the exact model Jacobian is used. */
@@ -165,10 +174,22 @@ export class ResidualProblem implements LeastSquaresProblem {
   residuals(x: Float64Array, out: Float64Array): boolean {
     if (!this.predict(x, this.pred)) return false;
     for (let i = 0; i < this.m; i++) out[i] = (this.measured[i] - this.pred[i]) * this.invSigma[i];
+    if (this.whiten.length) applyWhitening(this.whiten, out);
     return true;
   }
 
   jacobian(x: Float64Array, r: Float64Array, J: Float64Array): boolean {
+    if (!this.whiten.length) return this.rawJacobian(x, r, J);
+    // Differences need the unwhitened residuals at x; the Jacobian is whitened column by column.
+    this.rRaw.set(r);
+    unwhiten(this.whiten, this.rRaw);
+    if (!this.rawJacobian(x, this.rRaw, J)) return false;
+    applyWhitening(this.whiten, J, this.n);
+    return true;
+  }
+
+  /** Jacobian of the scaled, unwhitened residuals e = (y - f) / sigma, given e at x. */
+  private rawJacobian(x: Float64Array, r: Float64Array, J: Float64Array): boolean {
     const m = this.m;
     const n = this.n;
     if (this.exact && this.Jfull && this.model.jacobian) {

@@ -122,6 +122,7 @@ export function makeProblem(prep: PreparedFit, thetaFull: Float64Array, freeInde
     lower: Float64Array.from(freeIndex, (j) => prep.lowerFull[j]),
     upper: Float64Array.from(freeIndex, (j) => prep.upperFull[j]),
     differences: prep.options.differences ?? 'forward',
+    ...(prep.data.whiten?.length ? { whiten: prep.data.whiten } : {}),
   });
 }
 

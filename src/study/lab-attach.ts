@@ -5,7 +5,8 @@
  */
 import { isAbsolute, resolve } from 'node:path';
 import { RateloomError, isRateloomError } from '../core/errors.js';
-import { readCsv } from '../data/csv.js';
+import { type CsvTable, readCsv } from '../data/csv.js';
+import type { SourceSpec } from '../data/spec.js';
 import { activityParameters } from './activity-params.js';
 import { resolveLabConfig } from './lab-config.js';
 import { loadLabRows } from './lab-load.js';
@@ -16,6 +17,8 @@ export interface LabIo {
   /** Folder of the study file (lab file paths are relative to it). */
   baseDir: string;
   readFile: (absPath: string) => string;
+  /** Every run id the per-run sources define, rejected runs included (a lab row naming another id is an error). */
+  definedRunIds?: ReadonlySet<string>;
 }
 
 function readLabTable(spec: LabDataSpec, io: LabIo) {
@@ -30,6 +33,17 @@ function readLabTable(spec: LabDataSpec, io: LabIo) {
   return readCsv(text, spec.file);
 }
 
+/** Every run id written in the run column of the per-run sources, rows rejected later included. */
+export function perRunIds(tables: readonly CsvTable[], specs: readonly SourceSpec[]): Set<string> {
+  const ids = new Set<string>();
+  specs.forEach((s, i) => {
+    if (s.layout !== 'per-run') return;
+    const col = tables[i].header.indexOf(s.columns.run);
+    if (col >= 0) for (const row of tables[i].rows) ids.add((row.cells[col] ?? '').trim());
+  });
+  return ids;
+}
+
 /** The study with its lab data and activity model joined; the study itself is not changed. */
 export function attachLabData(study: Study, labSpec: LabDataSpec | undefined, activitySpec: ActivitySpec | undefined, io: LabIo): Study {
   if (!labSpec && !activitySpec) return study;
@@ -39,7 +53,7 @@ export function attachLabData(study: Study, labSpec: LabDataSpec | undefined, ac
     if (kind === 'batch' || kind === 'semibatch') throw new RateloomError('E_VALUE', `labData reads outlet fractions of a flow reactor, not of a ${kind} reactor`, { path: ['labData'] });
     const cfg = resolveLabConfig(labSpec, study.chemistry, study.keyReactantIndex, study.errorModels, DEFAULT_ERROR_MODEL);
     const runIndex = new Map(study.runs.map((r, i) => [r.id, i]));
-    const loaded = loadLabRows(readLabTable(labSpec, io), cfg, study.runs, runIndex, study.chemistry);
+    const loaded = loadLabRows(readLabTable(labSpec, io), cfg, study.runs, runIndex, study.chemistry, io.definedRunIds);
     const n0 = study.observations.length;
     const observations: Observation[] = [...study.observations, ...loaded.observations.map((o, k) => ({ ...o, index: n0 + k }) as Observation)];
     const runs = study.runs.map((r, i) => (loaded.times.has(i) ? { ...r, timeOnStream: loaded.times.get(i) as number } : r));

@@ -7,13 +7,13 @@
  * yield and the element balance closure (outside the tolerance: warned, the run is kept).
  */
 import type { Chemistry } from '../chemistry/mechanism.js';
-import { RateloomError } from '../core/errors.js';
+import { RateloomError, closestName } from '../core/errors.js';
 import { columnIndex, type CsvRow, type CsvTable } from '../data/csv.js';
 import { conversionFromStandard, elementClosure, flowFromStandard, selectivity, yieldOf } from '../data/lab-arithmetic.js';
 import { unitFor } from '../units/index.js';
 import type { LabConfig } from './lab-config.js';
 import { labMeasures } from './lab-measures.js';
-import type { LabData, LabRunDerived } from './lab-types.js';
+import type { LabData, LabRunDerived, LabSkipped } from './lab-types.js';
 import type { Observation, StudyRun } from './types.js';
 
 const NUMBER_RE = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
@@ -76,15 +76,32 @@ function checkRow(table: CsvTable, row: LabRow, cfg: LabConfig, run: StudyRun, c
   if (!((run.feed?.[s] ?? 0) > 0)) throw rowError(table, row.line, `run '${run.id}' feeds no '${name}', so it cannot serve as internal standard`, `Give the feed flow (or feed fraction) of ${name} in the per-run source.`);
 }
 
-function readRows(table: CsvTable, cfg: LabConfig, runIndex: ReadonlyMap<string, number>, runs: readonly StudyRun[], chem: Chemistry): LabRow[] {
+/**
+ * A lab row whose run id matches no surviving run: an error naming the row when no per-run source
+ * defines the id at all (a typo), else the row of a rejected run, returned to be listed as skipped.
+ */
+function unmatchedRow(table: CsvTable, line: number, id: string, runCol: number, definedIds: ReadonlySet<string> | undefined, runIds: () => string[]): LabSkipped {
+  if (definedIds && !definedIds.has(id)) {
+    const near = closestName(id, runIds());
+    throw rowError(table, line, `the lab row names run '${id}', which no per-run source defines${near ? ` (did you mean '${near}'?)` : ''}`, 'Use the run ids of the per-run source in the lab file, or add the run there.', table.header[runCol]);
+  }
+  return { runId: id, line };
+}
+
+function readRows(table: CsvTable, cfg: LabConfig, runIndex: ReadonlyMap<string, number>, runs: readonly StudyRun[], chem: Chemistry, definedIds?: ReadonlySet<string>): { rows: LabRow[]; skipped: LabSkipped[] } {
   const runCol = columnIndex(table, cfg.spec.run, ['labData', 'run']);
   const cols = cfg.columns.map(({ j, column }) => ({ j, col: columnIndex(table, column, ['labData', 'fractions', chem.speciesNames[j]]) }));
   const time = timeReader(table, cfg);
   const nS = chem.speciesNames.length;
   const out: LabRow[] = [];
+  const skipped: LabSkipped[] = [];
   for (const row of table.rows) {
-    const r = runIndex.get((row.cells[runCol] ?? '').trim());
-    if (r === undefined) continue; // a run rejected (or not defined) by the per-run sources
+    const id = (row.cells[runCol] ?? '').trim();
+    const r = runIndex.get(id);
+    if (r === undefined) {
+      skipped.push(unmatchedRow(table, row.line, id, runCol, definedIds, () => [...(definedIds ?? runIndex.keys())]));
+      continue;
+    }
     const y = new Float64Array(nS).fill(NaN);
     for (const { j, col } of cols) y[j] = cellNumber(table, row, col, `fraction of ${chem.speciesNames[j]}`) * cfg.unitFactor;
     for (const { j, col } of cols) if (y[j] < 0) throw rowError(table, row.line, `the fraction of ${chem.speciesNames[j]} is negative (${y[j]})`, 'Fractions are 0 or above.', table.header[col]);
@@ -93,7 +110,7 @@ function readRows(table: CsvTable, cfg: LabConfig, runIndex: ReadonlyMap<string,
     checkRow(table, lr, cfg, runs[r], chem);
     out.push(lr);
   }
-  return out;
+  return { rows: out, skipped };
 }
 
 /** Flows, conversion, selectivity, yield and element closure of one row (needs the standard). */
@@ -136,9 +153,13 @@ function closures(F: Float64Array, feed: Float64Array, cfg: LabConfig, chem: Che
   return out;
 }
 
-/** Load the lab file's rows for the surviving runs: observations, derived quantities, times. */
-export function loadLabRows(table: CsvTable, cfg: LabConfig, runs: readonly StudyRun[], runIndex: ReadonlyMap<string, number>, chem: Chemistry): LoadedLab {
-  const rows = readRows(table, cfg, runIndex, runs, chem);
+/**
+ * Load the lab file's rows for the surviving runs: observations, derived quantities, times.
+ * `definedIds`: every run id the per-run sources define (rejected runs included); a lab row naming
+ * another id is an error. Rows of rejected runs are listed in `lab.skipped`.
+ */
+export function loadLabRows(table: CsvTable, cfg: LabConfig, runs: readonly StudyRun[], runIndex: ReadonlyMap<string, number>, chem: Chemistry, definedIds?: ReadonlySet<string>): LoadedLab {
+  const { rows, skipped } = readRows(table, cfg, runIndex, runs, chem, definedIds);
   const observations: Omit<Observation, 'index'>[] = [];
   const times = new Map<number, number>();
   const derived: LabRunDerived[] = [];
@@ -152,6 +173,7 @@ export function loadLabRows(table: CsvTable, cfg: LabConfig, runs: readonly Stud
     for (const m of labMeasures(cfg, row.y, run.feed ?? new Float64Array(chem.speciesNames.length))) {
       const o = { runId: run.id, runIndex: row.runIndex, response: m.kind, species: chem.speciesNames[m.species], speciesIndex: m.species, value: m.value, unit: '1', errorModel: cfg.errorModel.name, location: { file: table.file, line: row.line, column: m.column } } as Omit<Observation, 'index'>;
       if (m.sigma !== undefined) o.sigma = m.sigma;
+      if (m.loadings) o.errorLoadings = m.loadings;
       if (m.terms) o.lab = m.terms;
       observations.push(o);
     }
@@ -168,6 +190,7 @@ export function loadLabRows(table: CsvTable, cfg: LabConfig, runs: readonly Stud
     ...(cfg.spec.timeOnStream ? { timeUnit: 's' as const } : cfg.spec.sequence !== undefined ? { timeUnit: 'run' as const } : {}),
     derived,
     warnings,
+    skipped,
   };
   return { lab, observations, times };
 }

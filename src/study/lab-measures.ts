@@ -5,6 +5,9 @@
  * of the fractions by the delta method (first order, independent fraction errors):
  *   sigma_h^2 = sum_i (dh/dy_i)^2 sigma_i^2,   sigma_i^2 = absolute^2 + (relative y_i)^2.
  * Derivatives by central differences on the fractions (h is a ratio of a few fractions).
+ * Each measure also keeps its error loadings l_i = (dh/dy_i) sigma_i, so that two responses of the
+ * same run that share a fraction (ratios to one standard) have covariance l_a . l_b; the fit
+ * whitens them (src/workflow/fit-data.ts).
  */
 import { conversionFromStandard, flowFromStandard, selectivity, yieldOf } from '../data/lab-arithmetic.js';
 import type { LabConfig, LabPair } from './lab-config.js';
@@ -20,15 +23,17 @@ export interface LabMeasure {
   column: string;
   value: number;
   sigma?: number;
+  /** Error loadings (dh/dy_i) sigma_i per species index (0 where unmeasured); sigma = their norm. */
+  loadings?: number[];
   terms?: LabTerms;
 }
 
 type Fn = (y: Float64Array) => number;
 
-/** Delta-method sigma of h(y) over the measured fractions; undefined when the model has no known size. */
-function propagate(h: Fn, y: Float64Array, cfg: LabConfig): number | undefined {
+/** Delta-method loadings of h(y) over the measured fractions; undefined for an unweighted error model. */
+function propagate(h: Fn, y: Float64Array, cfg: LabConfig): number[] | undefined {
   if (cfg.errorModel.kind === 'unweighted') return undefined;
-  let v = 0;
+  const loadings = new Array<number>(y.length).fill(0);
   const z = Float64Array.from(y);
   for (const { j } of cfg.columns) {
     if (!Number.isFinite(y[j])) continue;
@@ -40,15 +45,15 @@ function propagate(h: Fn, y: Float64Array, cfg: LabConfig): number | undefined {
     z[j] = y[j] - d;
     const dn = h(z);
     z[j] = y[j];
-    const g = (up - dn) / (2 * d);
-    v += g * g * s * s;
+    loadings[j] = ((up - dn) / (2 * d)) * s;
   }
-  return Math.sqrt(v);
+  return loadings;
 }
 
 function measure(kind: LabFitKind, species: number, column: string, h: Fn, y: Float64Array, cfg: LabConfig, terms?: LabTerms): LabMeasure {
-  const sigma = propagate(h, y, cfg);
-  return { kind, species, column, value: h(y), ...(sigma !== undefined ? { sigma } : {}), ...(terms ? { terms } : {}) };
+  const loadings = propagate(h, y, cfg);
+  const sigma = loadings ? Math.hypot(...loadings) : undefined;
+  return { kind, species, column, value: h(y), ...(sigma !== undefined && loadings ? { sigma, loadings } : {}), ...(terms ? { terms } : {}) };
 }
 
 function pairFns(p: LabPair, s: number, feed: Float64Array): { sel: Fn; yld: Fn } {

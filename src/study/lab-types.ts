@@ -109,6 +109,15 @@ export interface LabData {
   derived: LabRunDerived[];
   /** Warnings of the checks (balance closure outside tolerance, ...), runs kept. */
   warnings: string[];
+  /** Lab rows not used because their run was rejected by the per-run sources (shown by `check`). */
+  skipped: LabSkipped[];
+}
+
+/** A lab row skipped because its run was rejected. */
+export interface LabSkipped {
+  runId: string;
+  /** 1-based line in the lab file. */
+  line: number;
 }
 
 /** The resolved activity model. */

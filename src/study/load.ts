@@ -26,7 +26,7 @@ import { buildParameters, parameterRoles, referencedNames, type ParameterSpec } 
 import { ratesOnlyRuns } from './rate-runs.js';
 import { parameterStartFor, runParameterNames } from './run-parameters.js';
 import { referenceTemperatureMatters } from './reference-temperature.js';
-import { attachLabData } from './lab-attach.js';
+import { attachLabData, perRunIds } from './lab-attach.js';
 import type { ActivitySpec, LabDataSpec } from './lab-types.js';
 import { DEFAULT_ERROR_MODEL, sigmaFromModel, type CandidateSet, type ErrorModel, type LoadedStudy, type Observation, type Study, type StudyRun } from './types.js';
 
@@ -499,5 +499,5 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   study.referenceTemperatureApplies = referenceTemperatureMatters(study);
   const notes = perRun.flatMap((m) => m.rateNotes ?? []);
   if (notes.length) study.rateNotes = notes;
-  return { study: attachLabData(study, raw.labData, raw.activity, { baseDir, readFile }), report };
+  return { study: attachLabData(study, raw.labData, raw.activity, { baseDir, readFile, definedRunIds: perRunIds(tables, raw.data) }), report };
 }

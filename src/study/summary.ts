@@ -86,7 +86,10 @@ export function spaceTime(study: Pick<Study, 'reactor' | 'keyReactantIndex'>, ru
   return v0 && v0 > 0 ? run.size / v0 : undefined;
 }
 
-/** Measured conversion of the key reactant per run (first outlet measurement found), where computable. */
+/**
+ * Measured conversion of the key reactant per run (first outlet measurement found, else the one
+ * derived from analyser fractions and the internal standard), where computable.
+ */
 export function measuredConversions(study: Study): Map<string, number> {
   const j = study.keyReactantIndex;
   const out = new Map<string, number>();
@@ -109,6 +112,11 @@ export function measuredConversions(study: Study): Map<string, number> {
       }
     }
     if (x !== undefined) out.set(o.runId, x);
+  }
+  // Analyser fractions with an internal standard: the conversion derived from them (lab-load.ts).
+  for (const d of study.lab?.derived ?? []) {
+    const x = d.conversion?.[study.keyReactant];
+    if (x !== undefined && Number.isFinite(x) && !out.has(d.runId)) out.set(d.runId, x);
   }
   return out;
 }

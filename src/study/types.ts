@@ -55,6 +55,12 @@ export interface Observation {
   unit: string;
   /** Standard deviation given with the value (sigma column), SI. */
   sigma?: number;
+  /**
+   * Lab responses: sigma was propagated from the error model of the analyser fractions; the
+   * loadings (dh/dy_i) sigma_i per species index give the covariance of two responses of the same
+   * run (l_a . l_b). See src/study/lab-measures.ts.
+   */
+  errorLoadings?: number[];
   /** Name of the error model in study.errorModels. */
   errorModel: string;
   location: SourceLocation;

@@ -7,16 +7,23 @@
  * the fit). 'unweighted' responses get sigma = 1 and the scale is estimated from the residuals.
  * The scale is known (sigmaKnown: covariance (J'J)^-1, chi-square test) only when every
  * observation has a sigma column or an error model whose size is known; one 'unweighted' response
- * or one error model with size 'weights' makes the fit estimate one common scale factor.
+ * or one error model with size 'weights' makes the fit estimate one common scale factor; lab
+ * responses, whose sigma is propagated from the error model of the fractions, follow the same rule.
+ * Correlated lab responses of a run (ratios sharing the standard) become whitening blocks
+ * (correlated-errors.ts). Under an activity model, runs at different times on stream are not
+ * replicates (their activity differs), so the lack-of-fit groups include the time on stream.
  */
 import type { FitData } from '../estimation/fit-types.js';
 import { sigmaFromModel, type Study } from '../study/types.js';
+import { correlatedLabErrors } from './correlated-errors.js';
 
 export interface StudyFitData extends FitData {
   /** Per observation: how sigma was obtained. */
   sigmaSource: Array<'column' | 'error-model' | 'unweighted'>;
   /** Error models in use that give only relative weights (size 'weights'), by name. */
   weightsOnly: string[];
+  /** Runs whose lab responses are linearly dependent (the same measurement fitted twice). */
+  dependentRuns: string[];
 }
 
 export function studyFitData(study: Study): StudyFitData {
@@ -34,7 +41,9 @@ export function studyFitData(study: Study): StudyFitData {
     let s: number | undefined;
     if (o.sigma !== undefined && o.sigma > 0) {
       s = o.sigma;
-      sigmaSource[o.index] = 'column';
+      sigmaSource[o.index] = o.errorLoadings ? 'error-model' : 'column';
+      const m = o.errorLoadings ? study.errorModels[o.errorModel] : undefined;
+      if (m && m.kind !== 'unweighted' && !m.sizeKnown) weightsOnly.add(m.name);
     } else {
       const m = study.errorModels[o.errorModel];
       s = m ? sigmaFromModel(m, o.value) : undefined;
@@ -48,7 +57,18 @@ export function studyFitData(study: Study): StudyFitData {
     sigma[o.index] = s;
     // Same replicate group, same response, same species and same position: same conditions.
     const rep = repOf.get(o.runId) ?? `run:${o.runId}`;
-    groups[o.index] = `${rep}|${o.response}|${o.species ?? ''}|${o.position ?? ''}`;
+    const tos = study.activity ? `|t${study.runs[o.runIndex].timeOnStream ?? ''}` : '';
+    groups[o.index] = `${rep}${tos}|${o.response}|${o.species ?? ''}|${o.position ?? ''}`;
   }
-  return { measured, sigma, sigmaKnown: unweighted === 0 && weightsOnly.size === 0, groups, sigmaSource, weightsOnly: [...weightsOnly] };
+  const { blocks, dependentRuns } = correlatedLabErrors(study);
+  return {
+    measured,
+    sigma,
+    sigmaKnown: unweighted === 0 && weightsOnly.size === 0,
+    groups,
+    sigmaSource,
+    weightsOnly: [...weightsOnly],
+    dependentRuns,
+    ...(blocks.length ? { whiten: blocks } : {}),
+  };
 }

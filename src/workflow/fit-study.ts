@@ -79,10 +79,18 @@ export function findVariant(study: Study, name: string): ModelVariant {
   return v;
 }
 
-/** The fit with the drift warning of repeated reference conditions added (src/workflow/drift.ts). */
-function withDriftWarning(fit: FitResult, study: Study): FitResult {
+/**
+ * The fit with the drift warning of repeated reference conditions added (src/workflow/drift.ts),
+ * and a warning when lab responses of a run carry the same measurement twice (fit-data.ts).
+ */
+function withDriftWarning(fit: FitResult, study: Study, data: StudyFitData): FitResult {
   const w = driftCheck(study)?.warning;
-  return w ? { ...fit, warnings: [...fit.warnings, w] } : fit;
+  const runs = data.dependentRuns;
+  const twice = runs.length
+    ? { code: 'lab-responses-dependent', message: `the fitted lab responses of ${runs.length} run(s) (${runs.slice(0, 5).join(', ')}${runs.length > 5 ? ', ...' : ''}) are computed from the same fractions twice (for example a ratio and the conversion derived from it): their errors were taken as independent, so the intervals are too narrow; list one of them in labData.fit`, path: ['labData', 'fit'] }
+    : undefined;
+  const add = [w, twice].filter((x): x is NonNullable<typeof x> => x !== undefined);
+  return add.length ? { ...fit, warnings: [...fit.warnings, ...add] } : fit;
 }
 
 /** What fitStudy fits: the rate-law set (with any estimated starts), its model and data, the starts. */
@@ -110,7 +118,7 @@ export function planStudyFit(study: Study, options: StudyFitOptions = {}): Study
 /** The StudyFit of a plan from its finished fit (observations named by run, derived quantities). */
 export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult, minima?: Minimum[], starts?: StartRun[]): StudyFit {
   const branches = tankBranchWarnings(study, plan.model, Float64Array.from(fit.parameters, (p) => p.value));
-  const named = withDriftWarning(nameObservations(branches.length ? { ...fit, warnings: [...fit.warnings, ...branches] } : fit, study), study);
+  const named = withDriftWarning(nameObservations(branches.length ? { ...fit, warnings: [...fit.warnings, ...branches] } : fit, study), study, plan.data);
   const derived = derivedQuantities(named, plan.variant.reactions.map((r) => r.rate), study.referenceTemperature);
   const transport = fittedLabTransport(study, plan.model, named);
   return {

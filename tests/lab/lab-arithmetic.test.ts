@@ -99,4 +99,19 @@ describe('lab data: bad input names the row', () => {
     expect(e.code).toBe('E_VALUE');
     expect(e.message).toMatch(/removes 'O2', a reactant/);
   });
+  it('a lab row naming a run that no per-run source defines', () => {
+    const labFile = `run,y_C2H6,y_O2,y_C2H4,y_CO2,y_N2\nR1,${dry.C2H6},${dry.O2},${dry.C2H4},${dry.CO2},${dry.N2}\nR9,${dry.C2H6},${dry.O2},${dry.C2H4},${dry.CO2},${dry.N2}\n`;
+    const e = err(() => loadLab(labStudy({}, { file: 'gc.csv' }), { 'runs.csv': `${RUNS_HEADER}\n${row('R1')}\n`, 'gc.csv': labFile }));
+    expect(e.code).toBe('E_DATA');
+    expect(e.message).toMatch(/gc\.csv, line 3.*names run 'R9', which no per-run source defines \(did you mean 'R1'\?\)/);
+  });
+  it('the lab row of a run rejected by the per-run source is listed as skipped, not dropped silently', () => {
+    // R2's feed cell cannot be read: the per-run source rejects the row, so its fractions are not fitted.
+    const bad = row('R2').replace(',10,10,80,', ',ten,10,80,');
+    const { study, report } = loadLab(labStudy(), { 'runs.csv': `${RUNS_HEADER}\n${row('R1')}\n${bad}\n` });
+    expect(report.rowsRejected).toBe(1);
+    expect(study.runs.map((r) => r.id)).toEqual(['R1']);
+    expect(study.lab!.skipped).toEqual([{ runId: 'R2', line: 3 }]);
+    expect(study.observations.every((o) => o.runId === 'R1')).toBe(true);
+  });
 });
