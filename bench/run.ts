@@ -10,6 +10,8 @@
  *   (f) exact Jacobian (forward sensitivities) against central differences
  *   (g) worker-thread pool: serial vs 2 workers (src/parallel/)
  *   (h) plant sizing with a numerically solved pellet vs without pellets (bench/pellet-sizing.ts)
+ *   (j) whole processes (bench/process-bench.ts): `rateloom --version` and `rateloom check` start-up
+ *       against `node -e 0`, and `rateloom fit` against bench/scipy_fit.py on the same 50-run data
  *   plus the existing single benchmarks (pbr-solve, csv-load).
  * Wall times are medians; CPU time of this process is printed beside them because a shared machine
  * can inflate wall time. Run: npm run bench [-- --quick]
@@ -29,6 +31,7 @@ import { runParallelBench } from './parallel-bench';
 import { runPelletSizing } from './pellet-sizing';
 import { runHeatSizing } from './heat-sizing';
 import { checkJacobian } from '../src/estimation/jacobian-check';
+import { processFitBench, scipyPython, startupBench } from './process-bench';
 
 const quick = process.argv.includes('--quick');
 const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
@@ -108,13 +111,13 @@ report.monteCarlo = { draws, nominalMs: mc.nominalMs, drawsMs: mc.drawsMs, faile
 // ---------------------------------------------------------------- (d) SciPy
 section('(d) the 50-run fit by plain SciPy (least_squares + solve_ivp RK45, rtol 1e-8, 2-point FD Jacobian)');
 let scipy: { seconds: number; estimates: Record<string, number>; nfev: number; njev: number; solves: number; rhsEvaluations: number; status: number } | undefined;
-const hasScipy = spawnSync('/usr/bin/python3', ['-c', 'import scipy'], { encoding: 'utf8' }).status === 0;
-if (!hasScipy) {
-  console.log('  /usr/bin/python3 has no scipy (apt-get install -y python3-scipy); section skipped');
+const python = scipyPython();
+if (!python) {
+  console.log('  neither /usr/bin/python3 nor python3 has scipy (apt-get install -y python3-scipy); section skipped');
 } else {
   const dataPath = `${outDir}synthetic-50.json`;
   writeFileSync(dataPath, JSON.stringify(studyAsJson(study50)));
-  const r = spawnSync('/usr/bin/python3', [here('./scipy_fit.py'), dataPath], { encoding: 'utf8' });
+  const r = spawnSync(python, [here('./scipy_fit.py'), dataPath], { encoding: 'utf8' });
   if (r.status !== 0) console.log(`  scipy script failed: ${r.stderr}`);
   else scipy = JSON.parse(r.stdout);
 }
@@ -195,6 +198,19 @@ const heat = runHeatSizing(quick ? 1000 : 10000, quick ? 50 : 200);
 for (const l of heat.lines) console.log(`  ${l}`);
 report.heatSizing = { thermalMs: heat.thermalMs, isothermalMs: heat.isothermalMs, ratio: heat.ratio, drawsMs: heat.drawsMs, draws: heat.draws };
 
+// ---------------------------------------------------------------- (j) whole processes
+section('(j) whole processes: start-up against node -e 0; rateloom fit against the SciPy script (medians, interleaved)');
+const startup = startupBench(quick ? 5 : 11);
+for (const l of startup.lines) console.log(`  ${l}`);
+report.startup = { nodeMs: startup.floor.wallMs, versionMs: startup.version.wallMs, checkMs: startup.check.wallMs, nodeCpuMs: startup.floor.cpuMs, versionCpuMs: startup.version.cpuMs, checkCpuMs: startup.check.cpuMs };
+const processFit = python ? processFitBench(study50, quick ? 3 : 5, python) : undefined;
+if (processFit) {
+  for (const l of processFit.lines) console.log(`  ${l}`);
+  report.processFit = { rateloomMs: processFit.rateloom.wallMs, scipyMs: processFit.scipy.wallMs, rateloomCpuMs: processFit.rateloom.cpuMs, scipyCpuMs: processFit.scipy.cpuMs, ratio: processFit.ratio, maxRelativeDifference: processFit.maxRel };
+} else {
+  console.log('  no python3 with scipy: the fit pair is skipped');
+}
+
 // ---------------------------------------------------------------- existing single benchmarks
 section('pbr-solve');
 for (const l of runPbrSolve(quick ? 50 : 200).lines) console.log(`  ${l}`);
@@ -212,6 +228,10 @@ target('10,000 Monte Carlo draws < 10 s', draws === 10000 && mc.drawsMs < 10000,
 target('sizing with a numerically solved pellet within 20x of sizing without pellets', pel.ratio <= 20, `${pel.ratio.toFixed(1)}x (${fmt(pel.pelletMs)} vs ${fmt(pel.plainMs)}, ${pel.pelletSolves} pellet solves)`);
 target('one non-isothermal packed-bed solve within 4x of the isothermal solve', heat.ratio <= 4, `${heat.ratio.toFixed(2)}x (${heat.thermalMs.toFixed(3)} vs ${heat.isothermalMs.toFixed(3)} ms)`);
 target('10,000 Monte Carlo draws with the energy balance < 20 s', heat.draws === 10000 && heat.drawsMs < 20000, `${fmt(heat.drawsMs)} for ${heat.draws} draws`);
+const startRatio = (t: typeof startup.check) => t.wallMs / startup.floor.wallMs;
+target('rateloom --version at most 2x node -e 0 (whole process, wall)', startRatio(startup.version) <= 2, `${startRatio(startup.version).toFixed(2)}x (${fmt(startup.version.wallMs)} vs ${fmt(startup.floor.wallMs)})`);
+target('rateloom check <demo> at most 2x node -e 0 (whole process, wall)', startRatio(startup.check) <= 2, `${startRatio(startup.check).toFixed(2)}x (${fmt(startup.check.wallMs)} vs ${fmt(startup.floor.wallMs)})`);
+target('rateloom fit (no report) >= 10x faster than the SciPy script, whole processes, estimates agree to 4 digits', !!processFit && processFit.ratio >= 10 && processFit.maxRel < 5e-5, processFit ? `${processFit.ratio.toFixed(1)}x, max rel. diff ${processFit.maxRel.toExponential(2)}` : 'SciPy not available; not measured');
 report.targets = targets;
 writeFileSync(`${outDir}bench.json`, JSON.stringify(report, null, 2));
 console.log(`\nwrote ${outDir}bench.json`);

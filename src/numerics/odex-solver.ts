@@ -38,7 +38,13 @@ interface OdexSolver {
 }
 
 const requireCjs = createRequire(import.meta.url);
-const { Solver } = requireCjs('odex') as { Solver: new (n: number) => OdexSolver };
+type OdexConstructor = new (n: number) => OdexSolver;
+let solverClass: OdexConstructor | undefined;
+/** odex's Solver class, loaded on first use (not at start-up of every command). */
+function odexSolver(): OdexConstructor {
+  solverClass ??= (requireCjs('odex') as { Solver: OdexConstructor }).Solver;
+  return solverClass;
+}
 
 /** odex's Outcome enum values. */
 const ODEX_CONVERGED = 0;
@@ -81,7 +87,7 @@ export function integrateOdex(f: OdeRhs, t0: number, t1: number, cfg: OdeConfig)
   let stopped = false;
   let status: OdeStatus = 'success';
   for (;;) {
-    const solver = new Solver(n);
+    const solver = new (odexSolver())(n);
     solver.denseOutput = true;
     solver.relativeTolerance = cfg.rtol;
     solver.absoluteTolerance = Array.from(cfg.atol);

@@ -3,7 +3,8 @@
  * from a plain-node ES module script with no loader, and the `rateloom` command from bin/.
  */
 import { spawnSync } from 'node:child_process';
-import { readFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 
@@ -33,4 +34,29 @@ describe('compiled package', () => {
     const r = node(['--input-type=module', '-e', probe]);
     expect(r.stdout.trim()).toBe('true');
   });
+
+  it('the bundled CLI (dist/bundle/) checks a study and finds its worker modules: 2 workers give the serial result', () => {
+    const check = node([join(root, 'bin/rateloom.js'), 'check', join(root, 'datasets-demo/cstr/cstr.study.json'), '--json']);
+    expect(check.stderr).toBe('');
+    expect(check.status).toBe(0);
+    const out = mkdtempSync(join(tmpdir(), 'rateloom-bundle-'));
+    try {
+      const profiles = join(out, 'cpu');
+      const fit = (workers: string) => {
+        const r = node(['--cpu-prof', '--cpu-prof-dir', profiles, join(root, 'bin/rateloom.js'), 'fit', join(root, 'datasets-demo/cstr/cstr.study.json'), '--no-report', '--json', '--force', '--out', out, '--workers', workers]);
+        expect(r.status).toBe(0);
+        const doc = JSON.parse(r.stdout) as { fit: { parameters: { name: string; value: number; ci: { profile: unknown } }[] } };
+        return doc.fit.parameters.map((p) => [p.name, p.value, p.ci]);
+      };
+      const serial = fit('1');
+      expect(serial.every(([, , ci]) => (ci as { profile: unknown }).profile !== null)).toBe(true);
+      rmSync(profiles, { recursive: true, force: true });
+      expect(fit('2')).toEqual(serial);
+      // one CPU profile per thread: the worker threads ran the compiled job module of dist/src/parallel
+      const threads = readdirSync(profiles).map((f) => readFileSync(join(profiles, f), 'utf8'));
+      expect(threads.filter((t) => t.includes('dist/src/parallel/study-jobs.js')).length).toBe(2);
+    } finally {
+      rmSync(out, { recursive: true, force: true });
+    }
+  }, 120_000);
 });
