@@ -190,6 +190,8 @@ export function registerFit(program: Command): void {
             ...(sf.starts ? { starts: sf.starts } : {}),
             ...(sf.startValues ? { startValues: { estimated: sf.startValues.estimated, points: sf.startValues.points, notes: sf.startValues.notes } } : {}),
             ...(sf.transport ? { transport: sf.transport } : {}),
+            ...(sf.steadyStates ? { steadyStates: sf.steadyStates } : {}),
+            ...(sf.roundOff ? { roundOff: sf.roundOff } : {}),
             data: { rowsIn: report.rowsIn, rowsUsed: report.rowsUsed, rowsRejected: report.rowsRejected },
             outputs: { handoff: handoffPath, ...(reportPaths ?? {}) },
           },

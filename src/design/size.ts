@@ -26,6 +26,7 @@ import { sizeCooledBed, type ThermalSizing } from './heat-design.js';
 import type { HandoffVerdict } from './handoff-verdict.js';
 import { finishGated, gateSizing, type SizingVerdict } from './size-gate.js';
 import { GAS_CONSTANT } from '../core/constants.js';
+import { ROUND_OFF_NOTE, ROUND_OFF_TOLERANCE, shownAmounts } from '../reactors/round-off.js';
 
 /** A sizing result before the hand-off gate adds its verdict (size-gate.ts). */
 type UngatedResult = Omit<SizingResult, 'kinetics' | 'verdict'>;
@@ -115,6 +116,8 @@ export interface SizingResult extends Outcome<SizingStatus> {
     lo?: Record<string, number>;
     hi?: Record<string, number>;
     band?: { lower: number; upper: number; draws: number };
+    /** The round-off rule, stated when a tiny negative amount was shown as 0. */
+    roundOff?: string;
   };
   pressure?: { inlet: number; outlet: number; drop: number; dropBar: number; unit: 'Pa' };
   tubes?: TubeDesign;
@@ -349,13 +352,17 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, UngatedResult,
 
   // Nominal result (with the final tube layout).
   const nominal = t.kind === 'size' ? t.value : res.size;
-  const out = describeOutlet(sys, sizer, res.y, key);
+  const out = describeOutlet(sys, sizer, res.y, key, warnings);
   if (unc.outletBand) {
     const lo: Record<string, number> = {};
     const hi: Record<string, number> = {};
+    const nS = kase.species.length;
+    const scale = sys.y0.subarray(0, nS).reduce((a, b) => a + Math.max(b, 0), 0);
+    const p5 = shownAmounts(unc.outletBand.p5.slice(0, nS), unc.outletBand.p5.slice(0, nS), scale).amounts;
+    const p95 = shownAmounts(unc.outletBand.p95.slice(0, nS), unc.outletBand.p95.slice(0, nS), scale).amounts;
     kase.species.forEach((sp, j) => {
-      lo[sp] = unc.outletBand!.p5[j];
-      hi[sp] = unc.outletBand!.p95[j];
+      lo[sp] = p5[j];
+      hi[sp] = p95[j];
     });
     out.lo = lo;
     out.hi = hi;
@@ -451,20 +458,28 @@ function conversionOf(sizer: Sizer, y: Float64Array, species: string): number | 
   return j >= 0 && sizer.sys.y0[j] > 0 ? sizer.conversion(y, j) : undefined;
 }
 
-function describeOutlet(sys: DesignSystem, sizer: Sizer, y: Float64Array, key: number): NonNullable<SizingResult['outlet']> {
+/**
+ * The outlet as shown: round-off negatives (above -ROUND_OFF_TOLERANCE of the total feed) as 0
+ * with the rule stated (`roundOff`); a more negative amount is kept as computed and warned.
+ */
+function describeOutlet(sys: DesignSystem, sizer: Sizer, y: Float64Array, key: number, warnings: Warning[]): NonNullable<SizingResult['outlet']> {
   const amounts: Record<string, number> = {};
   const moleFractions: Record<string, number> = {};
+  const y0 = sys.y0.subarray(0, sys.nS);
+  const shown = shownAmounts(y.subarray(0, sys.nS), y.subarray(0, sys.nS), y0.reduce((a, b) => a + Math.max(b, 0), 0));
   let total = 0;
-  for (let j = 0; j < sys.nS; j++) total += Math.max(y[j], 0);
+  for (let j = 0; j < sys.nS; j++) total += Math.max(shown.amounts[j], 0);
   sys.kase.species.forEach((s, j) => {
-    amounts[s] = Math.max(y[j], 0);
-    moleFractions[s] = total > 0 ? Math.max(y[j], 0) / total : 0;
+    amounts[s] = shown.amounts[j];
+    moleFractions[s] = total > 0 ? Math.max(shown.amounts[j], 0) / total : 0;
   });
+  if (shown.negative) warnings.push({ code: 'W_NEGATIVE_OUTLET', message: `${shown.negative} outlet amount(s) are negative beyond the round-off tolerance (${ROUND_OFF_TOLERANCE} of the total feed); they are shown as computed`, path: ['outlet'] });
   return {
     amounts,
     amountUnit: sys.kase.reactor.kind === 'batch' ? 'mol/m3' : 'mol/s',
     moleFractions,
     ...(key >= 0 ? { conversion: { species: sys.kase.species[key], value: sizer.conversion(y, key) } } : {}),
+    ...(shown.clamped ? { roundOff: ROUND_OFF_NOTE } : {}),
   };
 }
 

@@ -94,7 +94,7 @@ export interface ObservationDiagnostics {
   predicted: number;
   /** measured - predicted. */
   residual: number;
-  /** (measured - predicted) / sigma. */
+  /** (measured - predicted) / sigma; for observations in a correlated block (FitData.whiten), the whitened residual. */
   weightedResidual: number;
   /** Internally studentised residual; null when the leverage is 1. */
   studentizedResidual: number | null;

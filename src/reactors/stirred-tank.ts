@@ -22,7 +22,7 @@ import { gasConcentrationJacobian, gasConcentrations, sumFirst, totalConcentrati
 import { RateTerms } from './rate-terms.js';
 import { STATUS_SUCCESS } from './status.js';
 import type { Warning } from '../core/outcome.js';
-import { liquidTankStability, nearestState, type SteadyState } from './steady-states.js';
+import { tankStability, nearestState, type SteadyState } from './steady-states.js';
 import type { ReactorModel, ReactorOptions, ReactorSolution, ReactorSpec, RunConditions } from './types.js';
 
 /** Residual tolerance of the steady state, relative to the total feed flow. */
@@ -252,15 +252,11 @@ function tankSensitivities(sys: TankSystem, outF: Float64Array, sol: ReactorSolu
 function describeStates(sys: TankSystem, found: Float64Array[], reported: Float64Array | undefined): SteadyState[] {
   const nS = sys.nS;
   const at = reported ? nearestState(found, reported) : -1;
-  const liquid = !sys.gas;
   return found.map((F, i) => {
     const C = new Float64Array(nS);
     sys.conc(F, C);
-    let stability: SteadyState['stability'] = 'not-assessed';
-    if (liquid) {
-      sys.jacobian(F);
-      stability = liquidTankStability(sys.J, nS);
-    }
+    sys.jacobian(F);
+    const stability: SteadyState['stability'] = tankStability(sys.J, nS);
     return { outletAmounts: Float64Array.from(F), outletConcentrations: C, stability, reported: i === at };
   });
 }

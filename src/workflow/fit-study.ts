@@ -2,7 +2,8 @@
  * Fit a study (or one of its candidate rate-law sets): build the study model, the fit data, run
  * the estimator, and assemble the fitted-kinetics hand-off for design.
  */
-import { tankBranchWarnings } from './tank-branches.js';
+import { tankBranchWarnings, tankSteadyStates, type TankRunStates } from './tank-branches.js';
+import { PREDICTION_ROUND_OFF_NOTE, roundOffPredictions } from './round-off-predictions.js';
 import { fitModel } from '../estimation/fit.js';
 import { multistartFit, type Minimum, type StartRun } from '../estimation/multistart.js';
 import type { FitOptions, FitResult } from '../estimation/fit-types.js';
@@ -53,6 +54,10 @@ export interface StudyFit {
   startValues?: StartValues;
   /** Transport diagnostics of the lab runs with the fitted rates (study with a lab pellet only). */
   transport?: LabTransport;
+  /** Stirred tanks: every run's steady states at the fitted values and the one the fit used. */
+  steadyStates?: TankRunStates[];
+  /** The round-off rule, stated when some negative predictions were shown as 0. */
+  roundOff?: string;
 }
 
 /** Names of the parameters of a rate-law set whose start the study left open. */
@@ -117,8 +122,10 @@ export function planStudyFit(study: Study, options: StudyFitOptions = {}): Study
 
 /** The StudyFit of a plan from its finished fit (observations named by run, derived quantities). */
 export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult, minima?: Minimum[], starts?: StartRun[]): StudyFit {
-  const branches = tankBranchWarnings(study, plan.model, Float64Array.from(fit.parameters, (p) => p.value));
-  const named = withDriftWarning(nameObservations(branches.length ? { ...fit, warnings: [...fit.warnings, ...branches] } : fit, study), study, plan.data);
+  const steadyStates = tankSteadyStates(study, plan.model, Float64Array.from(fit.parameters, (p) => p.value));
+  const branches = tankBranchWarnings(study, steadyStates);
+  const shown = roundOffPredictions(fit, study);
+  const named = withDriftWarning(nameObservations(branches.length ? { ...shown.fit, warnings: [...shown.fit.warnings, ...branches] } : shown.fit, study), study, plan.data);
   const derived = derivedQuantities(named, plan.variant.reactions.map((r) => r.rate), study.referenceTemperature);
   const transport = fittedLabTransport(study, plan.model, named);
   return {
@@ -131,6 +138,8 @@ export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult,
     ...(starts ? { starts } : {}),
     derived,
     ...(plan.startValues ? { startValues: plan.startValues } : {}),
+    ...(steadyStates.length ? { steadyStates } : {}),
+    ...(shown.clamped ? { roundOff: PREDICTION_ROUND_OFF_NOTE } : {}),
   };
 }
 

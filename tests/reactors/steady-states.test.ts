@@ -5,6 +5,8 @@
 import { describe, expect, it } from 'vitest';
 import { solveReactor } from '../../src/reactors';
 import { compile } from './compiled';
+import { GAS_CONSTANT } from '../../src/core/constants';
+import gasRef from '../reference/scipy/gas_tank_states.json' with { type: 'json' };
 
 // r = k C_A / (1 + K C_A)^2 in a liquid tank: u0 = K C_A0 = 20, Da = k tau = 80 gives three steady states.
 const kin = compile(['A', 'B'], [{ equation: 'A -> B', rate: { form: 'lhhw', rateConstant: { k: 'k' }, adsorption: { A: { K: 'KA' } }, exponent: 2 } }], ['k', 'KA']);
@@ -41,5 +43,35 @@ describe('stirred-tank steady states in the solution', () => {
     const s = solveReactor({ kind: 'stirred-tank', phase: 'liquid' }, run, kin, theta, { start, steadyStateSearch: 'on-failure' });
     expect(s.steadyStateStart).toBe('given');
     expect(Math.abs(s.outletAmounts[0] / low.outletAmounts[0] - 1)).toBeLessThan(1e-8);
+  });
+});
+
+describe('gas stirred tank: stability assessed', () => {
+  const gas = { kind: 'stirred-tank', phase: 'gas' } as const;
+  it('A -> B (no change in moles) behaves as the liquid tank: slope condition of van Heerden', () => {
+    // C_T = 400 mol/m3 at 350 K (P = C_T R T), pure A at 0.4 mol/s: v0 = 1e-3 m3/s, as the liquid case.
+    const P = 400 * GAS_CONSTANT * 350;
+    const s = solveReactor(gas, { ...run, volumetricFlow: undefined, pressure: P }, kin, theta);
+    const states = s.steadyStates!;
+    expect(states).toHaveLength(3);
+    for (const st of states) {
+      const C = st.outletConcentrations[0];
+      const slope = 1 + (V / v0) * ((k * (1 - K * C)) / (1 + K * C) ** 3); // van Heerden 1953, common practice
+      expect(st.stability).toBe(slope > 0 ? 'stable' : 'unstable');
+    }
+  });
+  it('A -> 2 B (moles increase): states and stability match SciPy (brentq + solve_ivp of the holdup dynamics)', () => {
+    const kin2 = compile(['A', 'B'], [{ equation: 'A -> 2 B', rate: { form: 'lhhw', rateConstant: { k: 'k' }, adsorption: { A: { K: 'KA' } }, exponent: 2 } }], ['k', 'KA']);
+    const P = gasRef.CT * GAS_CONSTANT * 350;
+    const s = solveReactor(gas, { id: 'g', temperature: 350, feed: Float64Array.from([gasRef.FA0, 0]), size: gasRef.V, pressure: P }, kin2, Float64Array.from([gasRef.k, gasRef.K]));
+    const ours = [...s.steadyStates!].sort((a, b) => a.outletAmounts[0] - b.outletAmounts[0]);
+    expect(ours).toHaveLength(gasRef.states.length);
+    ours.forEach((st, i) => {
+      // tests/reference/scipy/gas_tank_states.json
+      expect(st.outletAmounts[0] / gasRef.states[i].FA).toBeCloseTo(1, 7);
+      expect(st.outletConcentrations[0] / gasRef.states[i].CA).toBeCloseTo(1, 7);
+      expect(st.stability).toBe(gasRef.states[i].stability);
+    });
+    expect(ours.map((x) => x.stability)).toEqual(['stable', 'unstable', 'stable']);
   });
 });

@@ -11,6 +11,7 @@ import { summarizeStudy } from '../../src/study/summary';
 import { formatCheck } from '../../cli/check';
 import { formatSimulation } from '../../cli/simulate';
 import { fitStudy } from '../../src/workflow/fit-study';
+import { roundOffPredictions } from '../../src/workflow/round-off-predictions';
 
 const load = (s: unknown, csv: string) => loadStudy(JSON.stringify(s), '/virtual/s.json', () => csv);
 
@@ -55,6 +56,38 @@ describe('stirred-tank steady states', () => {
     expect(w[0].message).toMatch(/run T1: the tank has 3 steady states .* the fit used the one nearest the measured outlet: A [0-9.e-]+ mol\/s, stable/);
     // The fitted prediction sits on the low-C_A branch (about 7 mol/m3), not at ~300 mol/m3.
     expect(sf.fit.observations[0].predicted).toBeLessThan(20);
+    // The same as data (the fit's JSON carries `steadyStates`): every state, its stability, the one used.
+    const t1 = sf.steadyStates!.find((r) => r.runId === 'T1')!;
+    expect(t1.start).toBe('measured-outlet');
+    expect(t1.states).toHaveLength(3);
+    const used = t1.states.filter((x) => x.used);
+    expect(used).toHaveLength(1);
+    expect(used[0].concentrations.A).toBeCloseTo(sf.fit.observations[0].predicted, 6);
+    expect(used[0].stability).toBe('stable');
+    expect([...t1.states].sort((a, b) => a.concentrations.A - b.concentrations.A).map((x) => x.stability)).toEqual(['stable', 'unstable', 'stable']);
+    for (const st of t1.states) {
+      // Each is a root of u0 - u = Da u/(1 + u)^2 at the fitted k (Da = k tau, tau = 100 s; u = K C_A).
+      const k = sf.fit.parameters.find((p) => p.name === 'k')!.value;
+      const u = 0.05 * st.concentrations.A;
+      expect(Math.abs(20 - u - (k * 100 * u) / (1 + u) ** 2)).toBeLessThan(1e-6);
+      expect(Math.min(...Object.values(st.outletFlows))).toBeGreaterThanOrEqual(0);
+    }
+  });
+});
+
+describe('round-off in fit predictions', () => {
+  it('a tiny negative predicted amount is shown as 0 (rule stated); a real negative is kept', () => {
+    const { study } = load(tank([{ response: 'outlet-concentration', species: 'A', column: 'CA', unit: 'mol/m3' }]), 'run,CA\nT1,7.0\nT2,7.1\n');
+    const sf = fitStudy({ ...study, parameters: study.parameters.map((p) => (p.name === 'KA' ? { ...p, fixed: true } : p)) }, { profile: false });
+    expect(sf.roundOff).toBeUndefined(); // nothing negative in this fit
+    const obs = sf.fit.observations.map((o, i) => ({ ...o, predicted: i === 0 ? -1e-15 : -0.01 }));
+    const { fit, clamped } = roundOffPredictions({ ...sf.fit, observations: obs }, study);
+    // Scale of run T1's outlet-concentration = max(|measured|, |predicted|) = 7 mol/m3; -1e-15 > -7e-9.
+    expect(clamped).toBe(1);
+    expect(fit.observations[0].predicted).toBe(0);
+    expect(fit.observations[0].residual).toBe(7.0);
+    // -0.01 mol/m3 is below -1e-9 x 7.1: kept as computed.
+    expect(fit.observations[1].predicted).toBe(-0.01);
   });
 });
 
