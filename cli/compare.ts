@@ -6,8 +6,8 @@
  * Exit 0 ranked with a trustworthy best fit, 1 the best-ranked fit is not trustworthy (its verdict), 2 bad input.
  */
 import type { Command } from 'commander';
-import { compareStudyParallel, AUTO_RULE_TEXT, fitReportData, type Comparison } from '../src/index.js';
-import { WORKERS_OPTION, workersFlag } from './fit.js';
+import { compareStudyParallel, AUTO_RULE_TEXT, fitReportData, type Comparison, type WorkersSetting } from '../src/index.js';
+import { WORKERS_OPTION } from './fit.js';
 import { join } from 'node:path';
 import { writeFitReport } from './report-render.js';
 import { assertWritable, checkStem } from './io.js';
@@ -49,7 +49,7 @@ interface CompareFlags {
   strict?: boolean;
   force?: boolean;
   json?: boolean;
-  workers?: string;
+  workers?: WorkersSetting;
 }
 
 export function registerCompare(program: Command): void {
@@ -67,7 +67,7 @@ export function registerCompare(program: Command): void {
     .addHelpText('after', EXAMPLE)
     .action(async (studyPath: string, flags: CompareFlags) => {
       await runCommand(!!flags.json, async () => {
-        const workers = workersFlag(flags.workers);
+        const workers = flags.workers ?? 'auto';
         const stem = flags.name !== undefined ? checkStem(flags.name) : studyStem(studyPath);
         const outDir = flags.out ?? 'reports';
         const { study } = readStudy(studyPath, !!flags.strict);

@@ -17,7 +17,7 @@ import { fileURLToPath } from 'node:url';
 import { RateloomError, summarizeStudy, type StudySummary, applyParameterValues, type Study, type ValidationReport, buildHandoff, type StudyFit, compareStudyParallel, fitStudyParallel, sizeReactorParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, sizingReportData, type Comparison, parseHandoff, kineticsFromHandoff, loadCase, type SizingResult } from '../src/index.js';
 import { formatCheck } from './check.js';
 import { formatComparison } from './compare.js';
-import { formatFit, WORKERS_OPTION, workersFlag } from './fit.js';
+import { formatFit, WORKERS_OPTION } from './fit.js';
 import { formatSizing } from './size.js';
 import { g } from './format.js';
 import { readJson, writeAtomic } from './io.js';
@@ -339,9 +339,9 @@ datasets-demo/truth.json, and the demo prints the fitted values beside them.
 Worker threads (profiles, multistart, Monte Carlo): ${AUTO_RULE_TEXT}
 Exit codes: 0 all fits converged and the in-range case was sized, 1 otherwise, 2 bad input.`,
     )
-    .action(async (flags: { out?: string; force?: boolean; liquids?: boolean; json?: boolean; workers?: string }) => {
+    .action(async (flags: { out?: string; force?: boolean; liquids?: boolean; json?: boolean; workers?: WorkersSetting }) => {
       await runCommand(!!flags.json, async () => {
-        const workers = workersFlag(flags.workers);
+        const workers = flags.workers ?? 'auto';
         const r = await runDemo({
           workers,
           outDir: flags.out ?? 'reports/demo',

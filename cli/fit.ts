@@ -8,7 +8,7 @@
 import { formatTransport } from './transport-text.js';
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { RateloomError, DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study } from '../src/index.js';
+import { DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study } from '../src/index.js';
 import { renderFitFiles } from './report-render.js';
 import { assertWritable, checkStem, writeAll } from './io.js';
 import type { OutputFile } from './output.js';
@@ -34,33 +34,19 @@ export interface FitFlags {
   name?: string;
   profile?: boolean;
   report?: boolean;
-  starts?: string;
-  seed?: string;
-  maxIterations?: string;
-  level?: string;
+  /** Numbers checked against OPTION_RANGES by cli/options.ts before the command runs. */
+  starts?: number;
+  seed?: number;
+  maxIterations?: number;
+  level?: number;
   strict?: boolean;
   force?: boolean;
   json?: boolean;
-  workers?: string;
-}
-
-/** --workers: 'auto' or a whole number >= 1. */
-export function workersFlag(v: string | undefined): WorkersSetting {
-  if (v === undefined || v === 'auto') return 'auto';
-  const n = Number(v);
-  if (!Number.isInteger(n) || n < 1) throw new RateloomError('E_USAGE', `--workers got '${v}'`, { fix: "Give 'auto' or a whole number of worker threads >= 1, e.g. --workers 2 (1 = serial)." });
-  return n;
+  workers?: WorkersSetting;
 }
 
 /** The --workers option line of a command's help. */
 export const WORKERS_OPTION = ['--workers <n>', "worker threads: 'auto' or a number (1 = serial); see below", 'auto'] as const;
-
-export function numberFlag(v: string | undefined, name: string, ok: (n: number) => boolean, hint: string): number | undefined {
-  if (v === undefined) return undefined;
-  const n = Number(v);
-  if (!Number.isFinite(n) || !ok(n)) throw new RateloomError('E_USAGE', `--${name} got '${v}'`, { fix: hint });
-  return n;
-}
 
 /** Human-readable fit summary. */
 export function formatFit(study: Study, sf: StudyFit): string {
@@ -154,11 +140,7 @@ export function registerFit(program: Command): void {
     .addHelpText('after', EXAMPLE)
     .action(async (studyPath: string, flags: FitFlags) => {
       await runCommand(!!flags.json, async () => {
-        const starts = numberFlag(flags.starts, 'starts', (n) => Number.isInteger(n) && n >= 0, 'Give a whole number of starts, e.g. --starts 20.');
-        const seed = numberFlag(flags.seed, 'seed', Number.isInteger, 'Give a whole-number seed, e.g. --seed 7.') ?? 1;
-        const maxIterations = numberFlag(flags.maxIterations, 'max-iterations', (n) => Number.isInteger(n) && n >= 1, 'Give a whole number of iterations >= 1, e.g. --max-iterations 500.');
-        const level = numberFlag(flags.level, 'level', (n) => n > 0 && n < 1, 'Give a level between 0 and 1, e.g. --level 0.95.') ?? 0.95;
-        const workers = workersFlag(flags.workers);
+        const { starts, maxIterations, seed = 1, level = 0.95, workers = 'auto' } = flags;
         const stem = flags.name !== undefined ? checkStem(flags.name) : studyStem(studyPath);
         const outDir = flags.out ?? 'reports';
         const planned = [join(outDir, `${stem}-kinetics.json`), ...(flags.report !== false ? [join(outDir, `${stem}-fit.html`), join(outDir, `${stem}-fit.md`)] : [])];

@@ -3,7 +3,8 @@
  * Commands only parse flags, read files, call the library and print.
  */
 import { Command } from 'commander';
-import { configureUsageErrors } from './run.js';
+import { configureUsageErrors, printError, EXIT_BAD_INPUT } from './run.js';
+import { checkNumericFlags, describeRanges } from './options.js';
 import { setAllowDataOutside } from './study-input.js';
 import { registerFit } from './fit.js';
 import { registerCompare } from './compare.js';
@@ -33,6 +34,7 @@ registrations.push(registerDemo);
 registrations.push(registerPlan);
 
 for (const r of registrations) r(program);
+describeRanges(program);
 
 // Every command's --help ends with where the equations and defaults are written down.
 const MODEL_REFERENCE = '\nModel reference (every equation, default and source): docs/model-reference.md';
@@ -49,6 +51,13 @@ program.hook('preAction', (_root, action) => {
     if (opt.required && typeof v === 'string' && v.startsWith('--')) {
       action.error(`option '${opt.flags}' got '${v}' as its value`, { code: 'commander.optionMissingArgument' });
     }
+  }
+  // Numeric options (counts, seeds, levels, workers) are checked against their ranges here, once.
+  try {
+    checkNumericFlags(action);
+  } catch (e) {
+    printError(process.argv.includes('--json'), e);
+    process.exit(EXIT_BAD_INPUT);
   }
 });
 

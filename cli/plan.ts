@@ -12,7 +12,6 @@ import { RateloomError, fitStudy, studyVariants, parseLimits, planRuns, type Pla
 import { assertWritable, readJson, writeAtomic } from './io.js';
 import { runCommand } from './run.js';
 import { readStudy, studyStem } from './study-input.js';
-import { numberFlag } from './fit.js';
 import { g, table, withUnit } from './format.js';
 
 const EXAMPLE = `
@@ -30,15 +29,16 @@ Exit codes: 0 planned on a trustworthy fit, 1 planned but not to be trusted, 2 b
 
 interface PlanFlags {
   limits: string;
-  runs: string;
+  /** Numbers checked against OPTION_RANGES by cli/options.ts before the command runs. */
+  runs: number;
   mode?: string;
   criterion?: string;
   subset?: string;
   discrimination?: string;
   model?: string;
-  draws?: string;
-  seed?: string;
-  level?: string;
+  draws?: number;
+  seed?: number;
+  level?: number;
   out?: string;
   force?: boolean;
   json?: boolean;
@@ -67,16 +67,13 @@ export function formatPlan(r: PlanResult, csvPath: string): string {
 }
 
 function planOptions(flags: PlanFlags): PlanOptions {
-  const runs = numberFlag(flags.runs, 'runs', (n) => Number.isInteger(n) && n > 0, 'Ask for 1 or more runs, e.g. --runs 8.') as number;
+  const { runs, draws, seed, level } = flags;
   const mode = flags.mode ?? 'precision';
   if (mode !== 'precision' && mode !== 'discrimination') throw new RateloomError('E_USAGE', `--mode must be 'precision' or 'discrimination', not '${mode}'`);
   const criterion = flags.criterion ?? 'D';
   if (!['D', 'Ds', 'A'].includes(criterion)) throw new RateloomError('E_USAGE', `--criterion must be D, Ds or A, not '${criterion}'`);
   const disc = flags.discrimination ?? 'box-hill';
   if (disc !== 'box-hill' && disc !== 'hunter-reiner') throw new RateloomError('E_USAGE', `--discrimination must be 'box-hill' or 'hunter-reiner', not '${disc}'`);
-  const draws = numberFlag(flags.draws, 'draws', (n) => Number.isInteger(n) && n >= 0, 'Give a whole number of draws, e.g. --draws 20.');
-  const seed = numberFlag(flags.seed, 'seed', Number.isInteger, 'Give a whole-number seed.');
-  const level = numberFlag(flags.level, 'level', (n) => n > 0 && n < 1, 'Give a level between 0 and 1.');
   return {
     runs,
     mode,

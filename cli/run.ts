@@ -46,16 +46,21 @@ export async function runCommand(json: boolean, body: () => Promise<CommandOutpu
     }
     process.exitCode = out.trustworthy ? EXIT_OK : EXIT_UNTRUSTWORTHY;
   } catch (e) {
-    if (isRateloomError(e)) {
-      if (json) process.stdout.write(toJson({ status: 'error', error: e.toJSON() }) + '\n');
-      else process.stderr.write(`error [${e.code}] ${e.message}\n`);
-    } else {
-      const err = e instanceof Error ? e : new Error(String(e));
-      const fix = ERROR_CODES.E_INTERNAL;
-      if (json) process.stdout.write(toJson({ status: 'error', error: { code: 'E_INTERNAL', message: `${err.message}. Fix: ${fix}`, problem: err.message, fix, path: '' } }) + '\n');
-      else process.stderr.write(`internal error: ${err.stack ?? err.message}\nFix: ${fix}\n`);
-    }
+    printError(json, e);
     process.exitCode = EXIT_BAD_INPUT;
+  }
+}
+
+/** Print an error as every command does: one JSON document under --json, else one line on stderr. */
+export function printError(json: boolean, e: unknown): void {
+  if (isRateloomError(e)) {
+    if (json) process.stdout.write(toJson({ status: 'error', error: e.toJSON() }) + '\n');
+    else process.stderr.write(`error [${e.code}] ${e.message}\n`);
+  } else {
+    const err = e instanceof Error ? e : new Error(String(e));
+    const fix = ERROR_CODES.E_INTERNAL;
+    if (json) process.stdout.write(toJson({ status: 'error', error: { code: 'E_INTERNAL', message: `${err.message}. Fix: ${fix}`, problem: err.message, fix, path: '' } }) + '\n');
+    else process.stderr.write(`internal error: ${err.stack ?? err.message}\nFix: ${fix}\n`);
   }
 }
 

@@ -6,8 +6,8 @@
  */
 import { formatPelletSizing } from './pellet-text.js';
 import type { Command } from 'commander';
-import { RateloomError, parseHandoff, kineticsFromHandoff, loadCase, type SizingResult, sizeReactorParallel, AUTO_RULE_TEXT, sizingReportData } from '../src/index.js';
-import { WORKERS_OPTION, workersFlag } from './fit.js';
+import { RateloomError, parseHandoff, kineticsFromHandoff, loadCase, type SizingResult, sizeReactorParallel, AUTO_RULE_TEXT, sizingReportData, type WorkersSetting } from '../src/index.js';
+import { WORKERS_OPTION } from './fit.js';
 import { assertWritable, readJson, writeAll } from './io.js';
 import type { OutputFile } from './output.js';
 import { basename, join } from 'node:path';
@@ -45,23 +45,15 @@ output carries a caution saying why and the exit code is 1.
 Exit codes: 0 sized, 1 target unreachable or result not trustworthy, 2 bad input.`;
 
 interface SizeFlags {
-  draws?: string;
-  seed?: string;
+  /** Numbers checked against OPTION_RANGES by cli/options.ts before the command runs. */
+  draws?: number;
+  seed?: number;
   json?: boolean;
   out?: string;
   report?: string;
   force?: boolean;
-  workers?: string;
+  workers?: WorkersSetting;
   acceptUntrustworthy?: boolean;
-}
-
-function intFlag(v: string | undefined, name: string, min: number): number | undefined {
-  if (v === undefined) return undefined;
-  const n = Number(v);
-  if (!Number.isInteger(n) || n < min) {
-    throw new RateloomError('E_USAGE', `--${name} must be a whole number >= ${min}, got '${v}'`, { fix: `Give --${name} 10000, for example.` });
-  }
-  return n;
 }
 
 const pct = (level: number) => `P${g(level * 100, 3)}`;
@@ -153,9 +145,7 @@ export function registerSize(program: Command): void {
     .action(async (kineticsPath: string, casePath: string, flags: SizeFlags) => {
       const json = !!flags.json;
       await runCommand(json, async () => {
-        const draws = intFlag(flags.draws, 'draws', 0);
-        const seed = intFlag(flags.seed, 'seed', 0);
-        const workers = workersFlag(flags.workers);
+        const { draws, seed, workers = 'auto' } = flags;
         const reportStem = `${basename(casePath).replace(/\.json$/i, '').replace(/\.case$/i, '')}-sizing`;
         const { raw: handoffRaw, handoff: h } = parseHandoffAt(kineticsPath);
         const dk = kineticsFromHandoff(h);

@@ -7,6 +7,7 @@ export { VERSION } from './version.js';
 // Core: typed errors, outcomes, parameters.
 export { RateloomError, InternalError, ERROR_CODES, isRateloomError, formatPath, type ErrorCode, type ErrorLocation } from './core/errors.js';
 export { parseJsonText } from './core/json-text.js';
+export { OPTION_RANGES, optionProblem, rangeText, checkOption, type OptionName, type OptionRange } from './core/option-ranges.js';
 export type { Outcome, Warning, StatusTable } from './core/outcome.js';
 export { exitCodeOf, verdictFrom, EXIT_TRUSTWORTHY, EXIT_UNTRUSTWORTHY, EXIT_BAD_INPUT, type Verdict, type VerdictReason } from './core/verdict.js';
 export { makeParameter, toInternal, toExternal, type Parameter, type Transform } from './core/parameter.js';

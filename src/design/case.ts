@@ -25,6 +25,7 @@
  */
 import { loadCasePellet, type CasePellet } from './case-pellet.js';
 import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { OPTION_RANGES } from '../core/option-ranges.js';
 import { quantityToSI, type QuantityKind } from './case-units.js';
 import { cpAt } from '../reactors/thermal/heat-capacity.js';
 import { loadThermalCase, THERMAL_FIELDS, type ThermalCase } from './heat-case.js';
@@ -351,12 +352,12 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
     const u = obj(top.uncertainty, ['uncertainty'], 'uncertainty');
     checkFields(u, ['draws', 'seed', 'levels', 'designLevel'], ['uncertainty']);
     if (u.draws !== undefined) {
-      const d = num(u.draws, ['uncertainty', 'draws'], 0, 1e7, 'draws');
+      const d = num(u.draws, ['uncertainty', 'draws'], 0, OPTION_RANGES.draws.max, 'draws');
       if (!Number.isInteger(d)) throw new RateloomError('E_VALUE', 'draws must be a whole number', { path: ['uncertainty', 'draws'] });
       out.uncertainty.draws = d;
     }
     if (u.seed !== undefined) {
-      const s = num(u.seed, ['uncertainty', 'seed'], 0, 2 ** 32 - 1, 'seed');
+      const s = num(u.seed, ['uncertainty', 'seed'], 0, OPTION_RANGES.seed.max, 'seed');
       if (!Number.isInteger(s)) throw new RateloomError('E_VALUE', 'seed must be a whole number', { path: ['uncertainty', 'seed'] });
       out.uncertainty.seed = s;
     }
