@@ -6,9 +6,11 @@
 import { readFileSync } from 'node:fs';
 import { RateloomError } from '../core/errors.js';
 import { parseJsonText } from '../core/json-text.js';
+import { checkArgs, is } from '../core/args.js';
 
 /** Read a UTF-8 text file, turning a missing or unreadable file into a typed error (E_FILE). */
 export function readText(path: string, what = 'file'): string {
+  checkArgs('readText', [path, what], [{ name: 'path', check: is.path }, { name: 'what', check: is.text }]);
   try {
     return readFileSync(path, 'utf8');
   } catch (e) {

@@ -8,6 +8,10 @@ import { loadCase, type DesignCase } from '../design/case.js';
 import type { FittedKinetics } from '../design/handoff.js';
 import { sizeReactor as sizeInput, type SizingInput, type SizingOptions, type SizingResult } from '../design/size.js';
 import { readJson, withFile } from './files.js';
+import { checkArgs, is, options as optionsArg, type ArgSpec } from '../core/args.js';
+
+/** The arguments of the sizing entry points. */
+export const SIZING_ARGS: readonly ArgSpec[] = [{ name: 'handoff', check: is.pathOrObject }, { name: 'designCase', check: is.pathOrObject }, optionsArg('options', ['draws', 'seed'])];
 
 /** A sizing input read and checked: the parsed JSON (for worker threads) and the typed input. */
 export interface SizingSetup {
@@ -27,6 +31,7 @@ const documentOf = (v: unknown, what: string): { raw: unknown; file: string } =>
  * The case is checked against the hand-off's species and reactions.
  */
 export function prepareSizing(handoff: unknown, designCase: unknown): SizingSetup {
+  checkArgs('prepareSizing', [handoff, designCase], SIZING_ARGS.slice(0, 2));
   const h = documentOf(handoff, 'fitted-kinetics file');
   const parsed = withFile(h.file, () => parseHandoff(h.raw));
   const kinetics = kineticsFromHandoff(parsed);
@@ -37,6 +42,7 @@ export function prepareSizing(handoff: unknown, designCase: unknown): SizingSetu
 
 /** The SizingInput of a prepared setup with the given options. */
 export function sizingInput(setup: SizingSetup, options: SizingOptions = {}): SizingInput {
+  checkArgs('sizingInput', [setup, options], [{ name: 'setup', check: is.sizingSetup }, SIZING_ARGS[2]]);
   const { kinetics: dk } = setup;
   return { handoff: setup.handoff, kinetics: dk.kinetics, kase: setup.kase, ...(dk.molarMasses ? { molarMasses: dk.molarMasses } : {}), options };
 }
@@ -54,5 +60,6 @@ export function sizingInput(setup: SizingSetup, options: SizingOptions = {}): Si
  *   cannot be reached is a status, not an exception.
  */
 export function sizeReactor(handoff: unknown, designCase: unknown, options: SizingOptions = {}): SizingResult {
+  checkArgs('sizeReactor', [handoff, designCase, options], SIZING_ARGS);
   return sizeInput(sizingInput(prepareSizing(handoff, designCase), options));
 }

@@ -9,6 +9,7 @@ import { fitStudy as fitLoaded, type StudyFit, type StudyFitOptions } from '../w
 import { compareStudy, type StudyCompareOptions, type StudyComparison } from '../workflow/compare-study.js';
 import { applyParameterValues, simulateStudy, type SimulateOptions, type SimulationResult } from '../study/simulate.js';
 import { readJson, readText } from './files.js';
+import { FIT_OPTIONS, checkArgs, is, options as optionsArg } from '../core/args.js';
 
 /** A study given to an entry point: a study-file path, the result of loadStudy, or a Study. */
 export type StudySource = string | LoadedStudy | Study;
@@ -34,12 +35,17 @@ export function loadStudy(path: string, options?: LoadOptions): LoadedStudy;
  */
 export function loadStudy(text: string, studyPath: string, readFile: (absPath: string) => string, options?: LoadOptions): LoadedStudy;
 export function loadStudy(a: string, b?: string | LoadOptions, readFile?: (absPath: string) => string, options?: LoadOptions): LoadedStudy {
-  if (typeof b === 'string') return parseStudy(a, b, readFile!, options);
+  if (typeof b === 'string') {
+    checkArgs('loadStudy', [a, b, readFile, options], [{ name: 'text', check: is.text }, { name: 'studyPath', check: is.path }, { name: 'readFile', check: is.func }, optionsArg('options')]);
+    return parseStudy(a, b, readFile!, options);
+  }
+  checkArgs('loadStudy', [a, b], [{ name: 'path', check: is.path }, optionsArg('options')]);
   return parseStudy(readText(a, 'study file'), a, (abs) => readText(abs, 'data file'), b ?? {});
 }
 
 /** The Study of a source (loads a path with loadStudy). */
-export function studyOf(source: StudySource): Study {
+export function studyOf(source: StudySource, fn = 'studyOf'): Study {
+  checkArgs(fn, [source], [{ name: 'source', check: is.studySource }]);
   if (typeof source === 'string') return loadStudy(source).study;
   return 'study' in source && 'report' in source ? source.study : (source as Study);
 }
@@ -55,6 +61,7 @@ export function studyOf(source: StudySource): Study {
  *   Numerical trouble is reported in `fit.status`/`fit.warnings`, never thrown.
  */
 export function fitStudy(source: StudySource, options: StudyFitOptions = {}): StudyFit {
+  checkArgs('fitStudy', [source, options], [{ name: 'source', check: is.studySource }, optionsArg('options', FIT_OPTIONS)]);
   return fitLoaded(studyOf(source), options);
 }
 
@@ -76,6 +83,7 @@ export interface SimulateStudyOptions extends SimulateOptions {
  *   `candidate` (a rival rate-law set; default the study's own).
  */
 export function simulate(source: StudySource, options: SimulateStudyOptions = {}): SimulationResult {
+  checkArgs('simulate', [source, options], [{ name: 'source', check: is.studySource }, optionsArg('options')]);
   const study = studyOf(source);
   const { parameters, ...rest } = options;
   let params = study.parameters;
@@ -92,6 +100,7 @@ export function simulate(source: StudySource, options: SimulateStudyOptions = {}
  * @param options - As fitStudy (without `variant`), plus `progress(done, total)` per fitted set.
  */
 export function compare(source: StudySource, options: StudyCompareOptions = {}): StudyComparison {
+  checkArgs('compare', [source, options], [{ name: 'source', check: is.studySource }, optionsArg('options', FIT_OPTIONS)]);
   return compareStudy(studyOf(source), options);
 }
 

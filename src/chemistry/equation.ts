@@ -4,6 +4,7 @@
  * coefficients summed. Errors name the 1-based column of the offending token.
  */
 import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
+import { checkArgs, is } from '../core/args.js';
 
 /** One species with its (positive) stoichiometric coefficient on one side of an equation. */
 export interface EquationTerm {
@@ -78,6 +79,7 @@ function tokenize(text: string, path: FieldPath): Tok[] {
  * @param path field path used in error messages.
  */
 export function parseEquation(text: string, species?: readonly string[], path: FieldPath = []): ParsedEquation {
+  checkArgs('parseEquation', [text, species], [{ name: 'text', check: is.text }, { name: 'species', check: is.optional(is.stringList) }]);
   if (typeof text !== 'string' || text.trim() === '') {
     throw new RateloomError('E_EQUATION', 'the equation is empty', { path });
   }

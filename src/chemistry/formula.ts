@@ -5,6 +5,7 @@
  */
 import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import { ATOMIC_WEIGHTS } from './elements.js';
+import { checkArgs, is } from '../core/args.js';
 
 /** A parsed formula. */
 export interface Formula {
@@ -113,6 +114,7 @@ class FormulaParser {
  * @throws RateloomError E_FORMULA naming the column of the problem.
  */
 export function parseFormula(text: string, path: FieldPath = []): Formula {
+  checkArgs('parseFormula', [text], [{ name: 'text', check: is.text }]);
   if (typeof text !== 'string' || text.trim() === '') {
     throw new RateloomError('E_FORMULA', 'the formula is empty', { path });
   }

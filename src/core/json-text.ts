@@ -8,6 +8,7 @@
  * Node version, may or may not carry a position).
  */
 import { RateloomError } from './errors.js';
+import { checkArgs, is } from './args.js';
 
 /** A JSON syntax problem: 0-based offset into the text (BOM removed), 1-based line and column. */
 export interface JsonSyntaxProblem {
@@ -162,6 +163,7 @@ export function findJsonSyntaxError(text: string): JsonSyntaxProblem | undefined
  * @param what how the file is called in the message, e.g. 'study file'
  */
 export function parseJsonText(text: string, file: string, what = 'JSON file'): unknown {
+  checkArgs('parseJsonText', [text, file, what], [{ name: 'text', check: is.text }, { name: 'file', check: is.text }, { name: 'what', check: is.text }]);
   const clean = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   const deep = tooDeepAt(clean, MAX_JSON_DEPTH);
   if (deep !== undefined) {

@@ -48,6 +48,9 @@ export type OptionName = keyof typeof OPTION_RANGES;
 
 /** The range in words: "a whole number from 0 to 1000", "a number above 0 and below 1". */
 export function rangeText(r: OptionRange): string {
+  if (typeof r !== 'object' || r === null || typeof r.min !== 'number' || typeof r.max !== 'number') {
+    throw new RateloomError('E_TYPE', `rangeText(): argument 'r' must be an OptionRange, not ${shown(r)}`, { path: ['arguments', 'r'], fix: 'Pass one of the values of OPTION_RANGES.' });
+  }
   const lo = `${r.minOpen ? 'above' : 'from'} ${r.min}`;
   const hi = `${r.maxOpen ? 'below' : 'to'} ${r.max}`;
   return `${r.integer ? 'a whole number' : 'a number'} ${lo}${r.minOpen || r.maxOpen ? ' and' : ''} ${hi}`;
@@ -55,6 +58,9 @@ export function rangeText(r: OptionRange): string {
 
 /** Why `value` is not an accepted value of `name`, or undefined when it is. */
 export function optionProblem(name: OptionName, value: unknown): string | undefined {
+  if (typeof name !== 'string' || !Object.hasOwn(OPTION_RANGES, name)) {
+    throw new RateloomError('E_TYPE', `argument 'name' must be one of ${Object.keys(OPTION_RANGES).join(', ')}, not ${shown(name)}`, { path: ['arguments', 'name'], fix: 'Pass the name of an option in OPTION_RANGES.' });
+  }
   const r: OptionRange = OPTION_RANGES[name];
   const ok =
     typeof value === 'number' &&

@@ -12,6 +12,7 @@
 import { parse } from 'csv-parse/sync';
 import { RateloomError, closestName } from '../core/errors.js';
 import { MAX_RECORD_CHARS, detectDelimiter, type CsvDelimiter } from './dialect.js';
+import { checkArgs, is } from '../core/args.js';
 
 export interface CsvRow {
   /** 1-based line in the file where the record starts. */
@@ -126,6 +127,7 @@ function parseQuoted(text: string, file: string, delimiter: CsvDelimiter): Parse
 
 /** Parse CSV text. `file` is only used in messages. */
 export function readCsv(text: string, file: string): CsvTable {
+  checkArgs('readCsv', [text, file], [{ name: 'text', check: is.text }, { name: 'file', check: is.text }]);
   if (typeof text !== 'string') throw new RateloomError('E_TYPE', `CSV text of '${file}' must be a string, got ${text === null ? 'null' : typeof text}`, { location: { file } });
   const nul = text.indexOf('\u0000');
   if (nul >= 0) {

@@ -7,6 +7,7 @@
  * file is binary: it is refused at once, as is a file above the size limit.
  */
 import { RateloomError } from '../core/errors.js';
+import { checkArgs, is } from '../core/args.js';
 
 /** Encodings rateloom detects, by their WHATWG Encoding Standard names. */
 export type InputEncoding = 'UTF-8' | 'UTF-16LE' | 'UTF-16BE' | 'windows-1252';
@@ -52,6 +53,7 @@ export function tooLargeError(file: string, limit: number): RateloomError {
 
 /** Decode input bytes (see the file comment). `file` is only used in messages. */
 export function decodeInput(bytes: Uint8Array, file: string, maxBytes = DEFAULT_MAX_INPUT_BYTES): DecodedText {
+  checkArgs('decodeInput', [bytes, file, maxBytes], [{ name: 'bytes', check: is.bytes }, { name: 'file', check: is.text }, { name: 'maxBytes', check: is.number }]);
   if (bytes.length > maxBytes) throw tooLargeError(file, maxBytes);
   const bom = sniffBom(bytes);
   const body = bom ? bytes.subarray(bom.length) : bytes;

@@ -30,6 +30,7 @@ import { quantityToSI, type QuantityKind } from './case-units.js';
 import { cpAt } from '../reactors/thermal/heat-capacity.js';
 import { loadThermalCase, THERMAL_FIELDS, type ThermalCase } from './heat-case.js';
 import { GAS_CONSTANT } from '../core/constants.js';
+import { checkArgs, is } from '../core/args.js';
 
 export type DesignReactorKind = 'packed-bed' | 'plug-flow' | 'stirred-tank' | 'batch';
 
@@ -180,6 +181,7 @@ const TOP = ['name', 'reactor', 'feed', 'temperature', 'pressure', 'target', 'tu
  * @param reactionIds reaction ids of the fitted kinetics
  */
 export function loadCase(raw: unknown, species: readonly string[], reactionIds: readonly string[]): DesignCase {
+  checkArgs('loadCase', [raw, species, reactionIds], [{ name: 'raw', check: is.json }, { name: 'species', check: is.stringList }, { name: 'reactionIds', check: is.stringList }]);
   const top = obj(raw, [], 'the case file');
   checkFields(top, TOP, []);
   const name = need(top, 'name', [], 'Add "name": "a short label for the case".');

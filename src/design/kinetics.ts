@@ -7,6 +7,8 @@ import { buildChemistry, type Chemistry } from '../chemistry/mechanism.js';
 import { compileKinetics } from '../kinetics/compile.js';
 import type { CompiledKinetics } from '../kinetics/compiled.js';
 import type { FittedKinetics } from './handoff.js';
+import { checkArgs, is } from '../core/args.js';
+import { parseHandoff } from './handoff-load.js';
 
 export interface DesignKinetics {
   chemistry: Chemistry;
@@ -17,6 +19,8 @@ export interface DesignKinetics {
 
 /** Compile the hand-off's rate laws (throws RateloomError for bad chemistry or rate laws). */
 export function kineticsFromHandoff(h: FittedKinetics): DesignKinetics {
+  checkArgs('kineticsFromHandoff', [h], [{ name: 'handoff', check: is.object }]);
+  parseHandoff(h);
   const chemistry = buildChemistry(h.species, h.reactions, []);
   const kinetics = compileKinetics(
     {

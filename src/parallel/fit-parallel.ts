@@ -20,6 +20,10 @@ import { chooseWorkers, type WorkersSetting } from './auto.js';
 import type { JobPool } from './pool.js';
 import { profileJobs, startJobs, startStudyPool } from './study-adapter.js';
 import type { StartResult, StudyJob, StudyJobContext, StudyJobResult } from './study-jobs.js';
+import { FIT_OPTIONS, checkArgs, is, options as optionsArg } from '../core/args.js';
+
+/** The arguments of the parallel fit entry points. */
+const PARALLEL_FIT_ARGS = [{ name: 'study', check: is.study }, optionsArg('options', [...FIT_OPTIONS, 'workers'])];
 
 export interface ParallelFitOptions extends StudyFitOptions {
   /** Worker threads (1 = serial) or 'auto' (see auto.ts); default 'auto'. */
@@ -48,6 +52,7 @@ function workersForPlan(study: Study, nFree: number, starts: number, options: St
  * fitStudy(study, options) (see the file header). Bad input throws as fitStudy does.
  */
 export async function fitStudyParallel(study: Study, options: ParallelFitOptions = {}): Promise<StudyFit> {
+  checkArgs('fitStudyParallel', [study, options], PARALLEL_FIT_ARGS);
   const { workers: setting, ...fitOptions } = options;
   const plan = planStudyFit(study, fitOptions);
   const params = plan.variant.parameters;
@@ -107,6 +112,7 @@ export async function fitStudyParallel(study: Study, options: ParallelFitOptions
  * the same result as compareStudy(study, options).
  */
 export async function compareStudyParallel(study: Study, options: StudyCompareOptions & { workers?: WorkersSetting } = {}): Promise<StudyComparison> {
+  checkArgs('compareStudyParallel', [study, options], PARALLEL_FIT_ARGS);
   const variants = studyVariants(study);
   const fits: StudyFit[] = [];
   for (let i = 0; i < variants.length; i++) {

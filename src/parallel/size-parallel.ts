@@ -13,6 +13,7 @@ import { chooseWorkers, type WorkersSetting } from './auto.js';
 import { monteCarloVectors } from './mc-adapter.js';
 import type { McContext, McJob, McJobResult } from './mc-jobs.js';
 import { chunkRanges, siblingModule, startPool, type JobPool } from './pool.js';
+import { checkArgs, is, options as optionsArg } from '../core/args.js';
 
 const JOBS_URL = siblingModule('mc-jobs', import.meta.url);
 
@@ -42,6 +43,7 @@ export function sizingWorkers(input: SizingInput, setting?: WorkersSetting): num
  * sizeReactor(input). `sources` must be the JSON the input's hand-off and case were parsed from.
  */
 export async function sizeReactorParallel(input: SizingInput, sources: SizingSources, options: ParallelSizingOptions = {}): Promise<SizingResult> {
+  checkArgs('sizeReactorParallel', [input, sources, options, input?.options], [{ name: 'input', check: is.sizingInput }, { name: 'sources', check: is.object }, optionsArg('options', ['workers']), optionsArg('input.options', ['draws', 'seed'])]);
   const workers = sizingWorkers(input, options.workers);
   if (workers <= 1) return sizeReactorWith(input, async () => undefined);
   const onProgress = input.options?.onProgress;

@@ -7,6 +7,7 @@
 import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import { toSI, type Quantity } from '../units/index.js';
 import type { MolecularDiffusivity, PelletShape, PelletSpec } from './types.js';
+import { checkArgs, is } from '../core/args.js';
 
 type Obj = Record<string, unknown>;
 
@@ -173,6 +174,7 @@ function fluidOf(raw: unknown, path: FieldPath): PelletFluid {
  * @param extra further field names the caller reads itself
  */
 export function loadPellet(raw: unknown, species: readonly string[], path: FieldPath, tubeDiameter?: number, extra: readonly string[] = []): LoadedPellet {
+  checkArgs('loadPellet', [raw, species, path], [{ name: 'raw', check: is.json }, { name: 'species', check: is.stringList }, { name: 'path', check: is.list(is.key) }]);
   if (!raw || typeof raw !== 'object' || Array.isArray(raw)) throw err('E_TYPE', 'the pellet must be an object', path);
   const o = raw as Obj;
   checkFields(o, [...FIELDS, ...extra], path);

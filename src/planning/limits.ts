@@ -11,6 +11,7 @@ import { checkSchema, type JsonSchema } from '../study/schema-check.js';
 import type { Study } from '../study/types.js';
 import { unitFor, type Quantity } from '../units/index.js';
 import schemaJson from '../../schema/limits.schema.json' with { type: 'json' };
+import { checkArgs, is } from '../core/args.js';
 
 /** The limits-file schema as an object (the same file editors use). */
 export const LIMITS_SCHEMA = schemaJson as unknown as JsonSchema;
@@ -143,6 +144,7 @@ function readConstraints(raw: RawLimits, factors: Factor[], file: string): LabLi
 
 /** Read and check a limits document (parsed JSON) for a study. Bad input throws RateloomError. */
 export function parseLimits(doc: unknown, study: Study, file = 'limits'): LabLimits {
+  checkArgs('parseLimits', [doc, study, file], [{ name: 'doc', check: is.json }, { name: 'study', check: is.study }, { name: 'file', check: is.text }]);
   checkSchema(doc, LIMITS_SCHEMA);
   const raw = doc as RawLimits;
   const src = perRunSource(study);

@@ -6,6 +6,7 @@
  * RateloomError; a fit that cannot be trusted is planned with a warning and an unsuccessful status.
  */
 import { RateloomError } from '../core/errors.js';
+import { checkOption } from '../core/option-ranges.js';
 import { outcome, type StatusTable, type Warning } from '../core/outcome.js';
 import type { Study } from '../study/types.js';
 import type { StudyFit } from '../workflow/fit-study.js';
@@ -16,6 +17,7 @@ import type { LabLimits } from './limits.js';
 import { planPrecision, type PrecisionPlan } from './precision.js';
 import { conditionsOf, factorSummary, oldRunPoints, plannedRows } from './rows.js';
 import type { DiscriminationCriterion, PlanMode, PlanResult, PlanStatus, PlannedRun } from './types.js';
+import { checkArgs, is } from '../core/args.js';
 
 export const PLAN_STATUS: StatusTable<PlanStatus> = {
   planned: { success: true, message: 'runs planned' },
@@ -46,9 +48,10 @@ export interface PlanOptions {
 }
 
 function checkOptions(o: PlanOptions, fits: readonly StudyFit[]): void {
-  if (!Number.isInteger(o.runs) || o.runs <= 0) throw new RateloomError('E_VALUE', `the number of runs to plan must be a whole number of at least 1, not ${o.runs}`, { path: ['runs'], fix: 'Ask for 1 or more runs (for example --runs 8).' });
-  if (o.draws !== undefined && (!Number.isInteger(o.draws) || o.draws < 0)) throw new RateloomError('E_VALUE', `draws must be a whole number >= 0, not ${o.draws}`, { path: ['draws'] });
-  if (o.level !== undefined && !(o.level > 0 && o.level < 1)) throw new RateloomError('E_VALUE', `level must lie between 0 and 1, not ${o.level}`, { path: ['level'] });
+  checkOption('runs', o.runs, ['runs']);
+  if (o.draws !== undefined) checkOption('planDraws', o.draws, ['draws']);
+  if (o.seed !== undefined) checkOption('seed', o.seed, ['seed']);
+  if (o.level !== undefined) checkOption('level', o.level, ['level']);
   if (!fits.length) throw new RateloomError('E_VALUE', 'planning needs a fit of the study', { path: ['fits'] });
 }
 
@@ -114,6 +117,7 @@ function precisionResult(study: Study, limits: LabLimits, sf: StudyFit, o: PlanO
 
 /** Plan the next runs of a study. `fits`: the fit to plan for (precision), or every rival's fit. */
 export function planRuns(study: Study, limits: LabLimits, fits: readonly StudyFit[], options: PlanOptions): PlanResult {
+  checkArgs('planRuns', [study, limits, fits, options], [{ name: 'study', check: is.study }, { name: 'limits', check: is.object }, { name: 'fits', check: is.list(is.studyFit) }, { name: 'options', check: is.object }]);
   checkOptions(options, fits);
   const warnings: Warning[] = [];
   for (const f of fits) {

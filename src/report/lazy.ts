@@ -4,13 +4,16 @@
  * load them; only rendering a report does.
  */
 import type { FitReportData, RenderedReport, SizingReportData } from './types.js';
+import { checkArgs, is } from '../core/args.js';
 
 /** Render a fit report: self-contained HTML (charts as inline SVG) and Markdown. */
 export async function renderFitReport(data: FitReportData): Promise<RenderedReport> {
+  checkArgs('renderFitReport', [data], [{ name: 'data', check: is.reportData('studyName') }]);
   return (await import('./index.js')).renderFitReport(data);
 }
 
 /** Render a sizing report: self-contained HTML (charts as inline SVG, cautions) and Markdown. */
 export async function renderSizingReport(data: SizingReportData): Promise<RenderedReport> {
+  checkArgs('renderSizingReport', [data], [{ name: 'data', check: is.reportData('caseName') }]);
   return (await import('./index.js')).renderSizingReport(data);
 }

@@ -15,6 +15,7 @@ import { activityOf } from './activity-params.js';
 import { runParameterNames } from './parameters.js';
 import { measuredConversions } from './summary.js';
 import type { Study, StudyRun } from './types.js';
+import { checkArgs, is } from '../core/args.js';
 
 export interface SimulatedRun {
   runId: string;
@@ -68,6 +69,7 @@ export interface SimulateOptions {
  * an error naming the closest parameter. Returns new parameters; the inputs are not changed.
  */
 export function applyParameterValues(params: readonly Parameter[], doc: unknown, file: string): Parameter[] {
+  checkArgs('applyParameterValues', [params, doc, file], [{ name: 'params', check: is.list(is.object) }, { name: 'doc', check: is.json }, { name: 'file', check: is.text }]);
   const values = new Map<string, number>();
   const fail = (msg: string, path: (string | number)[]) => new RateloomError('E_VALUE', msg, { path, location: { file } });
   if (doc && typeof doc === 'object' && Array.isArray((doc as { parameters?: unknown }).parameters)) {
@@ -104,7 +106,8 @@ export function applyParameterValues(params: readonly Parameter[], doc: unknown,
 }
 
 /** Solve every run of the study at the parameter values given (default: the study's). */
-export function simulateStudy(study: Study, parameters: readonly Parameter[] = study.parameters, options: SimulateOptions = {}): SimulationResult {
+export function simulateStudy(study: Study, parameters: readonly Parameter[] = study?.parameters, options: SimulateOptions = {}): SimulationResult {
+  checkArgs('simulateStudy', [study, parameters, options], [{ name: 'study', check: is.study }, { name: 'parameters', check: is.list(is.object) }, { name: 'options', check: is.optional(is.object) }]);
   let reactions = study.reactions;
   let scopes = study.scopes;
   if (options.candidate !== undefined) {

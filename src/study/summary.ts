@@ -9,6 +9,7 @@ import type { Study, StudyRun } from './types.js';
 import { consistencyWarnings } from './consistency.js';
 import { referenceTemperatureMatters } from './reference-temperature.js';
 import { GAS_CONSTANT } from '../core/constants.js';
+import { checkArgs, is } from '../core/args.js';
 
 export interface Range {
   min: number;
@@ -122,6 +123,7 @@ export function measuredConversions(study: Study): Map<string, number> {
 }
 
 export function summarizeStudy(study: Study, report: ValidationReport): StudySummary {
+  checkArgs('summarizeStudy', [study, report], [{ name: 'study', check: is.study }, { name: 'report', check: is.object }]);
   const runs = study.runs;
   const kind = study.reactor.kind;
   const sizeQ = kind === 'packed-bed' ? 'catalyst mass' : kind === 'batch' || kind === 'semibatch' ? 'time' : 'volume';

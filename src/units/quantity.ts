@@ -9,6 +9,7 @@
 import { RateloomError, closestName, type ErrorLocation, type FieldPath } from '../core/errors.js';
 import { formatSiUnit, parseCompoundUnit, sameDims, UnitSyntaxError, type ParsedUnit } from './parse.js';
 import { AFFINE_TEMPERATURE, DIMS, TEMPERATURE_ALIASES, type Dims } from './table.js';
+import { checkArgs, is } from '../core/args.js';
 
 export type Quantity =
   | 'molar-flow'
@@ -138,6 +139,7 @@ function parseTyped(quantity: Quantity, unit: string, opts: UnitOptions): Parsed
  * unit of other dimensions, or a gauge pressure without `gauge: true` and `ambientPressure`.
  */
 export function unitFor(quantity: Quantity, unit: string, opts: UnitOptions = {}): UnitConversion {
+  checkArgs('unitFor', [quantity, unit, opts], [{ name: 'quantity', check: is.oneOf(QUANTITY_NAMES) }, { name: 'unit', check: is.text }, { name: 'options', check: is.optional(is.object) }]);
   const def = QUANTITIES[quantity];
   if (typeof unit !== 'string' || unit.trim() === '') throw unitError(quantity, String(unit), 'no unit given', opts);
   const u = unit.trim();
@@ -188,23 +190,30 @@ export function unitFor(quantity: Quantity, unit: string, opts: UnitOptions = {}
   return makeConversion(quantity, u, def.si, p.factor, 0);
 }
 
+/** The quantity names unitFor knows. */
+const QUANTITY_NAMES = Object.keys(QUANTITIES);
+
 /** Convert `value` in `unit` to SI for `quantity`. */
 export function toSI(value: number, quantity: Quantity, unit: string, opts: UnitOptions = {}): number {
+  checkArgs('toSI', [value, quantity], [{ name: 'value', check: is.number }, { name: 'quantity', check: is.oneOf(QUANTITY_NAMES) }]);
   return unitFor(quantity, unit, opts).toSI(value);
 }
 
 /** Convert an SI `value` of `quantity` to `unit`. */
 export function fromSI(value: number, quantity: Quantity, unit: string, opts: UnitOptions = {}): number {
+  checkArgs('fromSI', [value, quantity], [{ name: 'value', check: is.number }, { name: 'quantity', check: is.oneOf(QUANTITY_NAMES) }]);
   return unitFor(quantity, unit, opts).fromSI(value);
 }
 
 /** The common units of a quantity (those listed in error messages). */
 export function acceptedUnits(quantity: Quantity): readonly string[] {
+  checkArgs('acceptedUnits', [quantity], [{ name: 'quantity', check: is.oneOf(QUANTITY_NAMES) }]);
   return QUANTITIES[quantity].common;
 }
 
 /** The SI unit of a quantity. */
 export function siUnit(quantity: Quantity): string {
+  checkArgs('siUnit', [quantity], [{ name: 'quantity', check: is.oneOf(QUANTITY_NAMES) }]);
   return QUANTITIES[quantity].si;
 }
 
@@ -214,6 +223,7 @@ export function siUnit(quantity: Quantity): string {
  * are refused here (a parameter in degC is ambiguous).
  */
 export function compoundToSI(value: number, unit: string, opts: Pick<UnitOptions, 'path' | 'location'> = {}): { value: number; unit: string } {
+  checkArgs('compoundToSI', [value, unit, opts], [{ name: 'value', check: is.number }, { name: 'unit', check: is.text }, { name: 'options', check: is.optional(is.object) }]);
   let p: ParsedUnit;
   try {
     p = parseCompoundUnit(unit);

@@ -5,6 +5,7 @@
 import { compareModels, type Comparison } from '../estimation/compare.js';
 import type { Study } from '../study/types.js';
 import { fitStudy, studyVariants, type StudyFit, type StudyFitOptions } from './fit-study.js';
+import { FIT_OPTIONS, checkArgs, is, options as options_ } from '../core/args.js';
 
 export interface StudyComparison {
   fits: StudyFit[];
@@ -26,6 +27,7 @@ function nestedPairs(study: Study): Array<readonly [string, string]> {
 }
 
 export function compareStudy(study: Study, options: StudyCompareOptions = {}): StudyComparison {
+  checkArgs('compareStudy', [study, options], [{ name: 'study', check: is.study }, options_('options', FIT_OPTIONS)]);
   const variants = studyVariants(study);
   const fits: StudyFit[] = [];
   variants.forEach((v, i) => {

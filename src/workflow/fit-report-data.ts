@@ -11,6 +11,7 @@ import type { StudyFit } from './fit-study.js';
 import { feedRatio, responseLabel, spaceTime } from './labels.js';
 import { labReportData } from './lab-report-data.js';
 import { VERSION } from '../version.js';
+import { checkArgs, is } from '../core/args.js';
 
 const COVARIANCE_TEXT: Record<string, string> = {
   's2-scaled': 's² (JᵀJ)⁻¹ at the optimum (sigma scale estimated from the residuals)',
@@ -140,6 +141,7 @@ function startValues(sf: StudyFit): StartValuesData | null {
 
 /** The fit report view model of a study fit. */
 export function fitReportData(study: Study, sf: StudyFit, comparison?: Comparison): FitReportData {
+  checkArgs('fitReportData', [study, sf, comparison], [{ name: 'study', check: is.study }, { name: 'sf', check: is.studyFit }, { name: 'comparison', check: is.optional(is.object) }]);
   const { fit } = sf;
   const lab = labReportData(study, sf);
   const s = fit.statistics;

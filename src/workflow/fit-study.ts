@@ -20,6 +20,7 @@ import { StudyModel, baseVariant, candidateVariant, type ModelVariant, type Stud
 import { estimateStartValues, type StartValueOptions, type StartValues } from './start-values.js';
 import { VERSION } from '../version.js';
 import { fittedLabTransport, type LabTransport } from './lab-transport.js';
+import { checkArgs, is } from '../core/args.js';
 
 export interface StudyFitOptions extends FitOptions {
   /** Candidate rate-law set to fit ('base' = the study's own rate laws); default 'base'. */
@@ -68,6 +69,7 @@ export function openStarts(study: Study, variant: string): string[] {
 
 /** The rate-law sets of a study: 'base' first, then its candidates. */
 export function studyVariants(study: Study): ModelVariant[] {
+  checkArgs('studyVariants', [study], [{ name: 'study', check: is.study }]);
   return [baseVariant(study), ...study.candidates.map(candidateVariant)];
 }
 
@@ -180,6 +182,7 @@ function collapseGroups(params: FitResult['parameters']): FitResult['parameters'
 
 /** The fitted-kinetics hand-off file of a study fit (plain JSON, SI). */
 export function buildHandoff(study: Study, sf: StudyFit): FittedKinetics {
+  checkArgs('buildHandoff', [study, sf], [{ name: 'study', check: is.study }, { name: 'sf', check: is.studyFit }]);
   const variant = findVariant(study, sf.variant);
   const activity = new Set(study.activity?.parameters ?? []);
   const { fit } = sf;

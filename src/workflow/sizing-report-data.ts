@@ -6,6 +6,7 @@ import type { SizingResult } from '../design/size.js';
 import type { SizingReportData } from '../report/types.js';
 import { VERSION } from '../version.js';
 import { pelletReportData } from './pellet-report-data.js';
+import { checkArgs, is } from '../core/args.js';
 
 function targetText(r: SizingResult): SizingReportData['target'] {
   const t = r.target;
@@ -18,6 +19,7 @@ const percentile = (r: SizingResult, level: number): number =>
   r.uncertainty?.percentiles.find((p) => Math.abs(p.level - level) < 1e-9)?.value ?? NaN;
 
 export function sizingReportData(r: SizingResult): SizingReportData {
+  checkArgs('sizingReportData', [r], [{ name: 'r', check: is.sizingResult }]);
   const u = r.uncertainty;
   const sizeQuantity = r.size?.quantity ?? (u?.quantity === 'conversion' ? 'conversion' : 'size');
   const rating = r.target.kind === 'size';
