@@ -28,6 +28,8 @@ export const is = {
   text: ((v) => (typeof v === 'string' ? undefined : 'a string')) as Check,
   path: ((v) => (typeof v === 'string' && v.trim() !== '' && !v.includes('\0') ? undefined : 'a file path (a non-empty string)')) as Check,
   number: ((v) => (typeof v === 'number' && Number.isFinite(v) ? undefined : 'a finite number')) as Check,
+  /** A number above 0 (Infinity allowed: no limit). */
+  positive: ((v) => (typeof v === 'number' && v > 0 ? undefined : 'a number above 0 (Infinity for no limit)')) as Check,
   object: ((v) => (isObj(v) ? undefined : 'an object')) as Check,
   bytes: ((v) => (v instanceof Uint8Array ? undefined : 'bytes (a Uint8Array or Buffer)')) as Check,
   func: ((v) => (typeof v === 'function' ? undefined : 'a function')) as Check,

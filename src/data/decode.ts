@@ -53,7 +53,7 @@ export function tooLargeError(file: string, limit: number): RateloomError {
 
 /** Decode input bytes (see the file comment). `file` is only used in messages. */
 export function decodeInput(bytes: Uint8Array, file: string, maxBytes = DEFAULT_MAX_INPUT_BYTES): DecodedText {
-  checkArgs('decodeInput', [bytes, file, maxBytes], [{ name: 'bytes', check: is.bytes }, { name: 'file', check: is.text }, { name: 'maxBytes', check: is.number }]);
+  checkArgs('decodeInput', [bytes, file, maxBytes], [{ name: 'bytes', check: is.bytes }, { name: 'file', check: is.text }, { name: 'maxBytes', check: is.positive }]);
   if (bytes.length > maxBytes) throw tooLargeError(file, maxBytes);
   const bom = sniffBom(bytes);
   const body = bom ? bytes.subarray(bom.length) : bytes;

@@ -5,6 +5,7 @@
  */
 import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import { toExternal, type Transform } from '../core/parameter.js';
+import { checkHandoffRanges } from './handoff-ranges.js';
 import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics, type HandoffParameter } from './handoff.js';
 
 type Obj = Record<string, unknown>;
@@ -28,7 +29,8 @@ function req(o: Obj, key: string, path: FieldPath, type: 'string' | 'number' | '
 /**
  * Validate a parsed hand-off document and return it typed. Checks format, version, species,
  * reactions, parameters (finite values, internal value matching the transform), covariance shape,
- * symmetry and non-negative diagonal, and coverage ranges.
+ * symmetry and non-negative diagonal, and coverage ranges; then the numbers' ranges
+ * (handoff-ranges.ts).
  */
 export function parseHandoff(raw: unknown): FittedKinetics {
   if (!isObj(raw)) throw new RateloomError('E_TYPE', 'the hand-off file must hold a JSON object', { path: [] });
@@ -71,6 +73,7 @@ export function parseHandoff(raw: unknown): FittedKinetics {
     for (const [k, v] of Object.entries(cov2.feedMoleFraction)) checkRange(v, ['coverage', 'feedMoleFraction', k]);
   }
   checkVerdict(raw);
+  checkHandoffRanges(raw);
   return raw as unknown as FittedKinetics;
 }
 

@@ -7,9 +7,15 @@ import type { Study } from '../study/types.js';
 import { measuredConversions } from '../study/summary.js';
 
 function range(values: number[], unit: string): Range | undefined {
-  const v = values.filter(Number.isFinite);
-  if (!v.length) return undefined;
-  return { min: Math.min(...v), max: Math.max(...v), unit };
+  let min = Infinity;
+  let max = -Infinity;
+  // A loop, not Math.min(...values): spreading a million runs overflows the call stack.
+  for (const x of values) {
+    if (!Number.isFinite(x)) continue;
+    if (x < min) min = x;
+    if (x > max) max = x;
+  }
+  return min <= max ? { min, max, unit } : undefined;
 }
 
 export function studyCoverage(study: Study): FittedKinetics['coverage'] {
