@@ -12,7 +12,7 @@ import { responseLabel } from './labels.js';
 
 /** Why the fractions are fitted as measured (shown whenever a study has lab data). */
 export const FRACTIONS_NOTE =
-  'The analyser fractions were fitted as measured (or as ratios to the internal standard), each with the error model of the fractions carried through by the delta method. Converting them to flows by hand first, F_i = F_s,0 y_i / y_s, spreads the error of the standard\'s peak over every flow of a run; a fit that then treats those flows as independent measurements weights the runs wrongly and states intervals that ignore the shared error. With small errors both give the same estimates; only the direct fit gives intervals with the stated coverage. Ratios to the standard share its error; the fit treats them as independent, so their intervals are conservative (fit outlet-fraction for intervals at the stated level).';
+  'The analyser fractions were fitted as measured (or as ratios to the internal standard), each with the error model of the fractions carried through by the delta method. Converting them to flows by hand first, F_i = F_s,0 y_i / y_s, spreads the error of the standard\'s peak over every flow of a run; a fit that then treats those flows as independent measurements weights the runs wrongly and states intervals that ignore the shared error. With small errors both give the same estimates; only the direct fit gives intervals with the stated coverage. Ratios to the standard (and a conversion, selectivity or yield) of one run share fraction errors; the fit carries these correlations (generalised least squares, one block per run), so their intervals too have the stated coverage.';
 
 const PER_HOUR = 3600;
 
