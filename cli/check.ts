@@ -92,7 +92,7 @@ export function registerCheck(program: Command): void {
         const ok = summary.observations > 0 && summary.degreesOfFreedom > 0;
         return {
           json: { status: ok ? 'ok' : 'nothing-to-fit', summary, report, ...(transport ? { transport } : {}), ...(study.lab ? { lab: study.lab } : {}) },
-          text: formatCheck(summary, report) + (transport ? `\n\n${formatTransport(transport)}` : '') + (study.lab ? `\n\n${formatLabCheck(study.lab)}` : '') + (ok ? '' : '\nNothing left to fit: add observations or fix parameters.'),
+          text: formatCheck(summary, report) + (transport ? `\n\n${formatTransport(transport)}` : '') + (study.lab ? `\n\n${formatLabCheck(study.lab)}` : '') + (study.activity && report.replicateGroups.length ? `\n  Under the ${study.activity.model} activity model the runs of the replicate groups listed under Replicates differ in time on stream (their activity differs): the fit does not pool them for the lack-of-fit test; their spread is the drift check's evidence.` : '') + (ok ? '' : '\nNothing left to fit: add observations or fix parameters.'),
           trustworthy: ok,
         };
       });

@@ -35,5 +35,7 @@ describe('rateloom check: lab data text', () => {
     expect(out).toContain(`skipped (1 lab row(s) of runs rejected by the per-run sources, not fitted): D2 (runs.csv:${at + 1})`);
     expect(out).toContain('element balance closure tolerance: 100 +/- 3 %');
     expect(out).toContain('balance warnings: none');
+    // The reference runs repeat the conditions at different times on stream: not replicates under drift.
+    expect(out).toContain('Under the exponential activity model the runs of the replicate groups listed under Replicates differ in time on stream');
   }, 60000);
 });
