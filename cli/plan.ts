@@ -8,7 +8,7 @@
  */
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { RateloomError, fitStudy, studyVariants, parseLimits, planRuns, type PlanOptions, type PlanResult, type CriterionKind } from '../src/index.js';
+import { RateloomError, checkDistinctRivals, fitStudy, studyVariants, parseLimits, planRuns, type PlanOptions, type PlanResult, type CriterionKind } from '../src/index.js';
 import { assertWritable, readJson, writeAtomic } from './io.js';
 import { runCommand } from './run.js';
 import { readStudy, studyStem } from './study-input.js';
@@ -37,6 +37,7 @@ interface PlanFlags {
   discrimination?: string;
   model?: string;
   draws?: number;
+  posteriorDraws?: number;
   seed?: number;
   level?: number;
   out?: string;
@@ -67,7 +68,7 @@ export function formatPlan(r: PlanResult, csvPath: string): string {
 }
 
 function planOptions(flags: PlanFlags): PlanOptions {
-  const { runs, draws, seed, level } = flags;
+  const { runs, draws, posteriorDraws, seed, level } = flags;
   const mode = flags.mode ?? 'precision';
   if (mode !== 'precision' && mode !== 'discrimination') throw new RateloomError('E_USAGE', `--mode must be 'precision' or 'discrimination', not '${mode}'`);
   const criterion = flags.criterion ?? 'D';
@@ -81,6 +82,7 @@ function planOptions(flags: PlanFlags): PlanOptions {
     discrimination: disc,
     ...(flags.subset ? { subset: flags.subset.split(',').map((s) => s.trim()).filter(Boolean) } : {}),
     ...(draws !== undefined ? { draws } : {}),
+    ...(posteriorDraws !== undefined ? { posteriorDraws } : {}),
     ...(seed !== undefined ? { seed } : {}),
     ...(level !== undefined ? { level } : {}),
   };
@@ -99,6 +101,7 @@ export function registerPlan(program: Command): void {
     .option('--discrimination <c>', "discrimination criterion: 'box-hill' or 'hunter-reiner'", 'box-hill')
     .option('--model <name>', "rate-law set to plan precision for: 'base' or a candidate name", 'base')
     .option('--draws <k>', 'average the criterion over k parameter draws from the covariance (0 = local design)', '0')
+    .option('--posterior-draws <k>', 'discrimination: simulated outcomes per rival behind the expected posterior probabilities', '400')
     .option('--seed <n>', 'seed of the draws and simulated outcomes', '1')
     .option('--level <p>', 'confidence level of the interval widths', '0.95')
     .option('--out <file>', 'CSV of the planned runs (default reports/<study>-plan.csv)')
@@ -112,6 +115,7 @@ export function registerPlan(program: Command): void {
         const { study } = readStudy(studyPath);
         const limits = parseLimits(readJson(flags.limits, 'limits file'), study, flags.limits);
         assertWritable([csvPath], { force: !!flags.force });
+        if (options.mode === 'discrimination') checkDistinctRivals(studyVariants(study));
         const variants = options.mode === 'discrimination' ? studyVariants(study).map((v) => v.name) : [flags.model ?? 'base'];
         const fits = variants.map((v) => fitStudy(study, { variant: v, profile: false }));
         const result = planRuns(study, limits, fits, options);

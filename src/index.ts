@@ -88,5 +88,5 @@ export { sizeReactor, prepareSizing, sizingInput, type SizingSetup } from './api
 export { readText, readJson } from './api/files.js';
 
 // Planning the next lab runs (precision or model discrimination).
-export { planRuns, PLAN_STATUS, parseLimits, LIMITS_SCHEMA, greedyExchange, criterionValue } from './planning/index.js';
+export { planRuns, PLAN_STATUS, checkDistinctRivals, parseLimits, LIMITS_SCHEMA, greedyExchange, criterionValue } from './planning/index.js';
 export type { PlanOptions, PlanResult, PlannedRun, LabLimits, CriterionKind, ExchangeProblem, ExchangeResult } from './planning/index.js';

@@ -38,6 +38,8 @@ export const OPTION_RANGES = {
   draws: { integer: true, min: 0, max: 10_000_000, what: 'Monte Carlo draws', example: '10000' },
   /** Parameter draws the run planner averages its criterion over (0 = local design). */
   planDraws: { integer: true, min: 0, max: 10_000, what: 'parameter draws of the plan criterion', example: '20' },
+  /** Simulated outcomes per rival rate-law set behind a discrimination plan's expected posterior probabilities. */
+  posteriorDraws: { integer: true, min: 1, max: 1_000_000, what: 'simulated outcomes per rival rate-law set', example: '400' },
   /** Runs to plan. */
   runs: { integer: true, min: 1, max: 1000, what: 'runs to plan', example: '8' },
   /** Worker threads (1 = serial). */

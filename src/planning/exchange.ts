@@ -68,21 +68,37 @@ function designValue(pr: ExchangeProblem, chosen: readonly number[], extra: numb
   return total / pr.priors.length;
 }
 
-function admissible(pr: ExchangeProblem, chosen: readonly number[], c: number, skip: number): boolean {
-  if (pr.minSpacing <= 0) return true;
+/** Whether candidate c keeps the spacing rule against `chosen` (without position `skip`). */
+export function spacedApart(points: readonly Float64Array[], minSpacing: number, chosen: readonly number[], c: number, skip: number): boolean {
+  if (minSpacing <= 0) return true;
   for (let k = 0; k < chosen.length; k++) {
-    if (k !== skip && distance(pr.points[chosen[k]], pr.points[c]) < pr.minSpacing) return false;
+    if (k !== skip && distance(points[chosen[k]], points[c]) < minSpacing) return false;
   }
   return true;
 }
 
+/**
+ * Any set criterion the greedy-plus-exchange search can maximise: `value(chosen, extra, skip)` is
+ * the criterion of `chosen` without position `skip` (-1: none) plus candidate `extra` (-1: none).
+ */
+export interface SearchProblem {
+  /** Number of candidates. */
+  count: number;
+  /** Runs to choose. */
+  n: number;
+  value(chosen: readonly number[], extra: number, skip: number): number;
+  admissible(chosen: readonly number[], c: number, skip: number): boolean;
+  /** Exchange passes at most; default 20. */
+  maxPasses?: number;
+}
+
 /** Best admissible candidate to add to `chosen` (without position `skip`); -1 when none. */
-function bestAddition(pr: ExchangeProblem, chosen: readonly number[], skip: number): { index: number; value: number } {
+function bestAddition(pr: SearchProblem, chosen: readonly number[], skip: number): { index: number; value: number } {
   let index = -1;
   let value = -Infinity;
-  for (let c = 0; c < pr.points.length; c++) {
-    if (!admissible(pr, chosen, c, skip)) continue;
-    const v = designValue(pr, chosen, c, skip);
+  for (let c = 0; c < pr.count; c++) {
+    if (!pr.admissible(chosen, c, skip)) continue;
+    const v = pr.value(chosen, c, skip);
     if (v > value || index < 0) {
       value = v;
       index = c;
@@ -92,7 +108,7 @@ function bestAddition(pr: ExchangeProblem, chosen: readonly number[], skip: numb
 }
 
 /** One exchange pass over every chosen position; returns the swaps made. */
-function exchangePass(pr: ExchangeProblem, chosen: number[], current: { value: number }): number {
+function exchangePass(pr: SearchProblem, chosen: number[], current: { value: number }): number {
   let swaps = 0;
   for (let k = 0; k < chosen.length; k++) {
     const best = bestAddition(pr, chosen, k);
@@ -129,13 +145,12 @@ function withRidge(pr: ExchangeProblem): ExchangeProblem {
 
 /**
  * Choose pr.n candidates: greedy additions, then exchange passes until none improves the design.
- * Fewer than n runs come back when the spacing rule leaves no admissible candidate.
+ * Fewer than n runs come back when the admissibility rule leaves no candidate.
  */
-export function greedyExchange(problem: ExchangeProblem): ExchangeResult {
-  const pr = withRidge(problem);
+export function exchangeSearch(pr: SearchProblem): ExchangeResult {
   const chosen: number[] = [];
   const gains: number[] = [];
-  const startValue = designValue(pr, [], -1, -1);
+  const startValue = pr.value([], -1, -1);
   let value = startValue;
   for (let step = 0; step < pr.n; step++) {
     const best = bestAddition(pr, chosen, -1);
@@ -155,4 +170,16 @@ export function greedyExchange(problem: ExchangeProblem): ExchangeResult {
     if (s === 0) break;
   }
   return { chosen, value: current.value, startValue, gains, passes, swaps };
+}
+
+/** Greedy construction and Fedorov exchange of an information-based design (see the file header). */
+export function greedyExchange(problem: ExchangeProblem): ExchangeResult {
+  const pr = withRidge(problem);
+  return exchangeSearch({
+    count: pr.points.length,
+    n: pr.n,
+    value: (chosen, extra, skip) => designValue(pr, chosen, extra, skip),
+    admissible: (chosen, c, skip) => spacedApart(pr.points, pr.minSpacing, chosen, c, skip),
+    ...(pr.maxPasses !== undefined ? { maxPasses: pr.maxPasses } : {}),
+  });
 }

@@ -40,21 +40,41 @@ export function plannedSigma(study: Study, errorModel: string, predicted: number
   return s !== undefined && s > 0 ? s : 1;
 }
 
+/** Predictions and free-parameter sensitivities of every observation of a study at a point. */
+export interface RunSensitivities {
+  /** Predictions of every observation (SI). */
+  predictions: Float64Array;
+  /** d prediction / d theta_free, row-major (observations x free parameters). */
+  J: Float64Array;
+  /** Number of free parameters (columns of J). */
+  p: number;
+  /** Run ids whose reactor could not be solved, with why. */
+  failures: { run: string; message: string }[];
+}
+
+/** Predictions and exact sensitivities (free parameters only) of every observation of `study` at `at`. */
+export function runSensitivities(study: Study, at: InformationPoint): RunSensitivities {
+  const model = new StudyModel(study, at.variant);
+  const n = model.nObservations;
+  const nAll = model.parameterNames.length;
+  const predictions = new Float64Array(n);
+  const Jall = new Float64Array(n * nAll);
+  const failures: { run: string; message: string }[] = [];
+  (model.jacobian as NonNullable<StudyModel['jacobian']>)(at.theta, predictions, Jall, failures);
+  const p = at.free.length;
+  const J = new Float64Array(n * p);
+  for (let o = 0; o < n; o++) for (let a = 0; a < p; a++) J[o * p + a] = Jall[o * nAll + at.free[a]];
+  return { predictions, J, p, failures };
+}
+
 /**
  * Information of each run of `study` at `at`. `sigmaOf(index, predicted)` gives the sigma of an
  * observation (default: the error model at the prediction).
  */
 export function runInformation(study: Study, at: InformationPoint, sigmaOf?: (index: number, predicted: number) => number): RunInformation {
-  const model = new StudyModel(study, at.variant);
-  const n = model.nObservations;
-  const nAll = model.parameterNames.length;
-  const pred = new Float64Array(n);
-  const J = new Float64Array(n * nAll);
-  const failures: { run: string; message: string }[] = [];
-  (model.jacobian as NonNullable<StudyModel['jacobian']>)(at.theta, pred, J, failures);
+  const { predictions: pred, J, p, failures } = runSensitivities(study, at);
   const failed = new Set(failures.map((f) => f.run));
-  const p = at.free.length;
-  const sigma = new Float64Array(n);
+  const sigma = new Float64Array(pred.length);
   const infos: (Float64Array | null)[] = study.runs.map((r) => (failed.has(r.id) ? null : new Float64Array(p * p)));
   for (const o of study.observations) {
     const s = sigmaOf ? sigmaOf(o.index, pred[o.index]) : plannedSigma(study, o.errorModel, pred[o.index]);
@@ -62,11 +82,11 @@ export function runInformation(study: Study, at: InformationPoint, sigmaOf?: (in
     const M = infos[o.runIndex];
     if (!M) continue;
     const w = at.scale / (s * s);
-    const row = o.index * nAll;
+    const row = o.index * p;
     for (let a = 0; a < p; a++) {
-      const ga = J[row + at.free[a]];
+      const ga = J[row + a];
       if (ga === 0) continue;
-      for (let b = 0; b < p; b++) M[a * p + b] += w * ga * J[row + at.free[b]];
+      for (let b = 0; b < p; b++) M[a * p + b] += w * ga * J[row + b];
     }
   }
   for (let r = 0; r < infos.length; r++) {

@@ -14,7 +14,9 @@ import type { CriterionKind } from './criteria.js';
 import { planContext, pointOfFit, type PlanContext } from './context.js';
 import { rowsCsv } from './layout.js';
 import type { LabLimits } from './limits.js';
-import { planPrecision, type PrecisionPlan } from './precision.js';
+import { planDiscrimination } from './discrimination.js';
+import { planPrecision, precisionAfter, type PrecisionPlan } from './precision.js';
+import { checkDistinctRivals, priorWeights } from './rivals.js';
 import { conditionsOf, factorSummary, oldRunPoints, plannedRows } from './rows.js';
 import type { DiscriminationCriterion, PlanMode, PlanResult, PlanStatus, PlannedRun } from './types.js';
 import { checkArgs, is } from '../core/args.js';
@@ -24,6 +26,7 @@ export const PLAN_STATUS: StatusTable<PlanStatus> = {
   'fewer-runs': { success: false, message: 'fewer runs than asked: the spacing rule or the limits leave no more admissible candidates' },
   'fit-not-trustworthy': { success: false, message: 'runs planned on a fit that cannot be trusted: treat the plan as a rough guide' },
   'no-candidates': { success: false, message: 'no candidate run inside the limits can be run (see the excluded candidates)' },
+  indistinguishable: { success: false, message: 'no run inside the limits is expected to tell the rivals apart: their predictions agree everywhere, or today\'s data already rule all but one out' },
 };
 
 export interface PlanOptions {
@@ -37,7 +40,9 @@ export interface PlanOptions {
   subset?: string[];
   /** Discrimination criterion: 'box-hill' (default) or 'hunter-reiner'. */
   discrimination?: DiscriminationCriterion;
-  /** Parameter draws from the fit's covariance to average the criterion over; default 0 (local design). */
+  /** Discrimination: simulated outcomes per rival behind the expected posterior probabilities; default 400. */
+  posteriorDraws?: number;
+  /** Precision: parameter draws from the fit's covariance to average the criterion over; default 0 (local design). */
   draws?: number;
   /** Seed of the draws and of the posterior simulation; default 1. */
   seed?: number;
@@ -50,6 +55,7 @@ export interface PlanOptions {
 function checkOptions(o: PlanOptions, fits: readonly StudyFit[]): void {
   checkOption('runs', o.runs, ['runs']);
   if (o.draws !== undefined) checkOption('planDraws', o.draws, ['draws']);
+  if (o.posteriorDraws !== undefined) checkOption('posteriorDraws', o.posteriorDraws, ['posteriorDraws']);
   if (o.seed !== undefined) checkOption('seed', o.seed, ['seed']);
   if (o.level !== undefined) checkOption('level', o.level, ['level']);
   if (!fits.length) throw new RateloomError('E_VALUE', 'planning needs a fit of the study', { path: ['fits'] });
@@ -83,8 +89,9 @@ function precisionReasons(pp: PrecisionPlan, kind: CriterionKind): string[] {
   });
 }
 
-function statusOf(ctx: PlanContext, chosen: number, n: number, fitOk: boolean): PlanStatus {
-  if (!ctx.usable.length) return 'no-candidates';
+function statusOf(ctx: PlanContext, chosen: number, n: number, fitOk: boolean, indistinguishable = false): PlanStatus {
+  if (!ctx.usable.length || (chosen === 0 && n > 0)) return 'no-candidates';
+  if (indistinguishable) return 'indistinguishable';
   if (!fitOk) return 'fit-not-trustworthy';
   return chosen < n ? 'fewer-runs' : 'planned';
 }
@@ -115,6 +122,38 @@ function precisionResult(study: Study, limits: LabLimits, sf: StudyFit, o: PlanO
   };
 }
 
+function discriminationResult(study: Study, limits: LabLimits, fits: readonly StudyFit[], o: PlanOptions, warnings: Warning[]): PlanResult {
+  checkDistinctRivals(fits.map((f) => pointOfFit(f).variant));
+  const notes: string[] = [];
+  const prior = priorWeights(fits, notes);
+  const leader = Math.max(0, prior.indexOf(Math.max(...prior)));
+  const sf = fits[leader];
+  const ctx = planContext(study, limits, pointOfFit(sf));
+  const kind = o.discrimination ?? 'box-hill';
+  const level = o.level ?? 0.95;
+  const dp = ctx.usable.length ? planDiscrimination(ctx, fits, prior, { n: o.runs, criterion: kind, posteriorDraws: o.posteriorDraws ?? 400, seed: o.seed ?? 1 }) : null;
+  for (const w of [...notes, ...(dp?.warnings ?? [])]) warnings.push({ code: 'discrimination', message: w });
+  const chosen = dp?.chosen ?? [];
+  const { runs, csv } = reportRuns(ctx, chosen, dp?.reasons ?? [], dp?.contributions ?? [], o.idPrefix ?? 'N');
+  const precision = chosen.length ? precisionAfter(ctx, sf, chosen, level) : [];
+  const status = statusOf(ctx, runs.length, o.runs, sf.fit.success, dp?.indistinguishable ?? false);
+  return {
+    ...outcome(PLAN_STATUS, status, warnings),
+    mode: 'discrimination',
+    criterion: kind,
+    model: sf.variant,
+    draws: 0,
+    runs,
+    csv,
+    precision,
+    level,
+    ...(dp ? { discrimination: dp.summary } : {}),
+    candidates: { count: ctx.candidates.runs.length, usable: ctx.usable.length, excluded: ctx.excluded },
+    oldRuns: oldRunPoints(study, ctx.src, limits),
+    factors: factorSummary(ctx.src, limits),
+  };
+}
+
 /** Plan the next runs of a study. `fits`: the fit to plan for (precision), or every rival's fit. */
 export function planRuns(study: Study, limits: LabLimits, fits: readonly StudyFit[], options: PlanOptions): PlanResult {
   checkArgs('planRuns', [study, limits, fits, options], [{ name: 'study', check: is.study }, { name: 'limits', check: is.object }, { name: 'fits', check: is.list(is.studyFit) }, { name: 'options', check: is.object }]);
@@ -124,7 +163,7 @@ export function planRuns(study: Study, limits: LabLimits, fits: readonly StudyFi
     if (!f.fit.success) warnings.push({ code: 'fit-not-trustworthy', message: `the fit of '${f.variant}' is not trustworthy (${f.fit.status}: ${f.fit.message}); the plan rests on it`, path: [f.variant] });
   }
   const mode = options.mode ?? 'precision';
-  if (mode === 'discrimination') throw new RateloomError('E_VALUE', 'discrimination mode is not available yet', { path: ['mode'] });
+  if (mode === 'discrimination') return discriminationResult(study, limits, fits, options, warnings);
   const sf = fits[0];
   const ctx = planContext(study, limits, pointOfFit(sf));
   return precisionResult(study, limits, sf, options, ctx, warnings);

@@ -144,6 +144,21 @@ export function precisionTable(sf: StudyFit, at: InformationPoint, now: Float64A
   });
 }
 
+/** Standard errors and interval widths of a fit now and after the chosen candidates (unscaled information at the estimate). */
+export function precisionAfter(ctx: PlanContext, sf: StudyFit, chosen: readonly number[], level: number): ParameterPrecision[] {
+  const at = pointOfFit(sf);
+  const p = at.free.length;
+  const now = studyInformation(ctx.study, at);
+  const cand = runInformation(ctx.candidateStudy, at).infos;
+  const after = Float64Array.from(now);
+  for (const c of chosen) {
+    const A = cand[c];
+    if (A) for (let i = 0; i < p * p; i++) after[i] += A[i];
+  }
+  const perRun = ctx.candidateStudy.observations.length / Math.max(1, ctx.candidateStudy.runs.length);
+  return precisionTable(sf, at, now, after, chosen.length * perRun, level);
+}
+
 /** Plan n runs for precision of a fitted rate-law set. */
 export function planPrecision(ctx: PlanContext, sf: StudyFit, o: PrecisionOptions): PrecisionPlan {
   const at = pointOfFit(sf);
@@ -158,12 +173,6 @@ export function planPrecision(ctx: PlanContext, sf: StudyFit, o: PrecisionOption
   const exchange = greedyExchange({ p, priors: info.priors, infos: info.infos, points: info.usable.map((c) => ctx.candidates.points[c]), n: o.n, minSpacing: ctx.limits.minSpacing, criterion: crit });
   const { contributions, informs } = explain(info.priors[0], info.infos[0], exchange.chosen, p, crit, freeNames);
   const chosen = exchange.chosen.map((k) => info.usable[k]);
-  // Unscaled information at the estimate for the precision table.
-  const now = studyInformation(ctx.study, at);
-  const cand = runInformation(ctx.candidateStudy, at).infos;
-  const after = Float64Array.from(now);
-  for (const c of chosen) for (let i = 0; i < p * p; i++) after[i] += (cand[c] as Float64Array)[i];
-  const perRun = ctx.candidateStudy.observations.length / Math.max(1, ctx.candidateStudy.runs.length);
-  const precision = precisionTable(sf, at, now, after, chosen.length * perRun, o.level);
+  const precision = precisionAfter(ctx, sf, chosen, o.level);
   return { chosen, exchange, contributions, informs, precision, freeNames, draws: d.points.length > 1 ? d.points.length : 0, warnings };
 }

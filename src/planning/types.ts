@@ -5,7 +5,7 @@
  */
 import type { Outcome } from '../core/outcome.js';
 
-export type PlanStatus = 'planned' | 'fewer-runs' | 'fit-not-trustworthy' | 'no-candidates';
+export type PlanStatus = 'planned' | 'fewer-runs' | 'fit-not-trustworthy' | 'no-candidates' | 'indistinguishable';
 
 export type PlanMode = 'precision' | 'discrimination';
 
