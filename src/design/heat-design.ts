@@ -21,6 +21,7 @@ import { resolveEnthalpies, type EnthalpySource } from './thermal-design.js';
 import { thermalDraws, type ThermalDraws } from './thermal-uncertainty.js';
 import { propagate, type Percentile, type UncertaintyResult } from './uncertainty.js';
 import type { WallCoefficient } from './wall-coefficient.js';
+import { thermalPelletBuilder, type ThermalPelletBuilder, type ThermalPelletInfo } from './heat-pellet.js';
 import { SIZING_STATUS, type SizingInput, type SizingResult } from './size.js';
 
 /** The energy-balance part of a sizing result. */
@@ -43,6 +44,8 @@ export interface ThermalSizing {
   bvp?: ShootingReport;
   runaway?: RunawayMargin;
   draws?: ThermalDraws;
+  /** The plant pellet under heat: eta per reaction along the designed tube at the local temperature. */
+  pellet?: ThermalPelletInfo & { profile: { z: number[]; conversion: number[]; T: number[]; eta: Record<string, number[]> }; solves: number };
 }
 
 /** A sizing result before the hand-off gate adds its verdict (size-gate.ts). */
@@ -50,14 +53,21 @@ type UngatedSizing = Omit<SizingResult, 'kinetics' | 'verdict'>;
 
 const MODEL = 'one-dimensional pseudo-homogeneous plug flow (no radial gradients), mole + energy + Ergun balances';
 
+/** The pellet factor builder of a case with a pellet (eta at the local temperature), else undefined. */
+function pelletBuilder(input: SizingInput, sys: DesignSystem, dH: Float64Array): ThermalPelletBuilder | undefined {
+  const k = input.kase;
+  return k.pellet ? thermalPelletBuilder(input.kinetics, k, k.pellet, input.handoff.species, input.molarMasses!, sys.theta, dH) : undefined;
+}
+
 /** Design at the case diameter or the widest searched diameter that meets every limit. */
 function chooseDesign(sys: DesignSystem, input: SizingInput, th: ThermalCase, dH: Float64Array, key: number, X: number): { hs: HeatSizer; choice: HeatDesignChoice; searched?: ThermalSizing['design']['searchedDiameters'] } {
-  const base = new HeatSizer(sys, input.kinetics, th, dH, input.molarMasses!);
+  const pellet = pelletBuilder(input, sys, dH);
+  const base = new HeatSizer(sys, input.kinetics, th, dH, input.molarMasses!, undefined, pellet);
   const choice = chooseTubes(base, key, X);
   if (choice.met || !th.searchDiameters) return { hs: base, choice };
   const searched: NonNullable<ThermalSizing['design']['searchedDiameters']> = [];
   for (const D of [...th.searchDiameters].sort((a, b) => b - a)) {
-    const hs = new HeatSizer(sys, input.kinetics, th, dH, input.molarMasses!, D);
+    const hs = new HeatSizer(sys, input.kinetics, th, dH, input.molarMasses!, D, pellet);
     const c = chooseTubes(hs, key, X);
     searched.push({ diameter: D, count: c.trial.N, hotSpot: c.trial.hotSpot, binding: c.binding, met: c.met });
     if (c.met) return { hs, choice: c, searched };
@@ -74,6 +84,33 @@ function profileOf(hs: HeatSizer, t: TubeTrial, key: number): ThermalSizing['pro
   return {
     z: p.x.map((x) => x / (rb * hs.area())), W: p.x, T: p.T, Ta: p.Ta,
     conversion: p.F.map((F) => hs.conversion(F, t.N, key)), p: p.p,
+  };
+}
+
+/** eta per reaction at 21 points of the designed tube, solved afresh at the local state (bulk T included). */
+function pelletAlongBed(hs: HeatSizer, t: TubeTrial, key: number): NonNullable<ThermalSizing['pellet']> {
+  const f = t.tube.pellet!;
+  const W = Array.from({ length: 21 }, (_, i) => (t.W * i) / 20);
+  const tt = new ThermalTube(t.tube.spec, hs.kinetics, hs.sys.theta);
+  const p = tt.solve(t.W, { profile: W }).profile!;
+  const L = tt.balances.layout;
+  const y = new Float64Array(L.n);
+  const C = new Float64Array(L.nS);
+  const ids = hs.kinetics.reactionIds;
+  const eta: Record<string, number[]> = Object.fromEntries(ids.map((id) => [id, [] as number[]]));
+  p.x.forEach((_, i) => {
+    y.set(p.F[i]);
+    if (L.p >= 0) y[L.p] = p.p[i];
+    if (L.T >= 0) y[L.T] = p.T[i];
+    tt.balances.concentrations(y, C);
+    const e = f.evaluator.evaluate(C, p.T[i]);
+    ids.forEach((id, r) => eta[id].push(e.factor[r]));
+  });
+  const rb = hs.sys.kase.tubes!.bulkDensity;
+  return {
+    ...hs.pellet!.info(t.tube.G),
+    profile: { z: p.x.map((x) => x / (rb * hs.area())), conversion: p.F.map((F) => hs.conversion(F, t.N, key)), T: p.T, eta },
+    solves: f.evaluator.solves,
   };
 }
 
@@ -97,6 +134,7 @@ function describeDesign(hs: HeatSizer, choice: HeatDesignChoice, th: ThermalCase
     coolant: { inlet: th.mode === 'adiabatic' ? null : th.coolant.temperature, atGasInlet: sol?.coolant.atInlet ?? null, atGasOutlet: sol?.coolant.atOutlet ?? null },
     profile: profileOf(hs, t, key),
     ...(sol?.bvp ? { bvp: sol.bvp } : {}),
+    ...(t.tube.pellet ? { pellet: pelletAlongBed(hs, t, key) } : {}),
   };
 }
 
@@ -134,6 +172,8 @@ export function sizeCooledBed(input: SizingInput, map: ParameterMap, sys: Design
   thermal.enthalpies = en.sources;
   if (th.mode !== 'adiabatic') thermal.runaway = runawayMargin(t.tube.spec, input.kinetics, sys.theta, t.W);
   t.tube.wall?.warnings.forEach((w) => warnings.push(w));
+  if (hs.pellet) warnings.push(...hs.pellet.warnings(t.tube.G));
+  if (t.tube.pellet && t.tube.pellet.failures > 0) warnings.push({ code: 'W_PELLET_SOLVE', message: `${t.tube.pellet.failures} pellet solves did not converge (${t.tube.pellet.lastFailure ?? ''}); their effectiveness factors were used as found`, path: ['pellet'] });
   const mc = drawsFor(input, map, sys, hs, t, key, X);
   if (mc.draws) {
     thermal.draws = mc.draws;

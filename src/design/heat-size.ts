@@ -21,6 +21,7 @@ import type { ThermalCase } from './heat-case.js';
 import type { DesignSystem } from './system.js';
 import { tubeThermalSpec, type TubeThermal } from './thermal-design.js';
 import { MAX_TUBES } from './tubes.js';
+import type { ThermalPelletBuilder } from './heat-pellet.js';
 
 export type Binding = 'hot spot' | 'pressure drop' | 'tube length' | 'target conversion';
 
@@ -50,6 +51,8 @@ export class HeatSizer {
     readonly molarMasses: ArrayLike<number>,
     /** Diameter override (heat.searchDiameters), m. */
     readonly diameter = sys.kase.tubes!.innerDiameter,
+    /** The plant pellet's factor for a tube of N with mass flux G (case with a pellet); none by default. */
+    readonly pellet?: ThermalPelletBuilder,
   ) {}
 
   /** Cross-section of one tube, m2. */
@@ -61,7 +64,14 @@ export class HeatSizer {
   tubeOf(N: number): TubeThermal {
     const kase = this.sys.kase;
     const sys = this.diameter === kase.tubes!.innerDiameter ? this.sys : { ...this.sys, kase: { ...kase, tubes: { ...kase.tubes!, innerDiameter: this.diameter } } };
-    return tubeThermalSpec(sys, this.kinetics, this.th, this.dH, this.molarMasses, N);
+    const tube = tubeThermalSpec(sys, this.kinetics, this.th, this.dH, this.molarMasses, N);
+    if (this.pellet) {
+      const f = this.pellet(N, tube.G);
+      tube.spec.rateFactor = f.factor;
+      tube.spec.beforeMarch = f.reset;
+      tube.pellet = f;
+    }
+    return tube;
   }
 
   /** Conversion of the key species in flows F of a tube of N. */

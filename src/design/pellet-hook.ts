@@ -13,7 +13,9 @@ import type { SpeciesSpec } from '../chemistry/spec.js';
 import { RateloomError } from '../core/errors.js';
 import { EffectivenessEvaluator, type PelletModel } from '../pellets/effectiveness.js';
 import { EtaTable } from '../pellets/eta-table.js';
-import { effectiveDiffusivities } from '../pellets/diffusivity.js';
+import { effectiveDiffusivities, molecularDiffusivities } from '../pellets/diffusivity.js';
+import { HEAT_TRANSFER, MASS_TRANSFER, heatTransfer, massTransfer, rangeWarning, type BedFlow } from '../pellets/external.js';
+import type { Warning } from '../core/outcome.js';
 import { pelletGeometry } from '../pellets/geometry.js';
 import type { PelletSpec } from '../pellets/types.js';
 import type { DesignCase } from './case.js';
@@ -22,7 +24,7 @@ import { buildSystem, type DesignSystem, type RateHook } from './system.js';
 import { Sizer } from './sizer.js';
 import { Marcher } from './march.js';
 import type { OdeEvent } from '../numerics/ode-types.js';
-import { STANDARD_ATMOSPHERE } from '../core/constants.js';
+import { GAS_CONSTANT, STANDARD_ATMOSPHERE } from '../core/constants.js';
 
 /** The pellet scaled to another diameter (all lengths in proportion). */
 export function scaledPellet(p: PelletSpec, diameter: number): PelletSpec {
@@ -71,6 +73,39 @@ export function casePelletModel(kinetics: CompiledKinetics, kase: DesignCase, cp
     model.thermal = { conductivity: pellet.thermalConductivity, enthalpy: Float64Array.from(kinetics.reactionIds, (id) => h[id] ?? 0) };
   }
   return model;
+}
+
+/** Fluid density at the inlet (ideal gas), kg/m3. */
+function inletDensity(kase: DesignCase, molarMasses: ArrayLike<number>): number {
+  let m = 0;
+  let F = 0;
+  kase.feed.forEach((f, j) => {
+    m += f * molarMasses[j];
+    F += f;
+  });
+  return (kase.pressure! * (m / F)) / (GAS_CONSTANT * kase.temperature);
+}
+
+/**
+ * The film of the plant pellet for superficial mass flux G (kg/(m2 s)) at the bed inlet state:
+ * k_c per species (Wakao-Funazkri) and, with the fluid's conductivity and heat capacity and the
+ * reaction enthalpies, h (Wakao-Kaguei-Funazkri); undefined when the molecular diffusivities, the
+ * viscosity, the molar masses or the pressure are missing. Warnings give a Reynolds number outside
+ * the correlations' ranges.
+ */
+export function pelletFilm(kase: DesignCase, cp: CasePellet, species: readonly SpeciesSpec[], molarMasses: ArrayLike<number>, G: number, enthalpy?: Float64Array): { film: NonNullable<PelletModel['film']>; reynolds: number; warnings: Warning[] } | undefined {
+  const mu = cp.fluid.viscosity ?? kase.tubes?.viscosity;
+  const Dm = molecularDiffusivities(cp.pellet, species, kase.temperature, kase.pressure ?? STANDARD_ATMOSPHERE, ['pellet']);
+  if (mu === undefined || !Dm || kase.pressure === undefined) return undefined;
+  const geo = pelletGeometry(cp.pellet);
+  const flow: BedFlow = { particleDiameter: geo.equivalentDiameter, massFlux: G, density: inletDensity(kase, molarMasses), viscosity: mu };
+  const mts = Array.from(Dm, (D) => massTransfer(flow, D));
+  const warnings = rangeWarning(MASS_TRANSFER, mts[0].Re, 'external mass transfer at the bed inlet');
+  const kc = Float64Array.from(mts, (m) => m.kc);
+  const { thermalConductivity: kf, heatCapacity: cpf } = cp.fluid;
+  if (kf === undefined || cpf === undefined || !enthalpy) return { film: { kc }, reynolds: mts[0].Re, warnings };
+  warnings.push(...rangeWarning(HEAT_TRANSFER, mts[0].Re, 'external heat transfer at the bed inlet'));
+  return { film: { kc, h: heatTransfer(flow, kf, cpf).h, enthalpy }, reynolds: mts[0].Re, warnings };
 }
 
 /** Key species of the eta table: the target species of a conversion target, else the first fed reactant. */

@@ -15,16 +15,14 @@ import type { Warning } from '../core/outcome.js';
 import { RateloomError } from '../core/errors.js';
 import { pelletGeometry } from '../pellets/geometry.js';
 import { EffectivenessEvaluator } from '../pellets/effectiveness.js';
-import { molecularDiffusivities } from '../pellets/diffusivity.js';
-import { HEAT_TRANSFER, MASS_TRANSFER, heatTransfer, massTransfer, rangeWarning, type BedFlow } from '../pellets/external.js';
+import { HEAT_TRANSFER, MASS_TRANSFER } from '../pellets/external.js';
 import type { DesignCase } from './case.js';
 import type { CasePellet } from './case-pellet.js';
 import { buildSystem, type DesignSystem } from './system.js';
 import { Sizer } from './sizer.js';
 import { Marcher } from './march.js';
 import { bundleAlpha } from './tubes.js';
-import { casePelletModel, keySpecies, PelletRateHook, scaledPellet } from './pellet-hook.js';
-import { GAS_CONSTANT, STANDARD_ATMOSPHERE } from '../core/constants.js';
+import { casePelletModel, keySpecies, pelletFilm, PelletRateHook, scaledPellet } from './pellet-hook.js';
 
 /** One row of the pellet trade-off. */
 export interface TradeOffRow {
@@ -100,46 +98,24 @@ function etaProfile(sys: DesignSystem, hook: PelletRateHook, size: number, kinet
   return { size: res.tOut, conversion, eta, keySpecies: kinetics.speciesNames[key] };
 }
 
-/** Fluid density at the inlet (ideal gas), kg/m3. */
-function inletDensity(kase: DesignCase, molarMasses: ArrayLike<number>): number {
-  let m = 0;
-  let F = 0;
-  kase.feed.forEach((f, j) => {
-    m += f * molarMasses[j];
-    F += f;
-  });
-  return (kase.pressure! * (m / F)) / (GAS_CONSTANT * kase.temperature);
-}
-
 /** Film coefficients and overall effectiveness at the bed inlet, when the data allow. */
 function filmAtInlet(input: PelletSizingInput, G: number, warnings: Warning[]): PelletSizing['film'] {
   const { kinetics, kase, pellet: cp, species, molarMasses, theta } = input;
-  const mu = cp.fluid.viscosity ?? kase.tubes?.viscosity;
-  const Dm = molecularDiffusivities(cp.pellet, species, kase.temperature, kase.pressure ?? STANDARD_ATMOSPHERE, ['pellet']);
-  if (mu === undefined || !Dm || !molarMasses || kase.pressure === undefined) return undefined;
-  const geo = pelletGeometry(cp.pellet);
-  const flow: BedFlow = { particleDiameter: geo.equivalentDiameter, massFlux: G, density: inletDensity(kase, molarMasses), viscosity: mu };
-  const mts = Array.from(Dm, (D) => massTransfer(flow, D));
-  warnings.push(...rangeWarning(MASS_TRANSFER, mts[0].Re, 'external mass transfer at the bed inlet'));
-  const kc = Float64Array.from(mts, (m) => m.kc);
+  const enthalpy = kase.heat ? Float64Array.from(kinetics.reactionIds, (id) => kase.heat!.reactionEnthalpy[id] ?? 0) : undefined;
+  const f = molarMasses ? pelletFilm(kase, cp, species, molarMasses, G, enthalpy) : undefined;
+  if (!f) return undefined;
+  warnings.push(...f.warnings);
   const model = casePelletModel(kinetics, kase, cp, species);
-  const { thermalConductivity: kf, heatCapacity: cpf } = cp.fluid;
-  let h: number | undefined;
-  if (kf !== undefined && cpf !== undefined && kase.heat) {
-    h = heatTransfer(flow, kf, cpf).h;
-    warnings.push(...rangeWarning(HEAT_TRANSFER, mts[0].Re, 'external heat transfer at the bed inlet'));
-    const enthalpy = Float64Array.from(kinetics.reactionIds, (id) => kase.heat!.reactionEnthalpy[id] ?? 0);
-    model.film = { kc, h, enthalpy };
-  } else model.film = { kc };
+  model.film = f.film;
   const ev = new EffectivenessEvaluator(model, Float64Array.from(theta));
   const C = new Float64Array(kinetics.speciesNames.length);
   input.sys.concentrations(input.sys.y0, C);
   const res = ev.evaluate(C, kase.temperature);
   return {
     massCorrelation: MASS_TRANSFER.name,
-    ...(h !== undefined ? { heatCorrelation: HEAT_TRANSFER.name, h } : {}),
-    reynolds: mts[0].Re,
-    kc: record(kinetics.speciesNames, kc),
+    ...(f.film.h !== undefined ? { heatCorrelation: HEAT_TRANSFER.name, h: f.film.h } : {}),
+    reynolds: f.reynolds,
+    kc: record(kinetics.speciesNames, f.film.kc),
     internal: record(kinetics.reactionIds, res.internal),
     overall: record(kinetics.reactionIds, res.factor),
   };

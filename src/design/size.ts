@@ -233,7 +233,7 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, UngatedResult,
     case: kase.name,
     reactor: { ...kase.reactor },
     target: kase.target,
-    cautions: kase.pellet ? [...cautions(handoff), ...PELLET_CAUTIONS] : cautions(handoff, kase.heat?.thermal !== undefined),
+    cautions: [...cautions(handoff, kase.heat?.thermal !== undefined), ...(kase.pellet ? PELLET_CAUTIONS : [])],
   };
   const fail = (status: SizingStatus, detail: string, extra: Partial<UngatedResult> = {}): UngatedResult => ({
     ...outcome(SIZING_STATUS, status, warnings, detail),
@@ -443,7 +443,6 @@ function thermalRoute(input: SizingInput): boolean | string {
   if (k.reactor.kind !== 'packed-bed' || !k.tubes || k.target.kind !== 'conversion') {
     return 'sizing under heat (heat.mode) needs a gas packed bed with "tubes" and a conversion target; remove heat.mode for an isothermal estimate';
   }
-  if (k.pellet) return 'sizing under heat (heat.mode) does not yet combine with a plant pellet; remove heat.mode or the pellet';
   if (!input.molarMasses) return 'the tube design needs the molar masses of all species (give molarMass or formula per species in the hand-off)';
   return true;
 }

@@ -23,6 +23,7 @@ import type { ThermalCase } from './heat-case.js';
 import type { DesignSystem } from './system.js';
 import { bundleAlpha } from './tubes.js';
 import { levaCooling, type WallCoefficient } from './wall-coefficient.js';
+import type { ThermalPelletFactor } from './heat-pellet.js';
 
 /** Where each reaction enthalpy came from. */
 export interface EnthalpySource {
@@ -93,6 +94,10 @@ export interface TubeThermal {
   U: number;
   uSource: string;
   wall?: WallCoefficient;
+  /** Superficial mass flux of the tube, kg/(m2 s). */
+  G: number;
+  /** The pellet factor attached to the spec (case with a pellet). */
+  pellet?: ThermalPelletFactor;
 }
 
 /** Build the spec of one tube of N (see the file header). */
@@ -122,5 +127,5 @@ export function tubeThermalSpec(
     coolantFlowCapacity: ((th.coolant.flow ?? NaN) * (th.coolant.heatCapacity ?? NaN)) / N,
   };
   checkThermalSpec(spec, k.species);
-  return { spec, U, uSource, ...(wall ? { wall } : {}) };
+  return { spec, U, uSource, G: ba.G, ...(wall ? { wall } : {}) };
 }

@@ -109,6 +109,7 @@ export class ThermalTube {
   march(size: number, taStart: number, options: ThermalSolveOptions = {}): ThermalTubeSolution {
     const b = this.balances;
     const L = b.layout;
+    this.spec.beforeMarch?.();
     b.inlet(this.y0, taStart);
     const sc = options.atolScale ?? 1e-10;
     for (let k = 0; k < L.n; k++) this.atol[k] = sc * b.scale[k];

@@ -29,9 +29,9 @@ import { GAS_CONSTANT } from '../../core/constants.js';
 
 /**
  * Per-reaction multiplicative factor on the intrinsic rate (effectiveness factor of a pellet
- * model): fill eta (length nR) for concentrations C (mol/m3) and temperature T (K).
+ * model): fill eta (length nR) for concentrations C (mol/m3) and temperature T (K) at state y.
  */
-export type RateFactor = (C: Float64Array, T: number, eta: Float64Array) => void;
+export type RateFactor = (C: Float64Array, T: number, eta: Float64Array, y: ArrayLike<number>) => void;
 
 /** A tube run in SI, ready for the balances (see thermal-inputs.ts for the checks). */
 export interface ThermalTubeSpec {
@@ -63,6 +63,8 @@ export interface ThermalTubeSpec {
   coolantFlowCapacity: number;
   /** Optional pellet effectiveness per reaction. */
   rateFactor?: RateFactor;
+  /** Called before each march from the inlet (a rate factor's per-march cache starts afresh). */
+  beforeMarch?: () => void;
 }
 
 export class TubeBalances {
@@ -144,7 +146,7 @@ export class TubeBalances {
     const T = this.temperature(y);
     this.concentrations(y, this.C);
     this.kinetics.rates(this.C, T, this.theta, this.r);
-    if (this.spec.rateFactor) this.spec.rateFactor(this.C, T, this.eta);
+    if (this.spec.rateFactor) this.spec.rateFactor(this.C, T, this.eta, y);
     const w = this.spec.weights;
     for (let i = 0; i < this.nR; i++) this.r[i] *= w[i] * this.eta[i];
   }
