@@ -3,7 +3,9 @@
  * pellets (invented tube bundle of tests/design/fixtures, plus a 3 mm spherical pellet). The pellet
  * is solved by collocation wherever the effectiveness-factor table along the bed needs a point
  * (design/pellet-hook.ts); for scale, one bed integration with the pellet solved at every
- * right-hand-side call (no table) is timed too.
+ * right-hand-side call (no table) is timed too. The two sizings are timed in interleaved rounds
+ * after a warm-up and the ratio is the median of the per-round ratios: timing each side in its own
+ * block let the (JIT-cold, load-sensitive) 1-2 ms baseline swing the ratio from 5x to 24x.
  * Run: npx tsx bench/pellet-sizing.ts
  */
 import { readFileSync } from 'node:fs';
@@ -27,15 +29,28 @@ const load = (raw: unknown) => loadCase(raw, dk.kinetics.speciesNames, dk.kineti
 const plain = load(rawCase);
 const withPellet = load({ ...rawCase, pellet });
 
-function median(f: () => void, n: number): number {
-  const t: number[] = [];
+const mid = (v: number[]): number => [...v].sort((a, b) => a - b)[Math.floor(v.length / 2)];
+
+/**
+ * Interleaved timing: after one warm-up of each, `n` rounds each time a then b back to back, so a
+ * load change on the machine hits both alike; the ratio is the median of the per-round ratios.
+ */
+function pairedMedian(a: () => void, b: () => void, n: number): { aMs: number; bMs: number; ratio: number; ratioRange: [number, number] } {
+  a();
+  b();
+  const ta: number[] = [];
+  const tb: number[] = [];
+  const ratios: number[] = [];
   for (let i = 0; i < n; i++) {
-    const t0 = performance.now();
-    f();
-    t.push(performance.now() - t0);
+    let t0 = performance.now();
+    a();
+    ta.push(performance.now() - t0);
+    t0 = performance.now();
+    b();
+    tb.push(performance.now() - t0);
+    ratios.push(tb[i] / ta[i]);
   }
-  t.sort((a, b) => a - b);
-  return t[Math.floor(n / 2)];
+  return { aMs: mid(ta), bMs: mid(tb), ratio: mid(ratios), ratioRange: [Math.min(...ratios), Math.max(...ratios)] };
 }
 
 export interface PelletBench {
@@ -43,6 +58,9 @@ export interface PelletBench {
   plainMs: number;
   pelletMs: number;
   ratio: number;
+  /** Smallest and largest per-round ratio. */
+  ratioRange: [number, number];
+  repeats: number;
   directMs: number;
   pelletSolves: number;
   sizeKg: number;
@@ -50,11 +68,11 @@ export interface PelletBench {
 }
 
 /** Nominal sizing (tube search, no Monte Carlo) with and without the pellet. */
-export function runPelletSizing(repeats = 5): PelletBench {
+export function runPelletSizing(repeats = 15): PelletBench {
   const size = (kase: typeof plain) => sizeReactor({ handoff: h, kinetics: dk.kinetics, kase, molarMasses: dk.molarMasses!, options: { draws: 0, profileDraws: 0 } });
-  const plainMs = median(() => size(plain), repeats);
   let res = size(withPellet);
-  const pelletMs = median(() => (res = size(withPellet)), repeats);
+  const timed = pairedMedian(() => size(plain), () => (res = size(withPellet)), repeats);
+  const { aMs: plainMs, bMs: pelletMs, ratio } = timed;
   // one bed integration at the designed tube count with the pellet solved at every call
   const model = casePelletModel(dk.kinetics, withPellet, withPellet.pellet!, h.species);
   const ev = new EffectivenessEvaluator(model, Float64Array.from(h.parameters, (p) => p.value));
@@ -65,14 +83,13 @@ export function runPelletSizing(repeats = 5): PelletBench {
   const d = new Sizer(sys).size();
   const directMs = performance.now() - t0;
   const p = res.pellet!;
-  const ratio = pelletMs / plainMs;
   return {
     lines: [
       `case: ${withPellet.name} + 3 mm sphere; ${res.tubes?.count} tubes; W ${res.size!.value.toFixed(2)} kg with the pellet, ${p.intrinsicSize!.toFixed(2)} kg intrinsic; eta ${p.profile.eta[dk.kinetics.reactionIds[0]][0].toFixed(3)} at the inlet`,
-      `nominal sizing without pellets: ${plainMs.toFixed(1)} ms; with the numerical pellet (table along the bed, eta report, intrinsic size, trade-off row): ${pelletMs.toFixed(1)} ms (${ratio.toFixed(1)}x, ${p.pelletSolves} pellet solves)`,
+      `nominal sizing without pellets: ${plainMs.toFixed(1)} ms; with the numerical pellet (table along the bed, eta report, intrinsic size, trade-off row): ${pelletMs.toFixed(1)} ms (median of ${repeats} interleaved rounds: ${ratio.toFixed(1)}x, rounds ${timed.ratioRange[0].toFixed(1)}-${timed.ratioRange[1].toFixed(1)}x; ${p.pelletSolves} pellet solves)`,
       `one bed integration with the pellet solved at every call (${ev.solves} solves): ${directMs.toFixed(0)} ms; size differs from the tabled one by ${(d.size / res.size!.value - 1).toExponential(2)}`,
     ],
-    plainMs, pelletMs, ratio, directMs, pelletSolves: p.pelletSolves, sizeKg: res.size!.value, intrinsicKg: p.intrinsicSize!,
+    plainMs, pelletMs, ratio, ratioRange: timed.ratioRange, repeats, directMs, pelletSolves: p.pelletSolves, sizeKg: res.size!.value, intrinsicKg: p.intrinsicSize!,
   };
 }
 

@@ -188,9 +188,9 @@ report.parallel = par.results;
 
 // ---------------------------------------------------------------- (h) pellets
 section('(h) plant sizing with a numerically solved pellet vs without pellets');
-const pel = runPelletSizing(quick ? 3 : 7);
+const pel = runPelletSizing(quick ? 5 : 15);
 for (const l of pel.lines) console.log(`  ${l}`);
-report.pelletSizing = { plainMs: pel.plainMs, pelletMs: pel.pelletMs, ratio: pel.ratio, pelletSolves: pel.pelletSolves, directMs: pel.directMs, sizeKg: pel.sizeKg, intrinsicKg: pel.intrinsicKg };
+report.pelletSizing = { plainMs: pel.plainMs, pelletMs: pel.pelletMs, ratio: pel.ratio, ratioRange: pel.ratioRange, repeats: pel.repeats, pelletSolves: pel.pelletSolves, directMs: pel.directMs, sizeKg: pel.sizeKg, intrinsicKg: pel.intrinsicKg };
 
 // ---------------------------------------------------------------- (i) energy balance
 section('(i) energy balance: one cooled tube solve vs isothermal, and Monte Carlo sizing with the energy balance');

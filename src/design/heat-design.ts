@@ -139,7 +139,7 @@ function describeDesign(hs: HeatSizer, choice: HeatDesignChoice, th: ThermalCase
 }
 
 /** Monte Carlo: size percentiles (propagate) and the installed tube rated over the draws. */
-function drawsFor(input: SizingInput, map: ParameterMap, sys: DesignSystem, hs: HeatSizer, t: TubeTrial, key: number, X: number): { unc: UncertaintyResult; draws?: ThermalDraws } {
+function drawsFor(input: SizingInput, map: ParameterMap, sys: DesignSystem, hs: HeatSizer, t: TubeTrial, key: number, X: number, runawayGuess: number | null): { unc: UncertaintyResult; draws?: ThermalDraws } {
   const opts = input.options ?? {};
   const kase = input.kase;
   const draws = opts.draws ?? kase.uncertainty.draws;
@@ -153,7 +153,7 @@ function drawsFor(input: SizingInput, map: ParameterMap, sys: DesignSystem, hs: 
   if (draws === 0) return { unc };
   const level = opts.designLevel ?? kase.uncertainty.designLevel ?? 0.95;
   const installed = Math.max(unc.percentiles.find((p) => Math.abs(p.level - level) < 1e-9)?.value ?? t.W * t.N, t.W * t.N) / t.N;
-  const td = thermalDraws(t.tube.spec, input.kinetics, map, sys.theta, installed, key, { draws, seed, levels: [...new Set([...levels, level])].sort() });
+  const td = thermalDraws(t.tube.spec, input.kinetics, map, sys.theta, installed, key, { draws, seed, levels: [...new Set([...levels, level])].sort(), runawayGuess });
   return { unc, draws: td };
 }
 
@@ -174,7 +174,7 @@ export function sizeCooledBed(input: SizingInput, map: ParameterMap, sys: Design
   t.tube.wall?.warnings.forEach((w) => warnings.push(w));
   if (hs.pellet) warnings.push(...hs.pellet.warnings(t.tube.G));
   if (t.tube.pellet && t.tube.pellet.failures > 0) warnings.push({ code: 'W_PELLET_SOLVE', message: `${t.tube.pellet.failures} pellet solves did not converge (${t.tube.pellet.lastFailure ?? ''}); their effectiveness factors were used as found`, path: ['pellet'] });
-  const mc = drawsFor(input, map, sys, hs, t, key, X);
+  const mc = drawsFor(input, map, sys, hs, t, key, X, thermal.runaway?.criticalCoolantTemperature ?? null);
   if (mc.draws) {
     thermal.draws = mc.draws;
     thermal.hotSpot.percentiles = mc.draws.hotSpot.percentiles;

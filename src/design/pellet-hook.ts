@@ -3,10 +3,9 @@
  * by the pellet's effectiveness factor at the local bulk state. The factor comes from the pellet
  * model of src/pellets (numerical collocation solve or Bischoff's generalized modulus) through an
  * EtaTable keyed by the conversion of the key species, so the pellet is solved about once per
- * `etaStep` of conversion, not at every right-hand-side call. The table is built with the nominal
- * parameters and kept for the Monte Carlo draws (eta as a function of the key conversion: the
- * spread of the size leaves out how eta itself moves with the parameters); it is rebuilt when the
- * pressure-drop parameter changes (another tube count).
+ * `etaStep` of conversion, not at every right-hand-side call. The table is a function of the
+ * kinetic parameters and the pressure-drop parameter: it is rebuilt when either changes (another
+ * tube count, another Monte Carlo draw), so every draw's eta comes from its own parameters.
  */
 import type { CompiledKinetics } from '../kinetics/compiled.js';
 import type { SpeciesSpec } from '../chemistry/spec.js';
@@ -128,11 +127,12 @@ function learnUpTo(kase: DesignCase): number {
 
 /**
  * The rate hook: rates times eta from the table. The table is filled by a learning pass, an
- * integration of the bed with the nominal parameters at the current pressure-drop parameter, in
- * which the pellet is solved wherever the table cannot interpolate within `etaStep`; afterwards
- * (the sizing itself, the Monte Carlo draws) eta is only interpolated, never solved. The table is
- * thus a function of the case, the nominal parameters and alpha alone, so serial and worker
- * Monte Carlo paths see the same numbers. A new alpha (another tube count) starts a new pass.
+ * integration of the bed with the current parameters (those of the bound system) at the current
+ * pressure-drop parameter, in which the pellet is solved wherever the table cannot interpolate
+ * within `etaStep`; afterwards the sizing with those parameters only interpolates. The table is
+ * thus a function of the case, the parameters and alpha alone, so serial and worker Monte Carlo
+ * paths see the same numbers. A new alpha (another tube count) or a new parameter vector (another
+ * draw) starts a new pass.
  */
 export class PelletRateHook implements RateHook {
   readonly table: EtaTable;
@@ -170,7 +170,17 @@ export class PelletRateHook implements RateHook {
     return this.inlet > 0 ? 1 - y[this.key] / this.inlet : 0;
   }
 
-  /** Fill the table for pressure-drop parameter alpha by integrating the nominal bed. */
+  /** True (and the copy updated) when the bound system's parameters differ from the table's. */
+  private thetaMoved(): boolean {
+    const live = this.sys?.theta;
+    if (!live) return false;
+    let moved = false;
+    for (let i = 0; i < live.length; i++) if (live[i] !== this.theta[i]) moved = true;
+    if (moved) this.theta.set(live);
+    return moved;
+  }
+
+  /** Fill the table for pressure-drop parameter alpha by integrating the bed with the table's parameters. */
   learn(alpha: number): void {
     this.table.clear();
     this.alpha = alpha;
@@ -207,7 +217,8 @@ export class PelletRateHook implements RateHook {
       }
     } else {
       const alpha = this.sys ? this.sys.alpha : 0;
-      if (alpha !== this.alpha) this.learn(alpha);
+      const moved = this.thetaMoved();
+      if (moved || alpha !== this.alpha) this.learn(alpha);
       if (this.direct) eta.set(this.evaluator.evaluate(C, T).factor);
       else if (!this.table.interpolate(x, eta)) eta.fill(1);
     }

@@ -37,8 +37,14 @@ export interface RunawayOptions {
   /** Scan from Ta - below to Ta + above, K; defaults 40 and 60. */
   below?: number;
   above?: number;
+  /** Scan from this coolant temperature instead (K; with `to`); default Ta - below. */
+  from?: number;
+  /** Scan up to this coolant temperature (K; with `from`); default Ta + above. */
+  to?: number;
   /** Grid step, K; default 1. */
   step?: number;
+  /** Compute the design-point sensitivities to Ta and T0 (six more solves); default true. */
+  sensitivities?: boolean;
 }
 
 /** Hot spot (K) of `spec` at size W with coolant temperature Ta and inlet T0 (cap on runaway). */
@@ -53,8 +59,9 @@ export function hotSpotAt(spec: ThermalTubeSpec, kinetics: CompiledKinetics, the
 export function runawayMargin(spec: ThermalTubeSpec, kinetics: CompiledKinetics, theta: Float64Array, W: number, options: RunawayOptions = {}): RunawayMargin {
   const Ta0 = spec.coolantTemperature;
   const step = options.step ?? 1;
-  const lo = Ta0 - (options.below ?? 40);
-  const n = Math.round(((options.above ?? 60) + (options.below ?? 40)) / step);
+  const lo = options.from ?? Ta0 - (options.below ?? 40);
+  const hi = options.to ?? Ta0 + (options.above ?? 60);
+  const n = Math.round((hi - lo) / step);
   const coolant = Array.from({ length: n + 1 }, (_, i) => lo + i * step);
   const hot = coolant.map((Ta) => hotSpotAt(spec, kinetics, theta, W, Ta));
   const sens: (number | null)[] = coolant.map((Ta, i) => {
@@ -72,9 +79,10 @@ export function runawayMargin(spec: ThermalTubeSpec, kinetics: CompiledKinetics,
     crit = coolant[best] + (den < 0 ? (0.5 * step * (a - c)) / den : 0);
   }
   const d = 0.5;
-  const sCoolant = (Ta0 / hotSpotAt(spec, kinetics, theta, W, Ta0)) * ((hotSpotAt(spec, kinetics, theta, W, Ta0 + d) - hotSpotAt(spec, kinetics, theta, W, Ta0 - d)) / (2 * d));
+  const sens0 = options.sensitivities === false ? NaN : 0;
+  const sCoolant = Number.isNaN(sens0) ? NaN : (Ta0 / hotSpotAt(spec, kinetics, theta, W, Ta0)) * ((hotSpotAt(spec, kinetics, theta, W, Ta0 + d) - hotSpotAt(spec, kinetics, theta, W, Ta0 - d)) / (2 * d));
   const T0 = spec.T0;
-  const sInlet = (T0 / hotSpotAt(spec, kinetics, theta, W, Ta0)) * ((hotSpotAt(spec, kinetics, theta, W, Ta0, T0 + d) - hotSpotAt(spec, kinetics, theta, W, Ta0, T0 - d)) / (2 * d));
+  const sInlet = Number.isNaN(sens0) ? NaN : (T0 / hotSpotAt(spec, kinetics, theta, W, Ta0)) * ((hotSpotAt(spec, kinetics, theta, W, Ta0, T0 + d) - hotSpotAt(spec, kinetics, theta, W, Ta0, T0 - d)) / (2 * d));
   return {
     criterion: 'generalized parametric sensitivity (Morbidelli and Varma, Chem. Eng. Sci. 43 (1988) 91): runaway where S = (Ta/T_hs) dT_hs/dTa is largest',
     coolantTemperature: Ta0,
@@ -84,4 +92,25 @@ export function runawayMargin(spec: ThermalTubeSpec, kinetics: CompiledKinetics,
     sensitivityInlet: sInlet,
     scan: { coolant, hotSpot: hot, sensitivity: sens },
   };
+}
+
+/**
+ * The critical coolant temperature near a guess (K), for Monte Carlo draws: the scan of
+ * runawayMargin on guess +- halfWidth only; when the largest sensitivity lies at the window's edge
+ * the window moves that way (up to three times). Null when no interior maximum is found.
+ */
+export function criticalNear(spec: ThermalTubeSpec, kinetics: CompiledKinetics, theta: Float64Array, W: number, guess: number, halfWidth = 8, step = 2): number | null {
+  let centre = guess;
+  for (let k = 0; k < 4; k++) {
+    const m = runawayMargin(spec, kinetics, theta, W, { from: centre - halfWidth, to: centre + halfWidth, step, sensitivities: false });
+    if (m.criticalCoolantTemperature !== null) return m.criticalCoolantTemperature;
+    const s = m.scan.sensitivity;
+    let best = -1;
+    s.forEach((v, i) => {
+      if (v !== null && (best < 0 || v > (s[best] as number))) best = i;
+    });
+    if (best < 0) return null;
+    centre += (best < s.length / 2 ? -1 : 1) * 1.5 * halfWidth;
+  }
+  return null;
 }

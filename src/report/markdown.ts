@@ -208,7 +208,12 @@ function thermalMarkdown(t: ThermalReportData): string[] {
   if (t.outletTemperature) rows.push(['Outlet temperature', withPercentiles(t.outletTemperature.value, 'K', t.outletTemperature.percentiles)]);
   if (t.runaway) rows.push(['Design / critical coolant temperature', `${q(t.runaway.design, 'K', 5)} / ${q(t.runaway.critical, 'K', 5)}`]);
   const m = t.runawayMargin;
-  if (m) rows.push([`Runaway margin${m.of ? ` (percentiles over ${m.draws} of ${m.of} draws)` : ''}`, withPercentiles(m.value, 'K', m.percentiles)]);
+  if (m) {
+    const iv = m.interval ? `; 95 % interval of P${formatNumber(Math.min(...(m.percentiles ?? []).map((p) => p.level)) * 100, 3)}: ${q(m.interval[0], 'K', 4)} to ${q(m.interval[1], 'K', 4)}` : '';
+    rows.push([`Runaway margin${m.of ? ` (percentiles over ${m.draws} of the ${m.of} draws, a random subset)` : ''}`, `${withPercentiles(m.value, 'K', m.percentiles)}${iv}`]);
+  }
+  for (const r of t.pellet?.rows ?? []) rows.push([`Pellet effectiveness of ${md(r.reaction)}, inlet / outlet (local temperature)`, `${q(r.inlet, '1', 4)} / ${q(r.outlet, '1', 4)}`]);
+  if (t.pellet) rows.push(['Pellet film', t.pellet.film ? md(t.pellet.film) : 'not applied (internal effectiveness only)']);
   return [
     '## Energy balance',
     t.runaway ? `Runaway criterion: ${md(t.runaway.criterion)}.` : 'No coolant: no runaway margin.',

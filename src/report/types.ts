@@ -384,7 +384,15 @@ export interface ThermalReportData {
   /** Outlet temperature (K) with percentiles over the draws. */
   outletTemperature?: { value: number; percentiles?: { level: number; value: number }[] };
   /** Runaway margin: critical minus design coolant temperature (K), with percentiles over the draws it was computed for. */
-  runawayMargin?: { value: number | null; percentiles?: { level: number; value: number }[]; draws?: number; of?: number };
+  runawayMargin?: {
+    value: number | null; percentiles?: { level: number; value: number }[];
+    /** Draws with a margin, of all draws (a random subset: the draws are independent). */
+    draws?: number; of?: number;
+    /** Distribution-free 95 % interval of the lowest percentile, K: the error the subset adds. */
+    interval?: [number, number] | null;
+  };
+  /** The plant pellet under heat: eta per reaction at the tube inlet and outlet (local temperature), and the film used. */
+  pellet?: { rows: { reaction: string; inlet: number; outlet: number }[]; film: string | null };
 }
 
 /** The plant pellet in a sizing report (lengths in mm, masses in kg, pressures in kPa). */

@@ -87,6 +87,14 @@ export function sizingReportData(r: SizingResult): SizingReportData {
   };
 }
 
+/** The order-statistic 95 % interval of the lowest percentile of a draw summary, [lower, upper], or null. */
+function lowestInterval(d: { percentiles: { level: number }[]; intervals: ({ lower: number; upper: number } | null)[] }): [number, number] | null {
+  let i = 0;
+  d.percentiles.forEach((p, k) => (p.level < d.percentiles[i].level ? (i = k) : 0));
+  const iv = d.intervals[i];
+  return iv ? [iv.lower, iv.upper] : null;
+}
+
 /** The energy-balance part of the report, or null for an isothermal sizing. */
 function thermalData(r: SizingResult): SizingReportData['thermal'] {
   const t = r.thermal;
@@ -99,11 +107,15 @@ function thermalData(r: SizingResult): SizingReportData['thermal'] {
     profile: { z: t.profile.z, T: t.profile.T, Ta: t.profile.Ta },
     ...(t.draws ? { hotSpotPercentiles: t.draws.hotSpot.percentiles, hotSpotHistogram: t.draws.hotSpot.histogram } : {}),
     ...(t.runaway ? { runaway: { criterion: t.runaway.criterion, coolant: t.runaway.scan.coolant, hotSpot: t.runaway.scan.hotSpot, critical: t.runaway.criticalCoolantTemperature, design: t.runaway.coolantTemperature } } : {}),
+    ...(t.pellet ? { pellet: {
+      rows: Object.entries(t.pellet.profile.eta).map(([reaction, e]) => ({ reaction, inlet: e[0], outlet: e[e.length - 1] })),
+      film: t.pellet.film ? `${t.pellet.film.massCorrelation}${t.pellet.film.heatCorrelation ? `; ${t.pellet.film.heatCorrelation}` : ''} (${t.pellet.film.basis})` : null,
+    } } : {}),
     design: {
       count: t.design.count, diameter: t.design.innerDiameter, length: t.design.length, maxLength: t.design.maxTubeLength,
       pressureDrop: t.design.pressureDrop.pa, allowedPressureDrop: t.design.allowedPressureDrop, U: t.heatTransfer.U, uSource: t.heatTransfer.source,
     },
     outletTemperature: { value: t.outletTemperature.value, ...(t.outletTemperature.percentiles ? { percentiles: t.outletTemperature.percentiles } : {}) },
-    ...(t.runaway ? { runawayMargin: { value: t.runaway.margin, ...(t.draws ? { percentiles: t.draws.runawayMargin.percentiles, draws: t.draws.runawayMargin.succeeded, of: t.draws.runawayMargin.draws } : {}) } } : {}),
+    ...(t.runaway ? { runawayMargin: { value: t.runaway.margin, ...(t.draws ? { percentiles: t.draws.runawayMargin.percentiles, draws: t.draws.runawayMargin.succeeded, of: t.draws.hotSpot.draws, interval: lowestInterval(t.draws.runawayMargin) } : {}) } } : {}),
   };
 }

@@ -16,6 +16,8 @@ import { ThermalTube } from '../../src/reactors/thermal/thermal-tube';
 import { etaSphereFirstOrder } from '../../src/pellets/analytic';
 import { GAS_CONSTANT } from '../../src/core/constants';
 import { handoff, param, seal } from './handoff-fixture';
+import { sizingReportData } from '../../src/workflow/sizing-report-data';
+import { renderSizingReport } from '../../src/report';
 
 // A -> B per kg catalyst, first order with Arrhenius: k(T) = k0 exp(-E/R (1/T - 1/Tref)).
 const k0 = 2e-3;
@@ -50,6 +52,11 @@ describe('adiabatic bed with a spherical pellet', () => {
     expect(r.cautions.join(' ')).toMatch(/pseudo-homogeneous/);
     expect(r.cautions.join(' ')).toMatch(/pilot/);
     expect(p.film).toBeNull(); // no molecular diffusivity or fluid data: internal effectiveness only
+  });
+  it('the Markdown report lists eta at the inlet and outlet of the tube', async () => {
+    const mdText = (await renderSizingReport(sizingReportData(r))).markdown;
+    expect(mdText).toContain(`Pellet effectiveness of r1, inlet / outlet (local temperature) | ${p.profile.eta.r1[0].toPrecision(4)}`);
+    expect(mdText).toContain('Pellet film | not applied');
   });
   it('T along the bed satisfies the adiabatic relation T = T0 + (-dH) X y_A0 / cp_mix (textbook relation; dCp = 0)', () => {
     // y_A0 = 0.1, cp_mix = 0.1*40 + 0.9*30 = 31 J/(mol K): rise 8000 X / 31 K

@@ -10,6 +10,7 @@ import { kineticsFromHandoff } from '../../src/design/kinetics';
 import { buildSystem, type RateHook } from '../../src/design/system';
 import { Sizer } from '../../src/design/sizer';
 import { casePelletModel } from '../../src/design/pellet-hook';
+import { systemWithPellet } from '../../src/design/pellet-sizing';
 import { bundleAlpha } from '../../src/design/tubes';
 import { sizingReportData } from '../../src/workflow/sizing-report-data';
 import { renderSizingReport } from '../../src/report';
@@ -76,6 +77,21 @@ describe('tube bundle with a plant pellet', () => {
     const d = new Sizer(sys).size();
     // eta tabled every 0.05 of conversion, read by quadratic interpolation: measured 2e-6 here
     expect(Math.abs(d.size / r.size!.value - 1)).toBeLessThan(1e-4);
+  });
+
+  it('a Monte Carlo parameter vector gets its own eta (the table is re-learned, not the nominal one)', () => {
+    const { sys, hook } = systemWithPellet(dk.kinetics, kase, [1e-4, 80000], kase.pellet!, h.species);
+    sys.alpha = bundleAlpha(sys, dk.molarMasses!, r.tubes!.count).alpha;
+    const sizer = new Sizer(sys);
+    sizer.size(); // learns eta at the nominal parameters
+    const etaNominal = hook.table.entries()[0].values[0];
+    sys.theta.set([2e-4, 80000]); // a draw with k doubled: larger Thiele modulus, smaller eta
+    const drawn = sizer.size();
+    const fresh = systemWithPellet(dk.kinetics, kase, [2e-4, 80000], kase.pellet!, h.species);
+    fresh.sys.alpha = sys.alpha;
+    const ref = new Sizer(fresh.sys).size();
+    expect(Math.abs(drawn.size / ref.size - 1)).toBeLessThan(1e-9);
+    expect(hook.table.entries()[0].values[0]).toBeLessThan(etaNominal - 0.01);
   });
 
   it('trade-off: bigger pellets, lower pressure drop and eta, more catalyst', () => {

@@ -7,6 +7,7 @@ import { solveReactor } from '../../src/reactors';
 import { cpIntegral, type HeatCapacity } from '../../src/reactors/thermal/heat-capacity';
 import { ThermalTube } from '../../src/reactors/thermal/thermal-tube';
 import { specOf, type RefCase } from '../reactors/thermal/fixture';
+import { compile } from '../reactors/compiled';
 
 const BASE: RefCase = {
   T0: 600, P0: 2e5, feed: [0.01, 0, 0.09], Tref: 600, k_ref: 1.2e-3, E: 1e5, dH_ref: -8e4, T_refH: 600,
@@ -92,5 +93,43 @@ describe('stiff integrator with the difference Jacobian', () => {
     // Source: two integrators of the same equations (RODAS4 uses the Jacobian, Dormand-Prince does not)
     expect(Math.abs(a.outletTemperature - b.outletTemperature) / a.outletTemperature).toBeLessThan(1e-7);
     expect(Math.abs(a.hotSpot.temperature - b.hotSpot.temperature) / a.hotSpot.temperature).toBeLessThan(1e-7);
+  });
+});
+
+describe('plug flow in volume (the same balances, coordinate V)', () => {
+  // A -> B per m3 of reactor, r = k C_A with Arrhenius; the tube spec of the packed-bed case with kind
+  // 'plug-flow': the same layout and terms, only the coordinate changes.
+  const kin = compile(
+    [{ name: 'A', formula: 'C4H10' }, { name: 'B', formula: 'C4H10' }, { name: 'I', formula: 'N2', inert: true }],
+    [{ equation: 'A -> B', rate: { form: 'power-law', basis: 'volume', rateConstant: { k: 'k', activationEnergy: 'E' } } }],
+    ['k', 'E'], 600,
+  );
+  const theta = Float64Array.of(0.8, 1e5); // 1/s at 600 K
+  const V = 0.05;
+  it('isothermal: equals the isothermal plug-flow model of src/reactors', () => {
+    const { spec } = specOf({ ...BASE, mode: 'isothermal' }, { kind: 'plug-flow' });
+    const v = V / 10; // conversion about 0.8
+    const sol = new ThermalTube(spec, kin, theta).solve(v, { rtol: 1e-11, atolScale: 1e-14 });
+    const iso = solveReactor({ kind: 'plug-flow', phase: 'gas' }, { id: 'r', temperature: BASE.T0, pressure: BASE.P0, feed: Float64Array.from(BASE.feed), size: v }, kin, theta, { rtol: 1e-11, atol: 1e-14 });
+    // Source: plug flow, first order, no mole change: F_A = F_A0 exp(-k C_T0 V / F_T0) (closed form, common practice)
+    const CT0 = BASE.P0 / (8.314462618 * BASE.T0);
+    const FA = BASE.feed[0] * Math.exp((-0.8 * CT0 * v) / 0.1);
+    expect(Math.abs(sol.outlet[0] - FA) / FA).toBeLessThan(1e-8);
+    expect(Math.abs(sol.outlet[0] - iso.outletAmounts[0]) / FA).toBeLessThan(1e-8);
+  });
+  it('adiabatic: T = T0 + (-dH) X / (sum Theta_i Cp_i + X dCp) along the tube', () => {
+    const { spec } = specOf(BASE, { kind: 'plug-flow' });
+    const xs = Array.from({ length: 11 }, (_, i) => (V * i) / 10);
+    const sol = new ThermalTube(spec, kin, theta).solve(V, { profile: xs, rtol: 1e-11, atolScale: 1e-14 });
+    const sumThetaCp = (BASE.feed[0] * 40 + BASE.feed[2] * 30) / BASE.feed[0];
+    let maxX = 0;
+    sol.profile!.x.forEach((_, i) => {
+      const X = 1 - sol.profile!.F[i][0] / BASE.feed[0];
+      maxX = Math.max(maxX, X);
+      // Source: adiabatic energy balance, textbook relation (common practice)
+      const T = BASE.T0 + (-BASE.dH_ref * X) / (sumThetaCp + X * 10);
+      expect(Math.abs(sol.profile!.T[i] - T) / T).toBeLessThan(1e-9);
+    });
+    expect(maxX).toBeGreaterThan(0.3);
   });
 });

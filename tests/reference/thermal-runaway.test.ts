@@ -6,7 +6,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { hotSpotAt, runawayMargin } from '../../src/design/runaway';
+import { criticalNear, hotSpotAt, runawayMargin } from '../../src/design/runaway';
 import { specOf, type RefCase } from '../reactors/thermal/fixture';
 
 const ref = JSON.parse(readFileSync(new URL('./scipy/runaway_scan.json', import.meta.url), 'utf8')) as {
@@ -32,5 +32,13 @@ describe('runaway margin', () => {
     expect(Math.abs(m.criticalCoolantTemperature! - ref.critical_coolant_temperature)).toBeLessThan(0.5);
     expect(m.margin).toBeCloseTo(m.criticalCoolantTemperature! - Ta, 12);
     expect(m.sensitivityCoolant).toBeGreaterThan(0);
+  });
+
+  it('the local scan used for Monte Carlo draws finds it too, from a guess off by 8 K or by 20 K', () => {
+    // Source: the same SciPy scan; a 2 K grid with a parabola: agreement within 1 K is what can be justified
+    for (const off of [-8, 8, 20]) {
+      const c = criticalNear(spec, kin, theta, ref.case.W, ref.critical_coolant_temperature + off);
+      expect(Math.abs(c! - ref.critical_coolant_temperature), `guess off by ${off} K`).toBeLessThan(1);
+    }
   });
 });
