@@ -12,7 +12,8 @@ const fixtures = join(import.meta.dirname, '../tests/data/fixtures');
 const study = JSON.parse(readFileSync(join(fixtures, 'study.json'), 'utf8'));
 study.data = [study.data[0]];
 
-function makeCsv(n: number): string {
+/** An N-row per-run CSV of invented data (replicates every 50th run, a bad cell every 997th row). */
+export function makeCsv(n: number): string {
   const lines = ['# generated benchmark data', 'run,charge,T_C,P_barg,W_g,FA0,FH2_0,FN2_0,FA,FH2,FB'];
   let seed = 12345;
   const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);

@@ -12,6 +12,7 @@
  *   (h) plant sizing with a numerically solved pellet vs without pellets (bench/pellet-sizing.ts)
  *   (j) whole processes (bench/process-bench.ts): `rateloom --version` and `rateloom check` start-up
  *       against `node -e 0`, and `rateloom fit` against bench/scipy_fit.py on the same 50-run data
+ *   (k) a 1,000,000-row CSV loaded, checked and grouped, in a child process (bench/csv-million.ts)
  *   plus the existing single benchmarks (pbr-solve, csv-load).
  * Wall times are medians; CPU time of this process is printed beside them because a shared machine
  * can inflate wall time. Run: npm run bench [-- --quick]
@@ -24,6 +25,7 @@ import { fitStudy } from '../src/workflow/fit-study';
 import { StudyModel } from '../src/workflow/study-model';
 import { solveReactor } from '../src/reactors';
 import { runCsvLoad } from './csv-load';
+import { runCsvMillion } from './csv-million';
 import { runMcSizing } from './mc-sizing';
 import { cases, runPbrSolve } from './pbr-solve';
 import { studyAsJson, syntheticStudy } from './synthetic-study';
@@ -219,6 +221,17 @@ const csvRes = runCsvLoad(10_000);
 for (const l of csvRes.lines) console.log(`  ${l}`);
 report.csvLoad = { rows: csvRes.rows, medianMs: csvRes.medianMs };
 
+// ---------------------------------------------------------------- (k) a million-row CSV
+const millionRows = quick ? 100_000 : 1_000_000;
+section(`(k) ${millionRows.toLocaleString('en')}-row CSV loaded, checked and grouped (child process, bench/csv-million.ts)`);
+const million = runCsvMillion(millionRows);
+const mr = million.result;
+if (mr) {
+  console.log(`  ${mr.rows} rows (${mr.megabytes.toFixed(0)} MB): load ${fmt(mr.loadMs)} wall (${fmt(mr.loadCpuMs)} cpu); baseline (split + Number of every cell) ${fmt(mr.baselineMs)}; ratio ${(mr.loadMs / mr.baselineMs).toFixed(1)}x`);
+  console.log(`  peak memory ${mr.maxRssMiB.toFixed(0)} MiB (${((mr.maxRssMiB * 1024) / mr.rows).toFixed(2)} KiB per row); used ${mr.rowsUsed}, rejected ${mr.rowsRejected}, replicate groups ${mr.replicateGroups}`);
+} else console.log(`  failed: ${million.error}`);
+report.csvMillion = million;
+
 // ---------------------------------------------------------------- targets
 section('targets');
 target('time linear in runs', linear, `time per solve at ${lastRow.runs} / ${first.runs} runs = ${perSolveRatio.toFixed(2)} (slope ${slope.toFixed(2)})`);
@@ -232,6 +245,8 @@ const startRatio = (t: typeof startup.check) => t.wallMs / startup.floor.wallMs;
 target('rateloom --version at most 2x node -e 0 (whole process, wall)', startRatio(startup.version) <= 2, `${startRatio(startup.version).toFixed(2)}x (${fmt(startup.version.wallMs)} vs ${fmt(startup.floor.wallMs)})`);
 target('rateloom check <demo> at most 2x node -e 0 (whole process, wall)', startRatio(startup.check) <= 2, `${startRatio(startup.check).toFixed(2)}x (${fmt(startup.check.wallMs)} vs ${fmt(startup.floor.wallMs)})`);
 target('rateloom fit (no report) >= 10x faster than the SciPy script, whole processes, estimates agree to 4 digits', !!processFit && processFit.ratio >= 10 && processFit.maxRel < 5e-5, processFit ? `${processFit.ratio.toFixed(1)}x, max rel. diff ${processFit.maxRel.toExponential(2)}` : 'SciPy not available; not measured');
+target(`${millionRows.toLocaleString('en')}-row CSV loaded, checked and grouped in < 30 s (robustness issue)`, !!mr && mr.loadMs < 30_000, mr ? `${fmt(mr.loadMs)} wall, ${fmt(mr.loadCpuMs)} cpu, ${(mr.loadMs / mr.baselineMs).toFixed(1)}x the split-and-Number baseline` : String(million.error));
+target('million-row CSV load: peak memory at most 2 KiB per row', !!mr && (mr.maxRssMiB * 1024) / mr.rows <= 2, mr ? `${mr.maxRssMiB.toFixed(0)} MiB peak for ${mr.rows} rows` : String(million.error));
 report.targets = targets;
 writeFileSync(`${outDir}bench.json`, JSON.stringify(report, null, 2));
 console.log(`\nwrote ${outDir}bench.json`);

@@ -124,6 +124,7 @@ export function writeAtomic(path: string, content: string | Uint8Array, opts: Wr
 export function checkStem(stem: string, flag = '--name'): string {
   if (stem === '' || /[/\\\u0000-\u001f]/.test(stem) || stem.startsWith('.') || stem.length > 120) {
     throw new RateloomError('E_USAGE', `${flag} '${stem.slice(0, 60)}' is not a plain file name`, {
+      path: [flag],
       fix: `Give ${flag} a name without folders (no '/', '\\' or leading '.'), at most 120 characters; put the folder in --out.`,
     });
   }

@@ -33,11 +33,34 @@ export interface CsvTable {
 
 type ParsedRecord = { record: string[]; info: { lines: number } };
 
-/** csv-parse reports the line where a record ends; step back over newlines inside quoted cells. */
+/** Line breaks inside a cell: CRLF, a lone CR or a lone LF each count once. */
+function breaksIn(cell: string): number {
+  let n = 0;
+  for (let k = 0; k < cell.length; k++) {
+    const c = cell.charCodeAt(k);
+    if (c === 10 || (c === 13 && cell.charCodeAt(k + 1) !== 10)) n++;
+  }
+  return n;
+}
+
+/** csv-parse reports the line where a record ends; step back over line breaks inside quoted cells. */
 function startLine(r: ParsedRecord): number {
   let inner = 0;
-  for (const c of r.record) for (let k = c.indexOf('\n'); k >= 0; k = c.indexOf('\n', k + 1)) inner++;
+  for (const c of r.record) inner += breaksIn(c);
   return r.info.lines - inner;
+}
+
+/**
+ * csv-parse counts a CRLF inside a quoted cell as two lines (CR and LF apart); take one off per
+ * such CRLF, for its own record and every record after it, so that line numbers match the file.
+ */
+function fixQuotedCrlf(records: ParsedRecord[]): ParsedRecord[] {
+  let extra = 0;
+  for (const r of records) {
+    for (const c of r.record) for (let k = c.indexOf('\r\n'); k >= 0; k = c.indexOf('\r\n', k + 2)) extra++;
+    if (extra) r.info = { ...r.info, lines: r.info.lines - extra };
+  }
+  return records;
 }
 
 /** True when no cell can be quoted and every line ends with '\n' (and no lone surrogate). */
@@ -103,7 +126,7 @@ function tooLong(file: string, line: number): RateloomError {
 /** Records through csv-parse (RFC 4180 quoting), with its errors as E_CSV naming the line. */
 function parseQuoted(text: string, file: string, delimiter: CsvDelimiter): ParsedRecord[] {
   try {
-    return parse(text, {
+    return fixQuotedCrlf(parse(text, {
       bom: true,
       delimiter,
       comment: '#',
@@ -114,7 +137,7 @@ function parseQuoted(text: string, file: string, delimiter: CsvDelimiter): Parse
       relax_column_count: true,
       max_record_size: MAX_RECORD_CHARS,
       info: true,
-    }) as unknown as ParsedRecord[];
+    }) as unknown as ParsedRecord[]);
   } catch (e) {
     const err = e as Error & { lines?: number; code?: string };
     if (err.code === 'CSV_MAX_RECORD_SIZE') throw tooLong(file, err.lines ?? 0);
@@ -128,7 +151,6 @@ function parseQuoted(text: string, file: string, delimiter: CsvDelimiter): Parse
 /** Parse CSV text. `file` is only used in messages. */
 export function readCsv(text: string, file: string): CsvTable {
   checkArgs('readCsv', [text, file], [{ name: 'text', check: is.text }, { name: 'file', check: is.text }]);
-  if (typeof text !== 'string') throw new RateloomError('E_TYPE', `CSV text of '${file}' must be a string, got ${text === null ? 'null' : typeof text}`, { location: { file } });
   const nul = text.indexOf('\u0000');
   if (nul >= 0) {
     throw new RateloomError('E_CSV', `the file contains a NUL character (line ${text.slice(0, nul).split('\n').length}): it is binary, not CSV text`, {
