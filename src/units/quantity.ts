@@ -108,11 +108,14 @@ function makeConversion(quantity: Quantity, unit: string, si: string, factor: nu
   };
 }
 
+/** A unit as shown in a message: cut after 40 characters. */
+const shownUnit = (unit: string): string => (unit.length > 40 ? `${unit.slice(0, 40)}...` : unit);
+
 function unitError(quantity: Quantity, unit: string, why: string, opts: UnitOptions): RateloomError {
   const def = QUANTITIES[quantity];
   const closest = unit.length > 40 ? undefined : closestName(unit, def.common);
   const hint = closest ? ` (closest: '${closest}')` : '';
-  const shown = unit.length > 40 ? `${unit.slice(0, 40)}...` : unit;
+  const shown = shownUnit(unit);
   return new RateloomError('E_UNIT', `unit '${shown}' is not a ${quantity} unit: ${why}${hint}`, {
     path: opts.path ?? [],
     ...(opts.location ? { location: opts.location } : {}),
@@ -229,7 +232,7 @@ export function compoundToSI(value: number, unit: string, opts: Pick<UnitOptions
     p = parseCompoundUnit(unit);
   } catch (e) {
     if (!(e instanceof UnitSyntaxError)) throw e;
-    throw new RateloomError('E_UNIT', `unit '${unit}' cannot be read: ${e.message}`, {
+    throw new RateloomError('E_UNIT', `unit '${shownUnit(unit)}' cannot be read: ${e.message}`, {
       path: opts.path ?? [],
       ...(opts.location ? { location: opts.location } : {}),
       fix: "Write the unit with symbols, '/', spaces for products and ^ for powers, for example 'mol/(kg s bar^2)' or 'kJ/mol'.",

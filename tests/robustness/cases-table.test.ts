@@ -27,7 +27,7 @@
  * | 20 | --name ../../x                                               | output-faults, documents-fuzz |
  * | 21 | partial outputs under final names after a kill               | output-kill                   |
  * Generated inputs per class: CSV bytes (csv-bytes-fuzz), study JSON and case files and output
- * paths (documents-fuzz, study-fuzz), unit strings (input-guards, study-fuzz), numeric options
+ * paths (documents-fuzz, study-fuzz), unit strings (unit-strings-fuzz, input-guards), numeric options
  * (cli-numeric-options), API arguments (api-arguments), hand-off numbers (handoff-numbers).
  * RFC 4180 quoting: tests/data/csv-rfc4180.test.ts.
  */
