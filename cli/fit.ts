@@ -8,7 +8,8 @@
 import { formatTransport } from './transport-text.js';
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study } from '../src/index.js';
+import { DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study, crossCheckStudyFit } from '../src/index.js';
+import { formatCrossCheck } from './cross-check-text.js';
 import { renderFitFiles } from './report-render.js';
 import { assertWritable, checkStem, writeAll } from './io.js';
 import type { OutputFile } from './output.js';
@@ -43,6 +44,7 @@ export interface FitFlags {
   force?: boolean;
   json?: boolean;
   workers?: WorkersSetting;
+  crossCheck?: boolean;
 }
 
 /** The --workers option line of a command's help. */
@@ -137,6 +139,7 @@ export function registerFit(program: Command): void {
     .option('--force', 'overwrite existing output files')
     .option('--json', 'print one JSON document (the fit result) on stdout')
     .option(...WORKERS_OPTION)
+    .option('--cross-check', 're-solve the optimum with ml-levenberg-marquardt and re-integrate every run with odex; print the agreement (docs/cross-check.md)')
     .addHelpText('after', EXAMPLE)
     .action(async (studyPath: string, flags: FitFlags) => {
       await runCommand(!!flags.json, async () => {
@@ -149,6 +152,7 @@ export function registerFit(program: Command): void {
         const progress = progressReporter(!!flags.json, 'multistart');
         const profileProgress = progressReporter(!!flags.json, 'profile intervals');
         const sf = await fitStudyParallel(study, { variant: flags.model ?? 'base', profile: flags.profile !== false, ...(starts !== undefined ? { starts } : {}), ...(maxIterations !== undefined ? { maxIterations } : {}), seed, level, workers, ...(progress ? { progress } : {}), ...(profileProgress ? { profileProgress } : {}) });
+        const crossCheck = flags.crossCheck ? crossCheckStudyFit(study, sf) : undefined;
         const handoff = buildHandoff(study, sf);
         // Everything is rendered first, then written together: a kill or a failure leaves no partial set.
         const files: OutputFile[] = [{ path: planned[0], content: toJson(handoff) + '\n' }];
@@ -174,10 +178,11 @@ export function registerFit(program: Command): void {
             ...(sf.transport ? { transport: sf.transport } : {}),
             ...(sf.steadyStates ? { steadyStates: sf.steadyStates } : {}),
             ...(sf.roundOff ? { roundOff: sf.roundOff } : {}),
+            ...(crossCheck ? { crossCheck } : {}),
             data: { rowsIn: report.rowsIn, rowsUsed: report.rowsUsed, rowsRejected: report.rowsRejected },
             outputs: { handoff: handoffPath, ...(reportPaths ?? {}) },
           },
-          text: formatFit(study, sf) + (sf.transport ? `\n\n${formatTransport(sf.transport)}` : ''),
+          text: formatFit(study, sf) + (sf.transport ? `\n\n${formatTransport(sf.transport)}` : '') + (crossCheck ? `\n\n${formatCrossCheck(crossCheck)}` : ''),
         };
       });
     });

@@ -63,6 +63,8 @@ export { estimateStartValues } from './workflow/start-values.js';
 export { derivedQuantities, type DerivedQuantity } from './workflow/derived.js';
 export { driftCheck, type DriftCheck, type ReferenceSeries } from './workflow/drift.js';
 export { fitReportData } from './workflow/fit-report-data.js';
+export { crossCheckStudyFit, crossCheckIntegration, CROSS_CHECK_TOLERANCES, type StudyCrossCheck, type IntegrationCrossCheck } from './workflow/cross-check-study.js';
+export { crossCheckOptimum, sharedDigits, weightedSsr, type OptimumCrossCheck, type EstimateAgreement } from './estimation/cross-check.js';
 export { sizingReportData } from './workflow/sizing-report-data.js';
 
 // Design.

@@ -93,8 +93,8 @@ export interface ReactorOptions {
   atol?: number;
   /** Step budget; default 100000. */
   maxSteps?: number;
-  /** Force an integrator; default 'auto'. */
-  method?: 'auto' | 'nonstiff' | 'stiff';
+  /** Force an integrator; default 'auto'. 'odex' (extrapolation, no sensitivities) serves as a cross-check. */
+  method?: 'auto' | 'nonstiff' | 'stiff' | 'odex';
   /**
    * Stirred tank: look for further steady states after Newton converged ('always'), or only when
    * Newton from the feed failed ('on-failure', which a fit uses for speed); default 'always'.

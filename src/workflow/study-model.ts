@@ -30,6 +30,8 @@ export interface StudyModelOptions {
   atol?: number;
   /** Provide the exact Jacobian from sensitivities; default true (false: estimation differences). */
   exactJacobian?: boolean;
+  /** ODE integrator of every reactor solve; default 'auto'. 'odex' is the fit cross-check's (no sensitivities: use with exactJacobian false). */
+  odeMethod?: 'auto' | 'nonstiff' | 'stiff' | 'odex';
 }
 
 /** One solve of one run: the size (full, or a profile position) and the observations it feeds. */
@@ -144,7 +146,7 @@ export class StudyModel implements RegressionModel {
     this.scratchA = new Float64Array(this.activity.indices.length);
     // With an activity model every solve scales its own copy of the run's size.
     if (this.activity.active) for (const t of this.tasks) t.run = { ...t.run };
-    this.reactorOptions = { rtol: options.rtol ?? 1e-8, atol: options.atol ?? 1e-12 };
+    this.reactorOptions = { rtol: options.rtol ?? 1e-8, atol: options.atol ?? 1e-12, ...(options.odeMethod ? { method: options.odeMethod } : {}) };
     // During a fit a stirred tank searches for other steady states only when Newton from the feed
     // fails; solveRun (reports, simulation) keeps the full search and its warning.
     this.plainOptions = { ...this.reactorOptions, steadyStateSearch: 'on-failure' };

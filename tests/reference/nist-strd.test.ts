@@ -8,27 +8,10 @@ import { makeParameter } from '../../src/core/parameter';
 import { fitModel } from '../../src/estimation/fit';
 import { multistartFit } from '../../src/estimation/multistart';
 import type { FitResult, SolverName } from '../../src/estimation/fit-types';
-import type { RegressionModel } from '../../src/estimation/model';
 import { readNist, type NistDataset } from './nist-strd-data';
+import { NIST_MODELS, nistModel } from './nist-strd-models';
 
-type Fn = (b: Float64Array, x: number) => number;
-const MODELS: Record<string, Fn> = {
-  Misra1a: (b, x) => b[0] * (1 - Math.exp(-b[1] * x)),
-  Chwirut2: (b, x) => Math.exp(-b[0] * x) / (b[1] + b[2] * x),
-  DanWood: (b, x) => b[0] * x ** b[1],
-  BoxBOD: (b, x) => b[0] * (1 - Math.exp(-b[1] * x)),
-};
-
-function nistModel(d: NistDataset, f: Fn): RegressionModel {
-  return {
-    nObservations: d.x.length,
-    parameterNames: d.certified.map((_, i) => `b${i + 1}`),
-    predict(theta, out) {
-      for (let i = 0; i < d.x.length; i++) out[i] = f(theta, d.x[i]);
-      return true;
-    },
-  };
-}
+const MODELS = NIST_MODELS;
 
 function fitNist(d: NistDataset, start: number[], solver: SolverName) {
   const params = start.map((v, i) => makeParameter({ name: `b${i + 1}`, value: v }));
