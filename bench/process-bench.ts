@@ -10,6 +10,7 @@
  *              both as whole processes (interpreter start, imports, reading the data, the fit).
  */
 import { spawnSync } from 'node:child_process';
+import { median } from 'simple-statistics';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -39,7 +40,6 @@ export function scipyPython(): string | undefined {
   return undefined;
 }
 
-const median = (v: number[]) => [...v].sort((a, b) => a - b)[Math.floor(v.length / 2)];
 
 /** Run one command once: wall ms, CPU ms of the child (or null), stdout. Throws when it fails. */
 function runOnce(e: Entry, cpuFile: string): { wallMs: number; cpuMs: number | null; stdout: string } {

@@ -18,6 +18,7 @@
  * can inflate wall time. Run: npm run bench [-- --quick]
  */
 import { spawnSync } from 'node:child_process';
+import { median } from 'simple-statistics';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { fileURLToPath } from 'node:url';
@@ -47,7 +48,6 @@ const target = (name: string, pass: boolean, detail: string) => {
   console.log(`  ${pass ? 'PASS' : 'FAIL'}  ${name}: ${detail}`);
 };
 const section = (title: string) => console.log(`\n== ${title}`);
-const median = (v: number[]) => [...v].sort((a, b) => a - b)[Math.floor(v.length / 2)];
 /** Wall and CPU milliseconds of f. */
 function timed<T>(f: () => T): { value: T; wallMs: number; cpuMs: number } {
   const c0 = process.cpuUsage();

@@ -6,6 +6,7 @@
  * (the pure-error sum of squares of the lack-of-fit test; common practice in regression analysis).
  * A Ledger counts rows per source so that rowsIn = rowsUsed + rowsRejected always holds.
  */
+import { sumNthPowerDeviations } from 'simple-statistics';
 import { RateloomError } from '../core/errors.js';
 import type { MappedObservation, MappedRun, RowLocation } from './mapping.js';
 import { describeRules, type CheckSettings, type PureError, type Rejection, type ReplicateGroup, type SourceSummary, type ValidationReport } from './report.js';
@@ -424,8 +425,8 @@ export function pureErrors(observations: readonly MappedObservation[], groups: r
   const pooled = new Map<string, PureError>();
   for (const c of cellList) {
     if (!c.values) continue;
-    const mean = c.values.reduce((a, b) => a + b, 0) / c.values.length;
-    const ss = c.values.reduce((a, y) => a + (y - mean) ** 2, 0);
+    // sum of squared deviations from the replicate mean (simple-statistics; compensated mean)
+    const ss = sumNthPowerDeviations(c.values, 2);
     const p = pooled.get(c.key) ?? { response: c.o.response, ...(c.o.species !== undefined ? { species: c.o.species } : {}), unit: c.o.unit, sumSquares: 0, dof: 0, sigma: 0 };
     p.sumSquares += ss;
     p.dof += c.values.length - 1;

@@ -12,6 +12,7 @@
  * species, P5/median/P95 per position) and at the band size itself (outlet state per species,
  * P5/P95), all with the same type-7 percentiles.
  */
+import { mean as ssMean, quantileSorted as ssQuantileSorted } from 'simple-statistics';
 import { SeededRandom, cholesky, correlatedDraw, normalQuantile } from './random.js';
 import { applyInternal, type ParameterMap } from './handoff-load.js';
 import type { Sizer, SizeOnce } from './sizer.js';
@@ -102,14 +103,12 @@ export function histogramSorted(sorted: ArrayLike<number>, bins = 40): { start: 
   return out;
 }
 
-/** Linear-interpolation percentile of sorted data (type 7). */
+/**
+ * Linear-interpolation percentile of sorted data (type 7, numpy.percentile's default), by
+ * simple-statistics' quantileSorted; NaN for no data (simple-statistics throws there).
+ */
 export function quantileSorted(sorted: ArrayLike<number>, p: number): number {
-  const n = sorted.length;
-  if (n === 0) return NaN;
-  const h = (n - 1) * p;
-  const lo = Math.floor(h);
-  const hi = Math.min(lo + 1, n - 1);
-  return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
+  return sorted.length === 0 ? NaN : ssQuantileSorted(sorted as unknown as readonly number[], p);
 }
 
 /**
@@ -163,9 +162,8 @@ export function propagate(
     if (!pre && opts.onProgress && ((d + 1) % 100 === 0 || d + 1 === draws)) opts.onProgress(d + 1, draws);
   }
   const ok = values.subarray(0, nOk).sort();
-  let mean = 0;
-  for (let i = 0; i < nOk; i++) mean += ok[i];
-  mean = nOk ? mean / nOk : NaN;
+  // simple-statistics' mean sums with Kahan-Babuska compensation (exact to the last bits over 10,000 draws).
+  const mean = nOk ? ssMean(ok as unknown as readonly number[]) : NaN;
 
   // Delta method.
   const g = new Float64Array(n);
