@@ -87,7 +87,7 @@ export { AUTO_RULE_TEXT, type WorkersSetting } from './parallel/auto.js';
 // Entry points taking file paths (the only part of the library that reads files).
 export { loadStudy, fitStudy, simulate, compare, type StudySource, type SimulateStudyOptions } from './api/study.js';
 export { sizeReactor, prepareSizing, sizingInput, type SizingSetup } from './api/size.js';
-export { readText, readJson } from './api/files.js';
+export { readText, readJson, maxInputBytes } from './api/files.js';
 
 // Planning the next lab runs (precision or model discrimination).
 export { planRuns, PLAN_STATUS, checkDistinctRivals, parseLimits, LIMITS_SCHEMA, greedyExchange, criterionValue } from './planning/index.js';
