@@ -13,6 +13,7 @@
  *   (j) whole processes (bench/process-bench.ts): `rateloom --version` and `rateloom check` start-up
  *       against `node -e 0`, and `rateloom fit` against bench/scipy_fit.py on the same 50-run data
  *   (k) a 1,000,000-row CSV loaded, checked and grouped, in a child process (bench/csv-million.ts)
+ *   (l) planning 8 lab runs for the demo packed bed against one fit of the same study (bench/planning-bench.ts)
  *   plus the existing single benchmarks (pbr-solve, csv-load).
  * Wall times are medians; CPU time of this process is printed beside them because a shared machine
  * can inflate wall time. Run: npm run bench [-- --quick]
@@ -35,6 +36,7 @@ import { runPelletSizing } from './pellet-sizing';
 import { runHeatSizing } from './heat-sizing';
 import { checkJacobian } from '../src/estimation/jacobian-check';
 import { processFitBench, scipyPython, startupBench } from './process-bench';
+import { runPlanningBench } from './planning-bench';
 
 const quick = process.argv.includes('--quick');
 const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
@@ -213,6 +215,12 @@ if (processFit) {
   console.log('  no python3 with scipy: the fit pair is skipped');
 }
 
+// ---------------------------------------------------------------- (l) run planning
+section('(l) planning 8 lab runs for the demo packed bed against one fit of the same study');
+const planBench = runPlanningBench(quick ? 1 : 3);
+for (const l of planBench.lines) console.log(`  ${l}`);
+report.planning = { fitMs: planBench.fitMs, planMs: planBench.planMs, drawsMs: planBench.drawsMs, discriminationMs: planBench.discriminationMs, ratio: planBench.ratio };
+
 // ---------------------------------------------------------------- existing single benchmarks
 section('pbr-solve');
 for (const l of runPbrSolve(quick ? 50 : 200).lines) console.log(`  ${l}`);
@@ -247,6 +255,10 @@ target('rateloom check <demo> at most 2x node -e 0 (whole process, wall)', start
 target('rateloom fit (no report) >= 10x faster than the SciPy script, whole processes, estimates agree to 4 digits', !!processFit && processFit.ratio >= 10 && processFit.maxRel < 5e-5, processFit ? `${processFit.ratio.toFixed(1)}x, max rel. diff ${processFit.maxRel.toExponential(2)}` : 'SciPy not available; not measured');
 target(`${millionRows.toLocaleString('en')}-row CSV loaded, checked and grouped in < 30 s (robustness issue)`, !!mr && mr.loadMs < 30_000, mr ? `${fmt(mr.loadMs)} wall, ${fmt(mr.loadCpuMs)} cpu, ${(mr.loadMs / mr.baselineMs).toFixed(1)}x the split-and-Number baseline` : String(million.error));
 target('million-row CSV load: peak memory at most 2 KiB per row', !!mr && (mr.maxRssMiB * 1024) / mr.rows <= 2, mr ? `${mr.maxRssMiB.toFixed(0)} MiB peak for ${mr.rows} rows` : String(million.error));
+// The issue's 10 s on 2 cores, as a ratio: one fit of the demo takes 0.4-2 s here, so 5 fits is the budget.
+target('planning 8 runs for the demo packed bed (D-optimal, 625 candidates) within 5x one fit of the same study', planBench.ratio <= 5, `${planBench.ratio.toFixed(2)}x (${fmt(planBench.planMs)} vs ${fmt(planBench.fitMs)})`);
+const discRatio = planBench.discriminationMs / planBench.fitMs;
+target('Box-Hill plan of the demo\'s 3 rate-law sets within 15x one fit of the same study', discRatio <= 15, `${discRatio.toFixed(2)}x (${fmt(planBench.discriminationMs)} vs ${fmt(planBench.fitMs)})`);
 report.targets = targets;
 writeFileSync(`${outDir}bench.json`, JSON.stringify(report, null, 2));
 console.log(`\nwrote ${outDir}bench.json`);

@@ -7,9 +7,9 @@
  * trustworthy, fewer runs than asked, no runnable candidate), 2 bad input.
  */
 import type { Command } from 'commander';
-import { join } from 'node:path';
-import { RateloomError, checkDistinctRivals, fitStudy, studyVariants, parseLimits, planRuns, type PlanOptions, type PlanResult, type CriterionKind } from '../src/index.js';
-import { assertWritable, readJson, writeAtomic } from './io.js';
+import { basename, dirname, join } from 'node:path';
+import { RateloomError, VERSION, checkDistinctRivals, renderPlanReport, fitStudy, studyVariants, parseLimits, planRuns, type PlanOptions, type PlanResult, type CriterionKind } from '../src/index.js';
+import { assertWritable, readJson, writeAll } from './io.js';
 import { runCommand } from './run.js';
 import { readStudy, studyStem } from './study-input.js';
 import { g, table, withUnit } from './format.js';
@@ -42,6 +42,7 @@ interface PlanFlags {
   level?: number;
   out?: string;
   force?: boolean;
+  report?: boolean;
   json?: boolean;
 }
 
@@ -105,22 +106,31 @@ export function registerPlan(program: Command): void {
     .option('--seed <n>', 'seed of the draws and simulated outcomes', '1')
     .option('--level <p>', 'confidence level of the interval widths', '0.95')
     .option('--out <file>', 'CSV of the planned runs (default reports/<study>-plan.csv)')
+    .option('--no-report', 'skip the HTML and Markdown report (<out without .csv>.html and .md, with the charts of old and planned runs)')
     .option('--force', 'overwrite an existing output file')
     .option('--json', 'print one JSON document (the plan) on stdout')
     .addHelpText('after', EXAMPLE)
     .action(async (studyPath: string, flags: PlanFlags) => {
-      await runCommand(!!flags.json, () => {
+      await runCommand(!!flags.json, async () => {
         const options = planOptions(flags);
         const csvPath = flags.out ?? join('reports', `${studyStem(studyPath)}-plan.csv`);
+        const reportBase = join(dirname(csvPath), basename(csvPath).replace(/\.csv$/i, ''));
+        const paths = [csvPath, ...(flags.report !== false ? [`${reportBase}.html`, `${reportBase}.md`] : [])];
         const { study } = readStudy(studyPath);
         const limits = parseLimits(readJson(flags.limits, 'limits file'), study, flags.limits);
-        assertWritable([csvPath], { force: !!flags.force });
+        assertWritable(paths, { force: !!flags.force });
         if (options.mode === 'discrimination') checkDistinctRivals(studyVariants(study));
         const variants = options.mode === 'discrimination' ? studyVariants(study).map((v) => v.name) : [flags.model ?? 'base'];
         const fits = variants.map((v) => fitStudy(study, { variant: v, profile: false }));
         const result = planRuns(study, limits, fits, options);
-        const written = writeAtomic(csvPath, result.csv, { force: !!flags.force });
-        return { json: { ...result, outputs: { csv: written } }, text: formatPlan(result, written), trustworthy: result.success };
+        const files = [{ path: csvPath, content: result.csv }];
+        if (flags.report !== false) {
+          const rendered = await renderPlanReport(result, { studyName: study.title ?? studyStem(studyPath), generatedBy: `rateloom ${VERSION}`, csvPath });
+          files.push({ path: paths[1], content: rendered.html }, { path: paths[2], content: rendered.markdown });
+        }
+        const written = writeAll(files, { force: !!flags.force });
+        const outputs = { csv: written[0], ...(written.length > 1 ? { html: written[1], markdown: written[2] } : {}) };
+        return { json: { ...result, outputs }, text: formatPlan(result, written[0]), trustworthy: result.success };
       });
     });
 }

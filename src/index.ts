@@ -76,7 +76,8 @@ export type { SizingResult, SizingOptions, SizingInput } from './design/size.js'
 export type { PelletSizing } from './design/pellet-sizing.js';
 
 // Reports.
-export { renderFitReport, renderSizingReport } from './report/lazy.js';
+export { renderFitReport, renderSizingReport, renderPlanReport } from './report/lazy.js';
+export type { PlanReportMeta } from './report/plan-report.js';
 export type { FitReportData, SizingReportData, RenderedReport, ReportWarning } from './report/types.js';
 
 // Worker threads: the same results as the serial functions, with the work spread over cores.

@@ -35,7 +35,8 @@ export function factorSummary(src: PerRunSourceSpec, limits: LabLimits): PlanRes
   const cols = inputColumns(src);
   return limits.factors.map((f) => {
     const col = cols.find((c) => c.key === f.key);
-    return { key: f.key, column: col?.header ?? f.key, unit: siUnit(FIELD_QUANTITY[f.field]), min: f.min, max: f.max, shownUnit: col?.spec.unit ?? f.unit };
+    const shown = (v: number) => (col ? toColumnUnit(col, v, src) : v);
+    return { key: f.key, column: col?.header ?? f.key, unit: siUnit(FIELD_QUANTITY[f.field]), min: f.min, max: f.max, shownUnit: col?.spec.unit ?? f.unit, shownMin: shown(f.min), shownMax: shown(f.max) };
   });
 }
 

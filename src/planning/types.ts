@@ -95,5 +95,6 @@ export interface PlanResult extends Outcome<PlanStatus> {
   candidates: { count: number; usable: number; excluded: ExcludedCandidates[] };
   /** The study's runs in the scaled condition space (for charts). */
   oldRuns: { id: string; scaled: number[]; values: number[] }[];
-  factors: { key: string; column: string; unit: string; min: number; max: number; shownUnit: string }[];
+  /** The varied conditions: SI range and unit, and the range in the study's column unit (shownMin..shownMax). */
+  factors: { key: string; column: string; unit: string; min: number; max: number; shownUnit: string; shownMin: number; shownMax: number }[];
 }

@@ -3,6 +3,8 @@
  * vega-lite) take about a second to load and use top-level await, so importing rateloom must not
  * load them; only rendering a report does.
  */
+import type { PlanResult } from '../planning/types.js';
+import type { PlanReportMeta } from './plan-report.js';
 import type { FitReportData, RenderedReport, SizingReportData } from './types.js';
 import { checkArgs, is } from '../core/args.js';
 
@@ -16,4 +18,10 @@ export async function renderFitReport(data: FitReportData): Promise<RenderedRepo
 export async function renderSizingReport(data: SizingReportData): Promise<RenderedReport> {
   checkArgs('renderSizingReport', [data], [{ name: 'data', check: is.reportData('caseName') }]);
   return (await import('./index.js')).renderSizingReport(data);
+}
+
+/** Render a run-plan report: self-contained HTML (charts of old and planned runs as inline SVG) and Markdown. */
+export async function renderPlanReport(plan: PlanResult, meta: PlanReportMeta): Promise<RenderedReport> {
+  checkArgs('renderPlanReport', [plan, meta], [{ name: 'plan', check: is.object }, { name: 'meta', check: is.object }]);
+  return (await import('./plan-report.js')).renderPlanReport(plan, meta);
 }

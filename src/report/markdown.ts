@@ -6,22 +6,25 @@ import { escapeMarkdown as md, formatInterval, formatNumber, formatUnit, NOT_COM
 import type { FitReportData, PelletReportData, ReportWarning, SizingReportData, ThermalReportData, TransportReportData } from './types.js';
 
 /** A number with its unit, or 'not computed'. */
-function q(x: number | null | undefined, unit: string | null | undefined, sig = SIG_VALUE): string {
+export function q(x: number | null | undefined, unit: string | null | undefined, sig = SIG_VALUE): string {
   if (x === null || x === undefined) return NOT_COMPUTED;
   return `${formatNumber(x, sig)} ${md(formatUnit(unit))}`;
 }
 
-function mdTable(head: string[], rows: string[][]): string {
+/** A Markdown table, first column left-aligned, the others right-aligned. */
+export function mdTable(head: string[], rows: string[][]): string {
   const align = head.map((_, i) => (i === 0 ? '---' : '---:'));
   return [`| ${head.map(md).join(' | ')} |`, `| ${align.join(' | ')} |`, ...rows.map((r) => `| ${r.join(' | ')} |`)].join('\n');
 }
 
-function warningLines(warnings: ReportWarning[]): string {
+/** Warnings as a Markdown list; says so when there are none. */
+export function warningLines(warnings: ReportWarning[]): string {
   if (warnings.length === 0) return 'No warnings.';
   return warnings.map((w) => `- ${md(w.message)} \\[${md(w.code)}\\]`).join('\n');
 }
 
-function statusLine(success: boolean, status: string, message: string): string {
+/** The status line: trustworthy or not, status code and message. */
+export function statusLine(success: boolean, status: string, message: string): string {
   return `**${success ? 'Trustworthy' : 'NOT TRUSTWORTHY'}** (status \`${status.replace(/`/g, "'")}\`): ${md(message)}`;
 }
 
