@@ -132,7 +132,8 @@ function learnUpTo(kase: DesignCase): number {
  * within `etaStep`; afterwards the sizing with those parameters only interpolates. The table is
  * thus a function of the case, the parameters and alpha alone, so serial and worker Monte Carlo
  * paths see the same numbers. A new alpha (another tube count) or a new parameter vector (another
- * draw) starts a new pass.
+ * draw) starts a new pass; both are looked at when a march starts (t = 0) or outside a march (rates
+ * at a state, t NaN), never at the later steps of a march.
  */
 export class PelletRateHook implements RateHook {
   readonly table: EtaTable;
@@ -174,10 +175,13 @@ export class PelletRateHook implements RateHook {
   private thetaMoved(): boolean {
     const live = this.sys?.theta;
     if (!live) return false;
-    let moved = false;
-    for (let i = 0; i < live.length; i++) if (live[i] !== this.theta[i]) moved = true;
-    if (moved) this.theta.set(live);
-    return moved;
+    for (let i = 0; i < live.length; i++) {
+      if (live[i] !== this.theta[i]) {
+        this.theta.set(live);
+        return true;
+      }
+    }
+    return false;
   }
 
   /** Fill the table for pressure-drop parameter alpha by integrating the bed with the table's parameters. */
@@ -216,9 +220,12 @@ export class PelletRateHook implements RateHook {
         this.table.insert(x, eta, t);
       }
     } else {
-      const alpha = this.sys ? this.sys.alpha : 0;
-      const moved = this.thetaMoved();
-      if (moved || alpha !== this.alpha) this.learn(alpha);
+      // The parameters and alpha change only between marches: look at them where a march starts
+      // (t = 0, its first evaluation) or outside one (t NaN: ratesAt), not at every step.
+      if (!(t > 0)) {
+        const alpha = this.sys ? this.sys.alpha : 0;
+        if (this.thetaMoved() || alpha !== this.alpha) this.learn(alpha);
+      }
       if (this.direct) eta.set(this.evaluator.evaluate(C, T).factor);
       else if (!this.table.interpolate(x, eta)) eta.fill(1);
     }
