@@ -10,13 +10,13 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { isRateloomError } from '../../src/core/errors';
 import { SeededRandom } from '../../src/numerics/random';
-import { loadStudy } from '../../src/study/load';
 import { fitStudy, studyVariants } from '../../src/workflow/fit-study';
 import { parseLimits } from '../../src/planning/limits';
 import { planRuns } from '../../src/planning/plan';
 import { checkDistinctRivals } from '../../src/planning/rivals';
 import { discriminationValue, type DiscriminationBlocks } from '../../src/planning/divergence';
 import { oneJson, runCli } from '../robustness/cli-helpers';
+import { batchDecayStudy, studyFromText } from './helpers';
 
 /** Inverse of a small dense matrix by Gauss-Jordan with partial pivoting (test-only, independent of the code under test). */
 function invert(A: number[][]): number[][] {
@@ -78,29 +78,14 @@ describe('discrimination criterion', () => {
   });
 });
 
-const base = {
-  species: [{ name: 'A' }, { name: 'B' }],
-  reactions: [{ id: 'r', equation: 'A -> B', rate: { form: 'power-law', basis: 'volume', rateConstant: { k: 'k' }, orders: { A: 1 } } }],
-  reactor: { kind: 'batch', phase: 'liquid' },
-  referenceTemperature: 300,
-  data: [{
-    file: 'runs.csv', layout: 'per-run',
-    columns: {
-      run: 'run', temperature: { value: 300, unit: 'K' }, time: { column: 't_s', unit: 's' },
-      initialConcentrations: { A: { value: 1, unit: 'mol/L' }, B: { value: 0, unit: 'mol/L' } },
-      measured: [{ response: 'outlet-concentration', species: 'A', column: 'CA', unit: 'mol/L', errorModel: 'lab' }],
-    },
-  }],
-  parameters: [{ name: 'k', value: 2e-3, unit: '1/s', lower: 1e-9, upper: 1 }],
-  errorModels: { lab: { absolute: { value: 0.01, unit: 'mol/L' } } },
-};
+const base = batchDecayStudy({ c0: 1, unit: 'mol/L', k: 2e-3, sigma: 0.01 });
 const CSV = ['run,t_s,CA', ...[100, 300, 600, 900].map((t, i) => `S${i + 1},${t},${(Math.exp(-1e-3 * t) + 0.004 * (i % 2 ? 1 : -1)).toFixed(5)}`)].join('\n') + '\n';
 const rival = (name: string, kName: string, order: number) => ({
   name,
   reactions: { r: { form: 'power-law', basis: 'volume', rateConstant: { k: kName }, orders: { A: order } } },
   ...(kName === 'k' ? {} : { parameters: [{ name: kName, value: 2e-3, unit: order === 1 ? '1/s' : 'L/(mol s)', lower: 1e-9, upper: 1 }] }),
 });
-const studyWith = (candidates: unknown[]) => loadStudy(JSON.stringify({ ...base, candidates }), '/virtual/study.json', () => CSV).study;
+const studyWith = (candidates: unknown[]) => studyFromText({ ...base, candidates }, CSV);
 
 function errorOf(f: () => unknown): string {
   try {

@@ -5,16 +5,11 @@
  * sensitivities -> exchange -> planned CSV.
  */
 import { describe, expect, it } from 'vitest';
-import { loadStudy } from '../../src/study/load';
-import type { Study } from '../../src/study/types';
 import { fitStudy } from '../../src/workflow/fit-study';
 import { parseLimits } from '../../src/planning/limits';
 import { planRuns } from '../../src/planning/plan';
+import { batchDecayStudy, studyFromText } from './helpers';
 
-/** Load a study from in-memory study JSON and CSV text. */
-export function studyFromText(doc: unknown, csv: string): Study {
-  return loadStudy(JSON.stringify(doc), '/virtual/study.json', () => csv).study;
-}
 
 // Saturating rate r = k C / (1 + KA C) = V C / (K + C) with V = k / KA and K = 1 / KA, measured in a
 // liquid stirred tank as rate data (predicted at the inlet). Constant (absolute) error on new runs;
@@ -75,22 +70,7 @@ describe('planning against known optimal designs', () => {
 
   it('first-order decay C = C0 exp(-k t): the one planned sample is at t = 1/k', () => {
     const k = 1e-3;
-    const doc = {
-      species: [{ name: 'A' }, { name: 'B' }],
-      reactions: [{ id: 'r', equation: 'A -> B', rate: { form: 'power-law', basis: 'volume', rateConstant: { k: 'k' }, orders: { A: 1 } } }],
-      reactor: { kind: 'batch', phase: 'liquid' },
-      referenceTemperature: 300,
-      data: [{
-        file: 'runs.csv', layout: 'per-run',
-        columns: {
-          run: 'run', temperature: { value: 300, unit: 'K' }, time: { column: 't_s', unit: 's' },
-          initialConcentrations: { A: { value: 1, unit: 'mol/L' }, B: { value: 0, unit: 'mol/L' } },
-          measured: [{ response: 'outlet-concentration', species: 'A', column: 'CA', unit: 'mol/L', errorModel: 'lab' }],
-        },
-      }],
-      parameters: [{ name: 'k', value: 2e-3, unit: '1/s', lower: 1e-9, upper: 1 }],
-      errorModels: { lab: { absolute: { value: 0.01, unit: 'mol/L' } } },
-    };
+    const doc = batchDecayStudy({ c0: 1, unit: 'mol/L', k: 2e-3, sigma: 0.01 });
     const csv = ['run,t_s,CA', ...[100, 300, 600].map((t, i) => `S${i + 1},${t},${Math.exp(-k * t).toPrecision(15)}`)].join('\n') + '\n';
     const study = studyFromText(doc, csv);
     const sf = fitStudy(study, { profile: false });

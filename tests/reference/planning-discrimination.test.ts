@@ -7,28 +7,15 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { loadStudy } from '../../src/study/load';
 import { fitStudy, studyVariants } from '../../src/workflow/fit-study';
 import { parseLimits } from '../../src/planning/limits';
 import { planRuns } from '../../src/planning/plan';
+import { batchDecayStudy, studyFromText } from '../planning/helpers';
 
 const ref = JSON.parse(readFileSync(join(__dirname, 'scipy/discrimination.json'), 'utf8'));
 
 const doc = {
-  species: [{ name: 'A' }, { name: 'B' }],
-  reactions: [{ id: 'r', equation: 'A -> B', rate: { form: 'power-law', basis: 'volume', rateConstant: { k: 'k' }, orders: { A: 1 } } }],
-  reactor: { kind: 'batch', phase: 'liquid' },
-  referenceTemperature: 300,
-  data: [{
-    file: 'runs.csv', layout: 'per-run',
-    columns: {
-      run: 'run', temperature: { value: 300, unit: 'K' }, time: { column: 't_s', unit: 's' },
-      initialConcentrations: { A: { value: ref.C0_mol_m3, unit: 'mol/m^3' }, B: { value: 0, unit: 'mol/m^3' } },
-      measured: [{ response: 'outlet-concentration', species: 'A', column: 'CA', unit: 'mol/m^3', errorModel: 'lab' }],
-    },
-  }],
-  parameters: [{ name: 'k', value: 1e-3, unit: '1/s', lower: 1e-9, upper: 1 }],
-  errorModels: { lab: { absolute: { value: ref.sigma_mol_m3, unit: 'mol/m^3' } } },
+  ...batchDecayStudy({ c0: ref.C0_mol_m3, unit: 'mol/m^3', k: 1e-3, sigma: ref.sigma_mol_m3 }),
   candidates: [{
     name: 'second',
     reactions: { r: { form: 'power-law', basis: 'volume', rateConstant: { k: 'k2' }, orders: { A: 2 } } },
@@ -38,7 +25,7 @@ const doc = {
 
 function setup() {
   const csv = ['run,t_s,CA', ...ref.times_s.map((t: number, i: number) => `S${i + 1},${t},${ref.data_mol_m3[i]}`)].join('\n') + '\n';
-  const study = loadStudy(JSON.stringify(doc), '/virtual/study.json', () => csv).study;
+  const study = studyFromText(doc, csv);
   const fits = studyVariants(study).map((v) => fitStudy(study, { variant: v.name, profile: false }));
   const limits = parseLimits({ factors: { time: { min: 0, max: ref.tMax_s, unit: 's', levels: 2001 } }, minSpacing: 0 }, study);
   return { study, fits, limits };
