@@ -43,7 +43,7 @@ export interface RunawayOptions {
   to?: number;
   /** Grid step, K; default 1. */
   step?: number;
-  /** Compute the design-point sensitivities to Ta and T0 (six more solves); default true. */
+  /** Compute the design-point sensitivities to Ta and T0 (five more tube solves); default true. */
   sensitivities?: boolean;
 }
 
@@ -53,6 +53,30 @@ export function hotSpotAt(spec: ThermalTubeSpec, kinetics: CompiledKinetics, the
   const sol = new ThermalTube(s, kinetics, theta).solve(W, { rtol: 1e-8 });
   if (sol.status === 'runaway') return T0 + 1000;
   return sol.success ? sol.hotSpot.temperature : NaN;
+}
+
+/** Index of the largest non-null value, -1 when there is none. */
+function largestAt(values: readonly (number | null)[]): number {
+  let best = -1;
+  values.forEach((v, i) => {
+    if (v !== null && (best < 0 || v > (values[best] as number))) best = i;
+  });
+  return best;
+}
+
+/**
+ * Normalised sensitivities S = (x / T_hs) dT_hs/dx of the hot spot at the design point to the
+ * coolant temperature and the inlet temperature (central differences of 0.5 K; five tube solves).
+ */
+function designSensitivities(spec: ThermalTubeSpec, kinetics: CompiledKinetics, theta: Float64Array, W: number): { coolant: number; inlet: number } {
+  const d = 0.5;
+  const Ta0 = spec.coolantTemperature;
+  const T0 = spec.T0;
+  const hot0 = hotSpotAt(spec, kinetics, theta, W, Ta0);
+  return {
+    coolant: (Ta0 / hot0) * ((hotSpotAt(spec, kinetics, theta, W, Ta0 + d) - hotSpotAt(spec, kinetics, theta, W, Ta0 - d)) / (2 * d)),
+    inlet: (T0 / hot0) * ((hotSpotAt(spec, kinetics, theta, W, Ta0, T0 + d) - hotSpotAt(spec, kinetics, theta, W, Ta0, T0 - d)) / (2 * d)),
+  };
 }
 
 /** The runaway margin of a designed tube (see the file header). */
@@ -68,21 +92,14 @@ export function runawayMargin(spec: ThermalTubeSpec, kinetics: CompiledKinetics,
     if (i === 0 || i === n || !Number.isFinite(hot[i - 1] + hot[i + 1] + hot[i])) return null;
     return (Ta / hot[i]) * ((hot[i + 1] - hot[i - 1]) / (2 * step));
   });
-  let best = -1;
-  sens.forEach((s, i) => {
-    if (s !== null && (best < 0 || s > (sens[best] as number))) best = i;
-  });
+  const best = largestAt(sens);
   let crit: number | null = null;
   if (best > 1 && best < n - 1 && sens[best - 1] !== null && sens[best + 1] !== null) {
     const [a, b, c] = [sens[best - 1] as number, sens[best] as number, sens[best + 1] as number];
     const den = a - 2 * b + c;
     crit = coolant[best] + (den < 0 ? (0.5 * step * (a - c)) / den : 0);
   }
-  const d = 0.5;
-  const sens0 = options.sensitivities === false ? NaN : 0;
-  const sCoolant = Number.isNaN(sens0) ? NaN : (Ta0 / hotSpotAt(spec, kinetics, theta, W, Ta0)) * ((hotSpotAt(spec, kinetics, theta, W, Ta0 + d) - hotSpotAt(spec, kinetics, theta, W, Ta0 - d)) / (2 * d));
-  const T0 = spec.T0;
-  const sInlet = Number.isNaN(sens0) ? NaN : (T0 / hotSpotAt(spec, kinetics, theta, W, Ta0)) * ((hotSpotAt(spec, kinetics, theta, W, Ta0, T0 + d) - hotSpotAt(spec, kinetics, theta, W, Ta0, T0 - d)) / (2 * d));
+  const { coolant: sCoolant, inlet: sInlet } = options.sensitivities === false ? { coolant: NaN, inlet: NaN } : designSensitivities(spec, kinetics, theta, W);
   return {
     criterion: 'generalized parametric sensitivity (Morbidelli and Varma, Chem. Eng. Sci. 43 (1988) 91): runaway where S = (Ta/T_hs) dT_hs/dTa is largest',
     coolantTemperature: Ta0,
@@ -104,13 +121,9 @@ export function criticalNear(spec: ThermalTubeSpec, kinetics: CompiledKinetics, 
   for (let k = 0; k < 4; k++) {
     const m = runawayMargin(spec, kinetics, theta, W, { from: centre - halfWidth, to: centre + halfWidth, step, sensitivities: false });
     if (m.criticalCoolantTemperature !== null) return m.criticalCoolantTemperature;
-    const s = m.scan.sensitivity;
-    let best = -1;
-    s.forEach((v, i) => {
-      if (v !== null && (best < 0 || v > (s[best] as number))) best = i;
-    });
+    const best = largestAt(m.scan.sensitivity);
     if (best < 0) return null;
-    centre += (best < s.length / 2 ? -1 : 1) * 1.5 * halfWidth;
+    centre += (best < m.scan.sensitivity.length / 2 ? -1 : 1) * 1.5 * halfWidth;
   }
   return null;
 }

@@ -24,8 +24,8 @@ import { fitModel } from '../../src/estimation/fit';
 import { mulberry32 } from '../../src/estimation/random';
 import { loadStudy } from '../../src/study';
 import { compoundToSI } from '../../src/units';
-import { StudyModel } from '../../src/workflow/study-model';
 import { sigmaFromModel } from '../../src/study/types';
+import { noiseSigma, truePredictions } from './true-predictions';
 
 const STUDY = join(import.meta.dirname, '..', '..', 'datasets-demo', 'pbr', 'pbr.study.json');
 const REPLICATES = 200;
@@ -37,17 +37,9 @@ describe('interval coverage on the six-parameter demo packed bed', () => {
     const { study } = loadStudy(readFileSync(STUDY, 'utf8'), STUDY, (p) => readFileSync(p, 'utf8'));
     const truth = readTruth().pbr;
     const TRUTH = Object.fromEntries(Object.entries(truth.parameters).map(([n, q]) => [n, compoundToSI(q.value, q.unit).value]));
-    const model = new StudyModel(study);
-    const params = study.parameters;
-    const theta = Float64Array.from(model.parameterNames, (n) => {
-      const p = params.find((q) => q.name === n)!;
-      const v = TRUTH[n] ?? p.value;
-      return p.transform === 'log' ? Math.log(v) : v;
-    });
-    const truePred = new Float64Array(model.nObservations);
-    expect(model.predict(theta, truePred)).toBe(true);
+    const { model, params, truePred } = truePredictions(study, TRUTH);
     const abs = compoundToSI(truth.noise.absolute.value, truth.noise.absolute.unit).value;
-    const sigmaTrue = Float64Array.from(truePred, (y) => Math.hypot(abs, truth.noise.relative * y));
+    const sigmaTrue = noiseSigma(truePred, abs, truth.noise.relative);
     const em = study.errorModels.gc;
     const rng = mulberry32(SEED);
     const names = Object.keys(TRUTH);

@@ -18,7 +18,7 @@ import { describe, expect, it } from 'vitest';
 import { fitModel } from '../../src/estimation/fit';
 import { mulberry32 } from '../../src/estimation/random';
 import { loadStudy } from '../../src/study';
-import { StudyModel } from '../../src/workflow/study-model';
+import { noiseSigma, truePredictions } from './true-predictions';
 
 const FIXTURES = join(import.meta.dirname, '..', 'data', 'fixtures');
 const TRUTH: Record<string, number> = { k1: 2.2e-4, E1: 76000 };
@@ -36,17 +36,9 @@ describe('interval coverage over replicate packed-bed data sets', () => {
   it(`95% linear and profile intervals cover the truth in 92-98% of ${REPLICATES} replicates for every parameter`, () => {
     const t0 = Date.now();
     const study = packedBed();
-    const model = new StudyModel(study);
-    const params = study.parameters;
-    const theta = Float64Array.from(model.parameterNames, (n) => {
-      const p = params.find((q) => q.name === n)!;
-      const v = TRUTH[n] ?? p.value;
-      return p.transform === 'log' ? Math.log(v) : v;
-    });
-    const truePred = new Float64Array(model.nObservations);
-    expect(model.predict(theta, truePred)).toBe(true);
+    const { model, params, truePred } = truePredictions(study, TRUTH);
     const em = study.errorModels.flows;
-    const sigma = Float64Array.from(truePred, (y) => Math.sqrt(em.absolute ** 2 + (em.relative * y) ** 2));
+    const sigma = noiseSigma(truePred, em.absolute, em.relative);
     const rng = mulberry32(SEED);
     const covered: Record<string, { linear: number; profile: number }> = { k1: { linear: 0, profile: 0 }, E1: { linear: 0, profile: 0 } };
     let trustworthy = 0;
