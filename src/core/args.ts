@@ -8,6 +8,7 @@
  */
 import { RateloomError } from './errors.js';
 import { checkOptions, shown, type OptionName } from './option-ranges.js';
+import { isObj } from './record.js';
 
 /** Why a value does not fit: the expected kind in words ("a string"), or undefined when it fits. */
 export type Check = (v: unknown) => string | undefined;
@@ -20,7 +21,6 @@ export interface ArgSpec {
   options?: readonly OptionName[];
 }
 
-const isObj = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 const arrays = (v: Record<string, unknown>, keys: readonly string[]) => keys.every((k) => Array.isArray(v[k]));
 
 /** The checks, by kind. */

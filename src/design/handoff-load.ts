@@ -6,10 +6,9 @@
 import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import { toExternal, type Transform } from '../core/parameter.js';
 import { checkHandoffRanges } from './handoff-ranges.js';
+import { isObj, type Obj } from '../core/record.js';
 import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics, type HandoffParameter } from './handoff.js';
 
-type Obj = Record<string, unknown>;
-const isObj = (v: unknown): v is Obj => !!v && typeof v === 'object' && !Array.isArray(v);
 
 function req(o: Obj, key: string, path: FieldPath, type: 'string' | 'number' | 'object' | 'array' | 'boolean'): unknown {
   const v = o[key];

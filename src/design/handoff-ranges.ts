@@ -10,9 +10,8 @@
 import { RateloomError, type FieldPath } from '../core/errors.js';
 import { outsideRange, PHYSICAL_RANGES, type PhysicalRange } from '../data/ranges.js';
 import { LOG_OVERFLOW, VALUE_OVERFLOW } from '../estimation/verdict.js';
+import { isObj, type Obj } from '../core/record.js';
 
-type Obj = Record<string, unknown>;
-const isObj = (v: unknown): v is Obj => !!v && typeof v === 'object' && !Array.isArray(v);
 const FIX = 'Write the hand-off again with `rateloom fit`; do not edit its numbers by hand.';
 
 function refuse(problem: string, path: FieldPath): never {

@@ -18,6 +18,7 @@ import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import type { HeatCapacity } from '../reactors/thermal/heat-capacity.js';
 import type { CoolingMode } from '../reactors/thermal/layout.js';
 import { quantityToSI } from './case-units.js';
+import { isObj, type Obj } from '../core/record.js';
 
 /** Longest tube proposed when the case does not say, m (a common practical limit for fixed-bed tubes). */
 export const DEFAULT_MAX_TUBE_LENGTH = 12;
@@ -58,13 +59,8 @@ export interface ThermalCase {
   searchDiameters?: number[];
 }
 
-type Obj = Record<string, unknown>;
 const MODES: readonly ThermalCase['mode'][] = ['adiabatic', 'constant-coolant', 'co-current', 'counter-current'];
 export const THERMAL_FIELDS = ['mode', 'referenceTemperature', 'heatCapacities', 'overallCoefficient', 'wallCorrelation', 'exchangeArea', 'coolant', 'maxTemperature', 'maxTubeLength', 'searchDiameters'] as const;
-
-function isObj(v: unknown): v is Obj {
-  return !!v && typeof v === 'object' && !Array.isArray(v);
-}
 
 function positive(raw: unknown, kind: Parameters<typeof quantityToSI>[1], path: FieldPath, fix: string): number {
   const v = quantityToSI(raw, kind, path);
