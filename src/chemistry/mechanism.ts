@@ -56,142 +56,170 @@ export function buildChemistry(
   if (!Array.isArray(species) || species.length === 0) {
     throw new RateloomError('E_MISSING_FIELD', 'no species are declared', { path: [...path, 'species'] });
   }
-  const names: string[] = [];
-  const index = new Map<string, number>();
-  const hasFormula: boolean[] = [];
-  const molarMass: (number | undefined)[] = [];
-  const inert: boolean[] = [];
-  const formulaCounts: Record<string, number>[] = [];
+  const table = readSpecies(species, path);
+  const matrices = readReactions(reactions, table, path);
+  const { elements, elementMatrix } = buildElementMatrix(table.formulaCounts);
+  checkElementBalance(matrices, table.hasFormula, elements, elementMatrix, path);
+  return {
+    speciesNames: table.names,
+    reactionIds: matrices.ids,
+    reversible: matrices.reversible,
+    equations: matrices.equations,
+    stoich: matrices.stoich,
+    reactantCoefficients: matrices.reac,
+    productCoefficients: matrices.prod,
+    elements,
+    elementMatrix,
+    hasFormula: table.hasFormula,
+    molarMass: table.molarMass,
+    inert: table.inert,
+  };
+}
+
+/** The validated species list, one entry per species in declaration order. */
+interface SpeciesTable {
+  names: string[];
+  hasFormula: boolean[];
+  molarMass: (number | undefined)[];
+  inert: boolean[];
+  /** Atoms per element of each species' formula ({} without a formula). */
+  formulaCounts: Record<string, number>[];
+}
+
+/** The validated reactions and their coefficient matrices (nR x nS, row-major). */
+interface ReactionMatrices {
+  ids: string[];
+  reversible: boolean[];
+  equations: string[];
+  stoich: Float64Array;
+  reac: Float64Array;
+  prod: Float64Array;
+}
+
+/** Wording of the name checks of species names and reaction ids. */
+const NAME_KINDS = {
+  species: { field: 'name', label: 'species name', owner: 'species', twice: 'is declared twice', example: "'H2O' or 'ethanol'", unique: 'Give every species a unique name.' },
+  reaction: { field: 'id', label: 'reaction id', owner: 'reaction id', twice: 'is used twice', example: "'r1'", unique: 'Give every reaction a unique id.' },
+} as const;
+
+/**
+ * Check that a species name or reaction id is well formed and not taken yet; record it in `seen`.
+ * @param p path of the entry (the error points at its name or id field).
+ */
+function checkNewName(name: unknown, entry: number, seen: Map<string, number>, kind: keyof typeof NAME_KINDS, p: FieldPath): string {
+  const k = NAME_KINDS[kind];
+  if (typeof name !== 'string' || !NAME_RE.test(name)) {
+    throw new RateloomError('E_VALUE', `${k.label} '${String(name)}' is not valid`, {
+      path: [...p, k.field],
+      fix: `Use letters, digits and '_' only, starting with a letter (for example ${k.example}).`,
+    });
+  }
+  if (seen.has(name)) {
+    throw new RateloomError('E_VALUE', `${k.owner} '${name}' ${k.twice} (entries ${seen.get(name)} and ${entry})`, { path: [...p, k.field], fix: k.unique });
+  }
+  seen.set(name, entry);
+  return name;
+}
+
+/** Names, formulas, molar masses (kg/mol) and inert flags of the species. */
+function readSpecies(species: readonly SpeciesSpec[], path: FieldPath): SpeciesTable {
+  const table: SpeciesTable = { names: [], hasFormula: [], molarMass: [], inert: [], formulaCounts: [] };
+  const seen = new Map<string, number>();
   species.forEach((s, j) => {
     const p = [...path, 'species', j];
-    if (typeof s?.name !== 'string' || !NAME_RE.test(s.name)) {
-      throw new RateloomError('E_VALUE', `species name '${String(s?.name)}' is not valid`, {
-        path: [...p, 'name'],
-        fix: "Use letters, digits and '_' only, starting with a letter (for example 'H2O' or 'ethanol').",
-      });
-    }
-    if (index.has(s.name)) {
-      throw new RateloomError('E_VALUE', `species '${s.name}' is declared twice (entries ${index.get(s.name)} and ${j})`, {
-        path: [...p, 'name'],
-        fix: 'Give every species a unique name.',
-      });
-    }
-    index.set(s.name, j);
-    names.push(s.name);
-    let counts: Record<string, number> = {};
-    let mm: number | undefined;
-    if (s.formula !== undefined) {
-      const f = parseFormula(s.formula, [...p, 'formula']);
-      counts = f.counts as Record<string, number>;
-      mm = f.molarMass;
-    }
-    if (s.molarMass !== undefined) {
-      if (typeof s.molarMass !== 'number' || !(s.molarMass > 0) || !Number.isFinite(s.molarMass)) {
-        throw new RateloomError('E_VALUE', `species '${s.name}' has molar mass ${String(s.molarMass)}; it must be a positive number in kg/mol`, {
-          path: [...p, 'molarMass'],
-        });
-      }
-      mm = s.molarMass;
-    }
-    hasFormula.push(s.formula !== undefined);
-    molarMass.push(mm);
-    inert.push(s.inert === true);
-    formulaCounts.push(counts);
+    const name = checkNewName(s?.name, j, seen, 'species', p);
+    const f = s.formula !== undefined ? parseFormula(s.formula, [...p, 'formula']) : undefined;
+    table.names.push(name);
+    table.hasFormula.push(f !== undefined);
+    table.molarMass.push(s.molarMass !== undefined ? checkedMolarMass(name, s.molarMass, p) : f?.molarMass);
+    table.inert.push(s.inert === true);
+    table.formulaCounts.push(f ? (f.counts as Record<string, number>) : {});
   });
+  return table;
+}
 
+/** A given molar mass (kg/mol), which must be a positive finite number. */
+function checkedMolarMass(name: string, molarMass: unknown, p: FieldPath): number {
+  if (typeof molarMass !== 'number' || !(molarMass > 0) || !Number.isFinite(molarMass)) {
+    throw new RateloomError('E_VALUE', `species '${name}' has molar mass ${String(molarMass)}; it must be a positive number in kg/mol`, {
+      path: [...p, 'molarMass'],
+      fix: 'Give the molar mass in kg/mol (water: 0.018015), or leave it out and give a formula.',
+    });
+  }
+  return molarMass;
+}
+
+/** Parse the equations into the reactant, product and net coefficient matrices. */
+function readReactions(reactions: readonly ReactionEquationSpec[], table: SpeciesTable, path: FieldPath): ReactionMatrices {
+  const { names, inert } = table;
   const nS = names.length;
   const nR = reactions.length;
-  const ids: string[] = [];
-  const idIndex = new Map<string, number>();
-  const reversible: boolean[] = [];
-  const equations: string[] = [];
-  const stoich = new Float64Array(nR * nS);
-  const reac = new Float64Array(nR * nS);
-  const prod = new Float64Array(nR * nS);
+  const m: ReactionMatrices = { ids: [], reversible: [], equations: [], stoich: new Float64Array(nR * nS), reac: new Float64Array(nR * nS), prod: new Float64Array(nR * nS) };
+  const seen = new Map<string, number>();
   reactions.forEach((r, i) => {
     const p = [...path, 'reactions', i];
-    if (typeof r?.id !== 'string' || !NAME_RE.test(r.id)) {
-      throw new RateloomError('E_VALUE', `reaction id '${String(r?.id)}' is not valid`, {
-        path: [...p, 'id'],
-        fix: "Use letters, digits and '_' only, starting with a letter (for example 'r1').",
-      });
-    }
-    if (idIndex.has(r.id)) {
-      throw new RateloomError('E_VALUE', `reaction id '${r.id}' is used twice (entries ${idIndex.get(r.id)} and ${i})`, {
-        path: [...p, 'id'],
-        fix: 'Give every reaction a unique id.',
-      });
-    }
-    idIndex.set(r.id, i);
-    ids.push(r.id);
+    const id = checkNewName(r?.id, i, seen, 'reaction', p);
+    m.ids.push(id);
     const eq = parseEquation(r.equation, names, [...p, 'equation']);
-    reversible.push(eq.reversible);
-    equations.push(formatEquation(eq));
-    for (const t of eq.reactants) reac[i * nS + (index.get(t.species) as number)] = t.coefficient;
-    for (const t of eq.products) prod[i * nS + (index.get(t.species) as number)] = t.coefficient;
+    m.reversible.push(eq.reversible);
+    m.equations.push(formatEquation(eq));
+    for (const t of eq.reactants) m.reac[i * nS + names.indexOf(t.species)] = t.coefficient;
+    for (const t of eq.products) m.prod[i * nS + names.indexOf(t.species)] = t.coefficient;
     for (let j = 0; j < nS; j++) {
-      stoich[i * nS + j] = prod[i * nS + j] - reac[i * nS + j];
-      if (inert[j] && (reac[i * nS + j] !== 0 || prod[i * nS + j] !== 0)) {
-        throw new RateloomError('E_VALUE', `species '${names[j]}' is declared inert but appears in reaction ${r.id}`, {
+      m.stoich[i * nS + j] = m.prod[i * nS + j] - m.reac[i * nS + j];
+      if (inert[j] && (m.reac[i * nS + j] !== 0 || m.prod[i * nS + j] !== 0)) {
+        throw new RateloomError('E_VALUE', `species '${names[j]}' is declared inert but appears in reaction ${id}`, {
           path: [...path, 'species', j, 'inert'],
-          fix: `Remove '${names[j]}' from the equation of ${r.id} or drop its inert flag.`,
+          fix: `Remove '${names[j]}' from the equation of ${id} or drop its inert flag.`,
         });
       }
     }
   });
+  return m;
+}
 
-  // element matrix
+/** Elements in order of first appearance and the atoms of each in each species (nE x nS). */
+function buildElementMatrix(formulaCounts: readonly Record<string, number>[]): { elements: string[]; elementMatrix: Float64Array } {
+  const nS = formulaCounts.length;
   const elements: string[] = [];
   for (const c of formulaCounts) for (const el of Object.keys(c)) if (!elements.includes(el)) elements.push(el);
-  const nE = elements.length;
-  const elementMatrix = new Float64Array(nE * nS);
+  const elementMatrix = new Float64Array(elements.length * nS);
   formulaCounts.forEach((c, j) => {
     for (const [el, n] of Object.entries(c)) elementMatrix[elements.indexOf(el) * nS + j] = n;
   });
+  return { elements, elementMatrix };
+}
 
-  // element balance per reaction (only when every participating species has a formula)
-  for (let i = 0; i < nR; i++) {
+/** E_UNBALANCED for the first element not conserved by a reaction whose species all have formulas. */
+function checkElementBalance(m: ReactionMatrices, hasFormula: readonly boolean[], elements: readonly string[], elementMatrix: Float64Array, path: FieldPath): void {
+  const nS = hasFormula.length;
+  for (let i = 0; i < m.ids.length; i++) {
     let allKnown = true;
     for (let j = 0; j < nS; j++) {
-      if ((reac[i * nS + j] !== 0 || prod[i * nS + j] !== 0) && !hasFormula[j]) allKnown = false;
+      if ((m.reac[i * nS + j] !== 0 || m.prod[i * nS + j] !== 0) && !hasFormula[j]) allKnown = false;
     }
     if (!allKnown) continue;
-    for (let e = 0; e < nE; e++) {
+    for (let e = 0; e < elements.length; e++) {
       let left = 0;
       let right = 0;
       for (let j = 0; j < nS; j++) {
-        left += reac[i * nS + j] * elementMatrix[e * nS + j];
-        right += prod[i * nS + j] * elementMatrix[e * nS + j];
+        left += m.reac[i * nS + j] * elementMatrix[e * nS + j];
+        right += m.prod[i * nS + j] * elementMatrix[e * nS + j];
       }
       if (Math.abs(left - right) > BALANCE_RTOL * Math.max(1, left, right)) {
         const diff = right - left;
         throw new RateloomError(
           'E_UNBALANCED',
-          `reaction ${ids[i]} is unbalanced in ${elements[e]}: reactants ${fmt(left)}, products ${fmt(right)} ` +
+          `reaction ${m.ids[i]} is unbalanced in ${elements[e]}: reactants ${fmt(left)}, products ${fmt(right)} ` +
             `(products have ${fmt(Math.abs(diff))} ${diff > 0 ? 'more' : 'fewer'} ${elements[e]} atoms)`,
           {
             path: [...path, 'reactions', i, 'equation'],
-            details: { reaction: ids[i], element: elements[e], reactants: left, products: right },
+            details: { reaction: m.ids[i], element: elements[e], reactants: left, products: right },
           },
         );
       }
     }
   }
-
-  return {
-    speciesNames: names,
-    reactionIds: ids,
-    reversible,
-    equations,
-    stoich,
-    reactantCoefficients: reac,
-    productCoefficients: prod,
-    elements,
-    elementMatrix,
-    hasFormula,
-    molarMass,
-    inert,
-  };
 }
 
 /** Index of a species by name, or an E_UNKNOWN_SPECIES error naming the closest declared name. */

@@ -20,6 +20,7 @@ export interface JsonSyntaxProblem {
 
 const NUMBER_RE = /-?(?:0|[1-9]\d*)(?:\.\d+)?(?:[eE][+-]?\d+)?/y;
 const ESCAPES = '"\\/bfnrtu';
+const LITERALS = ['true', 'false', 'null'] as const;
 
 function describe(c: string): string {
   const code = c.charCodeAt(0);
@@ -27,133 +28,159 @@ function describe(c: string): string {
   return `'${c}'`;
 }
 
+/** Where the scan expects to be: the grammar position between two tokens. */
+type ScanState = 'value' | 'valueOrClose' | 'key' | 'keyOrClose' | 'colon' | 'after';
+
+/** The scan's position: text (BOM removed), offset of the next character, open containers. */
+interface JsonScan {
+  readonly s: string;
+  i: number;
+  state: ScanState;
+  /** Opening brackets ('{' or '[') of the containers not yet closed, outermost first. */
+  readonly stack: string[];
+}
+
+/** The problem record for `offset` of the scanned text. */
+function problemAt(scan: JsonScan, offset: number, problem: string): JsonSyntaxProblem {
+  return { offset, ...lineColumn(scan.s, offset), problem };
+}
+
 /**
  * The first syntax error of `text` (after an optional leading BOM), or undefined when the text is
  * one valid JSON document.
  */
 export function findJsonSyntaxError(text: string): JsonSyntaxProblem | undefined {
-  const s = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  const n = s.length;
-  const stack: string[] = [];
-  let state: 'value' | 'valueOrClose' | 'key' | 'keyOrClose' | 'colon' | 'after' = 'value';
-  let i = 0;
-  const at = (offset: number, problem: string): JsonSyntaxProblem => {
-    let line = 1;
-    let lineStart = 0;
-    for (let k = 0; k < offset && k < n; k++) {
-      if (s.charCodeAt(k) === 10) {
-        line++;
-        lineStart = k + 1;
-      }
-    }
-    return { offset, line, column: offset - lineStart + 1, problem };
-  };
-  /** Scan a string starting at the quote at i; returns a problem or moves i past the closing quote. */
-  const scanString = (): JsonSyntaxProblem | undefined => {
-    const start = i;
-    i++;
-    for (;;) {
-      if (i >= n) return at(start, 'string is never closed (missing ")');
-      const c = s.charCodeAt(i);
-      if (c === 34) {
-        i++;
-        return undefined;
-      }
-      if (c < 0x20) return at(i, `${describe(s[i])} inside a string (write it as an escape such as \\n)`);
-      if (c === 92) {
-        const e = s[i + 1];
-        if (e === undefined || !ESCAPES.includes(e)) return at(i, `invalid escape '\\${e ?? ''}' in a string`);
-        if (e === 'u') {
-          if (!/^[0-9a-fA-F]{4}$/.test(s.slice(i + 2, i + 6))) return at(i, 'invalid \\u escape (needs 4 hex digits)');
-          i += 6;
-        } else i += 2;
-        continue;
-      }
-      i++;
-    }
-  };
+  const scan: JsonScan = { s: text.charCodeAt(0) === 0xfeff ? text.slice(1) : text, i: 0, state: 'value', stack: [] };
   for (;;) {
-    while (i < n) {
-      const c = s.charCodeAt(i);
-      if (c !== 32 && c !== 9 && c !== 10 && c !== 13) break;
-      i++;
+    skipWhitespace(scan);
+    if (scan.i >= scan.s.length) return endOfText(scan);
+    const problem = scanToken(scan, scan.s[scan.i]);
+    if (problem) return problem;
+  }
+}
+
+function skipWhitespace(scan: JsonScan): void {
+  const { s } = scan;
+  while (scan.i < s.length) {
+    const c = s.charCodeAt(scan.i);
+    if (c !== 32 && c !== 9 && c !== 10 && c !== 13) return;
+    scan.i++;
+  }
+}
+
+/** The text ended: fine after one complete value, else the empty-file or not-closed problem. */
+function endOfText(scan: JsonScan): JsonSyntaxProblem | undefined {
+  const n = scan.s.length;
+  if (scan.state === 'after' && scan.stack.length === 0) return undefined;
+  const empty = n === 0 || (scan.state === 'value' && scan.stack.length === 0);
+  return problemAt(scan, n, empty ? 'the file is empty (no JSON value)' : 'unexpected end of the file (something is not closed)');
+}
+
+/** Scan the token starting with `c` at scan.i in the current state; a problem or undefined. */
+function scanToken(scan: JsonScan, c: string): JsonSyntaxProblem | undefined {
+  switch (scan.state) {
+    case 'value':
+    case 'valueOrClose':
+      return scanValue(scan, c);
+    case 'key':
+    case 'keyOrClose':
+      return scanKey(scan, c);
+    case 'colon':
+      if (c !== ':') return problemAt(scan, scan.i, `expected ':' after the property name, found ${describe(c)}`);
+      scan.i++;
+      scan.state = 'value';
+      return undefined;
+    case 'after':
+      return scanAfterValue(scan, c);
+  }
+}
+
+/** Close the innermost container at scan.i; a complete value follows. */
+function closeContainer(scan: JsonScan): void {
+  scan.stack.pop();
+  scan.i++;
+  scan.state = 'after';
+}
+
+/** A value (or, in an array just opened, its closing ']'). */
+function scanValue(scan: JsonScan, c: string): JsonSyntaxProblem | undefined {
+  const { s, i } = scan;
+  if (scan.state === 'valueOrClose' && c === ']') {
+    closeContainer(scan);
+    return undefined;
+  }
+  if (c === '{' || c === '[') {
+    scan.stack.push(c);
+    scan.i++;
+    scan.state = c === '{' ? 'keyOrClose' : 'valueOrClose';
+    return undefined;
+  }
+  if (c === '"') {
+    scan.state = 'after';
+    return scanString(scan);
+  }
+  if (c === '-' || (c >= '0' && c <= '9')) {
+    NUMBER_RE.lastIndex = i;
+    if (!NUMBER_RE.test(s)) return problemAt(scan, i, 'invalid number');
+    scan.i = NUMBER_RE.lastIndex;
+    scan.state = 'after';
+    return undefined;
+  }
+  const literal = LITERALS.find((w) => s.startsWith(w, i));
+  if (!literal) return problemAt(scan, i, `unexpected ${describe(c)} where a value should be (strings need double quotes; NaN, Infinity and comments are not JSON)`);
+  scan.i += literal.length;
+  scan.state = 'after';
+  return undefined;
+}
+
+/** A property name (or, in an object just opened, its closing '}'). */
+function scanKey(scan: JsonScan, c: string): JsonSyntaxProblem | undefined {
+  if (scan.state === 'keyOrClose' && c === '}') {
+    closeContainer(scan);
+    return undefined;
+  }
+  if (c === '"') {
+    scan.state = 'colon';
+    return scanString(scan);
+  }
+  const hint = scan.state === 'key' ? ' (a trailing comma?)' : '';
+  return problemAt(scan, scan.i, `unexpected ${describe(c)} where a double-quoted property name should be${hint}`);
+}
+
+/** After a complete value: ',' or the closing bracket of the innermost container, or nothing. */
+function scanAfterValue(scan: JsonScan, c: string): JsonSyntaxProblem | undefined {
+  const top = scan.stack[scan.stack.length - 1];
+  if (top === undefined) return problemAt(scan, scan.i, `unexpected ${describe(c)} after the end of the JSON value`);
+  const close = top === '{' ? '}' : ']';
+  if (c === ',') {
+    scan.i++;
+    scan.state = top === '{' ? 'key' : 'value';
+  } else if (c === close) {
+    scan.stack.pop();
+    scan.i++;
+  } else return problemAt(scan, scan.i, `expected ',' or '${close}', found ${describe(c)} (a missing comma?)`);
+  return undefined;
+}
+
+/** Scan a string starting at the quote at scan.i; returns a problem or moves past the closing quote. */
+function scanString(scan: JsonScan): JsonSyntaxProblem | undefined {
+  const { s } = scan;
+  const start = scan.i;
+  let i = start + 1;
+  for (;;) {
+    if (i >= s.length) return problemAt(scan, start, 'string is never closed (missing ")');
+    const c = s.charCodeAt(i);
+    if (c === 34) {
+      scan.i = i + 1;
+      return undefined;
     }
-    if (i >= n) {
-      if (state === 'after' && stack.length === 0) return undefined;
-      return at(n, n === 0 || (state === 'value' && stack.length === 0) ? 'the file is empty (no JSON value)' : 'unexpected end of the file (something is not closed)');
-    }
-    const c = s[i];
-    switch (state) {
-      case 'value':
-      case 'valueOrClose': {
-        if (state === 'valueOrClose' && c === ']') {
-          stack.pop();
-          i++;
-          state = 'after';
-          break;
-        }
-        if (c === '{' || c === '[') {
-          stack.push(c);
-          i++;
-          state = c === '{' ? 'keyOrClose' : 'valueOrClose';
-          break;
-        }
-        if (c === '"') {
-          const p = scanString();
-          if (p) return p;
-          state = 'after';
-          break;
-        }
-        if (c === '-' || (c >= '0' && c <= '9')) {
-          NUMBER_RE.lastIndex = i;
-          if (!NUMBER_RE.test(s)) return at(i, 'invalid number');
-          i = NUMBER_RE.lastIndex;
-          state = 'after';
-          break;
-        }
-        const lit = ['true', 'false', 'null'].find((w) => s.startsWith(w, i));
-        if (lit) {
-          i += lit.length;
-          state = 'after';
-          break;
-        }
-        return at(i, `unexpected ${describe(c)} where a value should be (strings need double quotes; NaN, Infinity and comments are not JSON)`);
-      }
-      case 'key':
-      case 'keyOrClose': {
-        if (state === 'keyOrClose' && c === '}') {
-          stack.pop();
-          i++;
-          state = 'after';
-          break;
-        }
-        if (c === '"') {
-          const p = scanString();
-          if (p) return p;
-          state = 'colon';
-          break;
-        }
-        return at(i, `unexpected ${describe(c)} where a double-quoted property name should be${state === 'key' ? ' (a trailing comma?)' : ''}`);
-      }
-      case 'colon':
-        if (c !== ':') return at(i, `expected ':' after the property name, found ${describe(c)}`);
-        i++;
-        state = 'value';
-        break;
-      case 'after': {
-        const top = stack[stack.length - 1];
-        if (top === undefined) return at(i, `unexpected ${describe(c)} after the end of the JSON value`);
-        const close = top === '{' ? '}' : ']';
-        if (c === ',') {
-          i++;
-          state = top === '{' ? 'key' : 'value';
-        } else if (c === close) {
-          stack.pop();
-          i++;
-        } else return at(i, `expected ',' or '${close}', found ${describe(c)} (a missing comma?)`);
-        break;
-      }
-    }
+    if (c < 0x20) return problemAt(scan, i, `${describe(s[i])} inside a string (write it as an escape such as \\n)`);
+    if (c === 92) {
+      const e = s[i + 1];
+      if (e === undefined || !ESCAPES.includes(e)) return problemAt(scan, i, `invalid escape '\\${e ?? ''}' in a string`);
+      if (e === 'u' && !/^[0-9a-fA-F]{4}$/.test(s.slice(i + 2, i + 6))) return problemAt(scan, i, 'invalid \\u escape (needs 4 hex digits)');
+      i += e === 'u' ? 6 : 2;
+    } else i++;
   }
 }
 
