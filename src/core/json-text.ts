@@ -155,10 +155,8 @@ function scanAfterValue(scan: JsonScan, c: string): JsonSyntaxProblem | undefine
   if (c === ',') {
     scan.i++;
     scan.state = top === '{' ? 'key' : 'value';
-  } else if (c === close) {
-    scan.stack.pop();
-    scan.i++;
-  } else return problemAt(scan, scan.i, `expected ',' or '${close}', found ${describe(c)} (a missing comma?)`);
+  } else if (c === close) closeContainer(scan);
+  else return problemAt(scan, scan.i, `expected ',' or '${close}', found ${describe(c)} (a missing comma?)`);
   return undefined;
 }
 
