@@ -22,7 +22,7 @@ import { thermalDraws, type ThermalDraws } from './thermal-uncertainty.js';
 import { propagate, type Percentile, type UncertaintyResult } from './uncertainty.js';
 import type { WallCoefficient } from './wall-coefficient.js';
 import { thermalPelletBuilder, type ThermalPelletBuilder, type ThermalPelletInfo } from './heat-pellet.js';
-import { SIZING_STATUS, type SizingInput, type SizingResult } from './size.js';
+import { SIZING_STATUS, type SizingBase, type SizingInput, type SizingResult, type UngatedSizing } from './size.js';
 
 /** The energy-balance part of a sizing result. */
 export interface ThermalSizing {
@@ -47,9 +47,6 @@ export interface ThermalSizing {
   /** The plant pellet under heat: eta per reaction along the designed tube at the local temperature. */
   pellet?: ThermalPelletInfo & { profile: { z: number[]; conversion: number[]; T: number[]; eta: Record<string, number[]> }; solves: number };
 }
-
-/** A sizing result before the hand-off gate adds its verdict (size-gate.ts). */
-type UngatedSizing = Omit<SizingResult, 'kinetics' | 'verdict'>;
 
 const MODEL = 'one-dimensional pseudo-homogeneous plug flow (no radial gradients), mole + energy + Ergun balances';
 
@@ -158,7 +155,7 @@ function drawsFor(input: SizingInput, map: ParameterMap, sys: DesignSystem, hs: 
 }
 
 /** Size the cooled bed of a case with heat.mode (see the file header). */
-export function sizeCooledBed(input: SizingInput, map: ParameterMap, sys: DesignSystem, key: number, X: number, warnings: Warning[], base: Pick<SizingResult, 'case' | 'reactor' | 'target' | 'cautions'>): UngatedSizing {
+export function sizeCooledBed(input: SizingInput, map: ParameterMap, sys: DesignSystem, key: number, X: number, warnings: Warning[], base: SizingBase): UngatedSizing {
   const th = input.kase.heat!.thermal!;
   const en = resolveEnthalpies(input.kinetics, input.handoff, input.kase, th);
   warnings.push(...en.warnings);
@@ -191,7 +188,7 @@ function massFlux(t: TubeTrial, hs: HeatSizer): number {
 }
 
 /** The full sizing result of a cooled bed: status from the limits and the hot-spot percentile. */
-function verdict(input: SizingInput, thermal: ThermalSizing, unc: UncertaintyResult, warnings: Warning[], base: Pick<SizingResult, 'case' | 'reactor' | 'target' | 'cautions'>, t: TubeTrial, hs: HeatSizer): UngatedSizing {
+function verdict(input: SizingInput, thermal: ThermalSizing, unc: UncertaintyResult, warnings: Warning[], base: SizingBase, t: TubeTrial, hs: HeatSizer): UngatedSizing {
   const kase = input.kase;
   const level = input.options?.designLevel ?? kase.uncertainty.designLevel ?? 0.95;
   const limit = thermal.hotSpot.limit;

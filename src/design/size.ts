@@ -16,7 +16,7 @@ import { equilibriumConversion, type EquilibriumLimit } from './feasibility.js';
 import { designTubes, type TubeDesign } from './tubes.js';
 import { designTubesForPercentileSteps, type PercentileTubeResult, type TubePass } from './tube-percentile.js';
 import { DEFAULT_DESIGN_LEVEL } from './case.js';
-import { parameterMap } from './handoff-load.js';
+import { parameterMap, type ParameterMap } from './handoff-load.js';
 import { propagate, type UncertaintyResult } from './uncertainty.js';
 import { extrapolationWarnings } from './extrapolation.js';
 import { heatCheck, type HeatCheck } from './heat.js';
@@ -29,7 +29,13 @@ import { GAS_CONSTANT } from '../core/constants.js';
 import { ROUND_OFF_NOTE, ROUND_OFF_TOLERANCE, shownAmounts } from '../reactors/round-off.js';
 
 /** A sizing result before the hand-off gate adds its verdict (size-gate.ts). */
-type UngatedResult = Omit<SizingResult, 'kinetics' | 'verdict'>;
+export type UngatedSizing = Omit<SizingResult, 'kinetics' | 'verdict'>;
+
+/** The fields every sizing result carries, whatever its status (the cautions among them). */
+export type SizingBase = Pick<SizingResult, 'case' | 'reactor' | 'target' | 'cautions'>;
+
+/** Why a tube design cannot start (the Ergun mass flux needs the molar masses). */
+const MOLAR_MASSES_NEEDED = 'the tube design needs the molar masses of all species (give molarMass or formula per species in the hand-off)';
 
 export type SizingStatus =
   | 'sized'
@@ -177,8 +183,7 @@ export function drawEvaluator(sizer: Sizer): (s: Sizer) => DrawEval {
   const sys = sizer.sys;
   const kase = sys.kase;
   const t = kase.target;
-  const keyName = t.kind === 'conversion' ? t.species : firstReactant(sys);
-  const key = keyName !== undefined ? kase.species.indexOf(keyName) : -1;
+  const key = keySpecies(sys).index;
   const P0 = kase.pressure ?? NaN;
   if (t.kind === 'size') {
     return (s) => {
@@ -221,78 +226,160 @@ export async function sizeReactorWith(input: SizingInput, provider: DrawProvider
 }
 
 /** The sizing, yielding each Monte Carlo pass it needs (answered with precomputed draws or undefined). */
-function* sizingSteps(input: SizingInput): Generator<DrawRequest, UngatedResult, DrawValues | undefined> {
+function* sizingSteps(input: SizingInput): Generator<DrawRequest, UngatedSizing, DrawValues | undefined> {
+  const run = startSizing(input);
+  const thermalBed = thermalRoute(input);
+  if (thermalBed === true) return sizeCooledBed(input, run.map, run.sys, run.key.index, (input.kase.target as { value: number }).value, run.warnings, run.base);
+  if (thermalBed) return failed(run, 'integration-failed', thermalBed);
+  const feasible = checkFeasibility(run);
+  if ('status' in feasible) return feasible;
+  const nominal = sizeNominal(run, feasible.equilibrium);
+  if ('status' in nominal) return nominal;
+  const mc = yield* uncertaintyPasses(run, nominal.sizing, nominal.tubes);
+  const result = nominalResult(run, mc, feasible.equilibrium);
+  addModelChecks(run, result, mc);
+  addDrawWarnings(run, result, mc);
+  result.warnings = run.warnings;
+  return result;
+}
+
+/** What every step of one sizing shares. */
+interface SizingRun {
+  input: SizingInput;
+  opts: SizingOptions;
+  map: ParameterMap;
+  /** The case's mole balances at the nominal fit (with the plant pellet when the case has one). */
+  sys: DesignSystem;
+  sizer: Sizer;
+  withPellet: ReturnType<typeof systemWithPellet> | undefined;
+  key: KeySpecies;
+  /** Collected by every step; the result's warnings. */
+  warnings: Warning[];
+  /** Fields every result carries, whatever its status (the cautions among them). */
+  base: SizingBase;
+}
+
+/** The system at the nominal fit, its sizer, the key species and the fields every result carries. */
+function startSizing(input: SizingInput): SizingRun {
   const { handoff, kinetics, kase } = input;
-  const opts = input.options ?? {};
   const map = parameterMap(handoff, kinetics.parameterNames);
   const withPellet = kase.pellet ? systemWithPellet(kinetics, kase, map.theta, kase.pellet, handoff.species) : undefined;
   const sys = withPellet ? withPellet.sys : buildSystem(kinetics, kase, map.theta);
-  const sizer = new Sizer(sys);
-  const warnings: Warning[] = [];
-  const base = {
+  const base: SizingBase = {
     case: kase.name,
     reactor: { ...kase.reactor },
     target: kase.target,
     cautions: [...cautions(handoff, kase.heat?.thermal !== undefined), ...(kase.pellet ? PELLET_CAUTIONS : [])],
   };
-  const fail = (status: SizingStatus, detail: string, extra: Partial<UngatedResult> = {}): UngatedResult => ({
-    ...outcome(SIZING_STATUS, status, warnings, detail),
-    ...base,
-    ...extra,
-  });
+  return { input, opts: input.options ?? {}, map, sys, sizer: new Sizer(sys), withPellet, key: keySpecies(sys), warnings: [], base };
+}
+
+/** A failed sizing: the status with its detail, the warnings so far and the cautions. */
+function failed(run: SizingRun, status: SizingStatus, detail: string, extra: Partial<UngatedSizing> = {}): UngatedSizing {
+  return { ...outcome(SIZING_STATUS, status, run.warnings, detail), ...run.base, ...extra };
+}
+
+/** Feasibility of a conversion target: below the equilibrium (or limiting-reactant) conversion. */
+function checkFeasibility(run: SizingRun): { equilibrium?: EquilibriumLimit } | UngatedSizing {
+  const { kinetics, kase } = run.input;
   const t = kase.target;
-  const keyName = t.kind === 'conversion' ? t.species : firstReactant(sys);
-  const key = keyName !== undefined ? kase.species.indexOf(keyName) : -1;
-  const thermalBed = thermalRoute(input);
-  if (thermalBed) return thermalBed === true ? sizeCooledBed(input, map, sys, key, (t as { value: number }).value, warnings, base) : fail('integration-failed', thermalBed);
-
-  // Feasibility.
-  let equilibrium: EquilibriumLimit | undefined;
-  if (t.kind === 'conversion') {
-    equilibrium = equilibriumConversion(kinetics, kase, map.theta, t.species);
-    if (t.value >= equilibrium.conversion - 1e-9) {
-      return fail(
-        'target-unreachable',
-        `target conversion of ${t.species} ${fmt(t.value, 4)} is at or beyond the ${equilibrium.method === 'limiting-reactant' ? 'largest conversion the limiting reactant allows' : 'equilibrium conversion'} ` +
-          `${fmt(equilibrium.conversion, 6)} at ${fmt(kase.temperature, 5)} K${kase.pressure !== undefined ? ` and ${fmt(kase.pressure / 1e5, 5)} bar` : ''}; lower the target below ${fmt(equilibrium.conversion, 4)} or change the temperature, pressure or feed`,
-        { equilibrium },
-      );
-    }
-    if (!equilibrium.settled) warnings.push({ code: 'W_EQUILIBRIUM', message: 'the equilibrium (plateau) conversion had not settled; the feasibility check is approximate' });
-  }
-
-  // Nominal sizing.
-  let res: SizeOnce;
-  let tubes: TubeDesign | undefined;
-  if (kase.tubes && t.kind !== 'size') {
-    if (!input.molarMasses) {
-      return fail('integration-failed', 'the tube design needs the molar masses of all species (give molarMass or formula per species in the hand-off)');
-    }
-    const ts = designTubes(sizer, input.molarMasses);
-    res = ts.sizing;
-    if (ts.status === 'too-many-tubes') return fail('too-many-tubes', ts.detail ?? '');
-    if (ts.design) tubes = ts.design;
-  } else {
-    res = sizer.size();
-  }
-  if (res.status === 'pressure-exhausted') {
-    const where = res.exhaustedAt!;
-    const conv = key >= 0 ? sizer.conversion(res.y, key) : NaN;
-    return fail(
-      'pressure-exhausted',
-      `the pressure falls to zero at ${fmt(where, 5)} ${sys.unit}${sys.unit === 'kg' ? ' of catalyst' : ''}` +
-        (Number.isFinite(conv) ? `, where the conversion of ${keyName} is only ${fmt(conv, 4)}` : '') +
-        '; use wider or more tubes, larger particles or a smaller pressure-drop parameter',
-      { equilibrium, pressure: { inlet: kase.pressure!, outlet: 0, drop: kase.pressure!, dropBar: kase.pressure! / 1e5, unit: 'Pa' } },
+  if (t.kind !== 'conversion') return {};
+  const equilibrium = equilibriumConversion(kinetics, kase, run.map.theta, t.species);
+  if (t.value >= equilibrium.conversion - 1e-9) {
+    const limit = equilibrium.method === 'limiting-reactant' ? 'largest conversion the limiting reactant allows' : 'equilibrium conversion';
+    const where = `${fmt(kase.temperature, 5)} K${kase.pressure !== undefined ? ` and ${fmt(kase.pressure / 1e5, 5)} bar` : ''}`;
+    return failed(
+      run,
+      'target-unreachable',
+      `target conversion of ${t.species} ${fmt(t.value, 4)} is at or beyond the ${limit} ${fmt(equilibrium.conversion, 6)} at ${where}; ` +
+        `lower the target below ${fmt(equilibrium.conversion, 4)} or change the temperature, pressure or feed`,
+      { equilibrium },
     );
   }
-  if (res.status !== 'sized') {
-    return fail(res.status, res.detail ?? '', equilibrium ? { equilibrium } : {});
+  if (!equilibrium.settled) run.warnings.push({ code: 'W_EQUILIBRIUM', message: 'the equilibrium (plateau) conversion had not settled; the feasibility check is approximate' });
+  return { equilibrium };
+}
+
+/** The nominal size (and for a packed bed with tubes the nominal tube layout), or why there is none. */
+function sizeNominal(run: SizingRun, equilibrium: EquilibriumLimit | undefined): { sizing: SizeOnce; tubes?: TubeDesign } | UngatedSizing {
+  const { kase, molarMasses } = run.input;
+  const { sizer, sys } = run;
+  let sizing: SizeOnce;
+  let tubes: TubeDesign | undefined;
+  if (kase.tubes && kase.target.kind !== 'size') {
+    if (!molarMasses) return failed(run, 'integration-failed', MOLAR_MASSES_NEEDED);
+    const ts = designTubes(sizer, molarMasses);
+    sizing = ts.sizing;
+    if (ts.status === 'too-many-tubes') return failed(run, 'too-many-tubes', ts.detail ?? '');
+    if (ts.design) tubes = ts.design;
+  } else {
+    sizing = sizer.size();
   }
-  // Uncertainty; for a tube bundle also the tube count designed for the design percentile.
-  const draws = opts.draws ?? kase.uncertainty.draws;
-  const level = opts.designLevel ?? kase.uncertainty.designLevel ?? DEFAULT_DESIGN_LEVEL;
+  if (sizing.status === 'pressure-exhausted') {
+    const conv = run.key.index >= 0 ? sizer.conversion(sizing.y, run.key.index) : NaN;
+    const P0 = kase.pressure!;
+    return failed(
+      run,
+      'pressure-exhausted',
+      `the pressure falls to zero at ${fmt(sizing.exhaustedAt!, 5)} ${sys.unit}${sys.unit === 'kg' ? ' of catalyst' : ''}` +
+        (Number.isFinite(conv) ? `, where the conversion of ${run.key.name} is only ${fmt(conv, 4)}` : '') +
+        '; use wider or more tubes, larger particles or a smaller pressure-drop parameter',
+      { ...(equilibrium ? { equilibrium } : {}), pressure: { inlet: P0, outlet: 0, drop: P0, dropBar: P0 / 1e5, unit: 'Pa' } },
+    );
+  }
+  if (sizing.status !== 'sized') return failed(run, sizing.status, sizing.detail ?? '', equilibrium ? { equilibrium } : {});
+  return { sizing, ...(tubes ? { tubes } : {}) };
+}
+
+/** The Monte Carlo behind the result: its last pass, the final nominal sizing and tube layout, and the percentile design when there was one. */
+interface UncertaintyPasses {
+  pass: TubePass;
+  sizing: SizeOnce;
+  tubes: TubeDesign | undefined;
+  designed: PercentileTubeResult | undefined;
+  /** Monte Carlo draws per pass (0: delta method only). */
+  draws: number;
+  /** Design percentile of the catalyst mass (fraction). */
+  level: number;
+}
+
+/** The uncertainty; for a tube bundle also the tube count designed for the design percentile (a Monte Carlo pass per count tried). */
+function* uncertaintyPasses(run: SizingRun, sizing: SizeOnce, tubes: TubeDesign | undefined): Generator<DrawRequest, UncertaintyPasses, DrawValues | undefined> {
+  const { kase } = run.input;
+  const draws = run.opts.draws ?? kase.uncertainty.draws;
+  const level = run.opts.designLevel ?? kase.uncertainty.designLevel ?? DEFAULT_DESIGN_LEVEL;
+  const monteCarlo = monteCarloPass(run, draws);
+  const t = kase.target;
+  if (tubes && draws > 0) {
+    const designed = yield* designTubesForPercentileSteps({
+      sizer: run.sizer,
+      molarMasses: run.input.molarMasses!,
+      start: tubes,
+      startSizing: sizing,
+      level,
+      draws,
+      monteCarlo: function* (count: number) {
+        const r0 = run.sizer.size();
+        return yield* monteCarlo(r0.size, r0.size, count);
+      },
+    });
+    return { pass: designed.pass, sizing: designed.sizing, tubes: designed.tubes, designed, draws, level };
+  }
+  const pass = t.kind === 'size' ? yield* monteCarlo(NaN, t.value) : yield* monteCarlo(sizing.size, sizing.size);
+  const nominalTubes = tubes ? { ...tubes, designedFor: { level: null, basis: 'nominal fit (no Monte Carlo draws to design for a percentile)' } } : undefined;
+  return { pass, sizing, tubes: nominalTubes, designed: undefined, draws, level };
+}
+
+/**
+ * One Monte Carlo pass of `draws` draws (set up once per sizing): asks for precomputed draws first
+ * (tubeCount: the bundle's current count), else draws here and records each draw's size and
+ * pressure drop in the pass's arrays.
+ */
+function monteCarloPass(run: SizingRun, draws: number): (nominalQuantity: number, bandSize: number, tubeCount?: number) => Generator<DrawRequest, TubePass, DrawValues | undefined> {
+  const { kase } = run.input;
+  const { opts, sizer, sys } = run;
   const seed = opts.seed ?? kase.uncertainty.seed;
+  const rating = kase.target.kind === 'size';
   let lastSize = NaN;
   let lastDrop = NaN;
   const evalDraw = drawEvaluator(sizer);
@@ -302,13 +389,12 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, UngatedResult,
     lastDrop = e.drop;
     return { value: e.value, status: e.status };
   };
-  /** One Monte Carlo pass; asks for precomputed draws first (tubeCount: the bundle's current count). */
-  const monteCarlo = function* (nominalQuantity: number, bandSize: number, tubeCount?: number): Generator<DrawRequest, TubePass, DrawValues | undefined> {
+  return function* (nominalQuantity, bandSize, tubeCount) {
     const given = draws > 0 ? yield { draws, seed, ...(tubeCount !== undefined ? { tubeCount } : {}) } : undefined;
     const pre = given && given.values.length === draws && given.statuses.length === draws ? given : undefined;
     const sizes = pre ? Float64Array.from(pre.sizes) : new Float64Array(draws).fill(NaN);
     const drops = pre ? Float64Array.from(pre.drops) : new Float64Array(draws).fill(NaN);
-    const unc = propagate(sizer, map, quantityFn, nominalQuantity, t.kind === 'size' ? 'conversion' : 'size', t.kind === 'size' ? '1' : sys.unit, key >= 0 ? key : undefined, {
+    const unc = propagate(sizer, run.map, quantityFn, nominalQuantity, rating ? 'conversion' : 'size', rating ? '1' : sys.unit, run.key.index >= 0 ? run.key.index : undefined, {
       draws,
       seed,
       levels: opts.levels ?? kase.uncertainty.levels,
@@ -326,93 +412,77 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, UngatedResult,
     });
     return { unc, sizes, drops };
   };
-  let pass: TubePass;
-  let designed: PercentileTubeResult | undefined;
-  if (tubes && draws > 0) {
-    designed = yield* designTubesForPercentileSteps({
-      sizer,
-      molarMasses: input.molarMasses!,
-      start: tubes,
-      startSizing: res,
-      level,
-      draws,
-      monteCarlo: function* (count: number) {
-        const r0 = sizer.size();
-        return yield* monteCarlo(r0.size, r0.size, count);
-      },
-    });
-    pass = designed.pass;
-    res = designed.sizing;
-    tubes = designed.tubes;
-  } else {
-    pass = t.kind === 'size' ? yield* monteCarlo(NaN, t.value) : yield* monteCarlo(res.size, res.size);
-    if (tubes) tubes = { ...tubes, designedFor: { level: null, basis: 'nominal fit (no Monte Carlo draws to design for a percentile)' } };
-  }
-  const unc = pass.unc;
+}
 
-  // Nominal result (with the final tube layout).
-  const nominal = t.kind === 'size' ? t.value : res.size;
-  const out = describeOutlet(sys, sizer, res.y, key, warnings);
-  if (unc.outletBand) {
-    const lo: Record<string, number> = {};
-    const hi: Record<string, number> = {};
-    const nS = kase.species.length;
-    const scale = sys.y0.subarray(0, nS).reduce((a, b) => a + Math.max(b, 0), 0);
-    const p5 = shownAmounts(unc.outletBand.p5.slice(0, nS), unc.outletBand.p5.slice(0, nS), scale).amounts;
-    const p95 = shownAmounts(unc.outletBand.p95.slice(0, nS), unc.outletBand.p95.slice(0, nS), scale).amounts;
-    kase.species.forEach((sp, j) => {
-      lo[sp] = p5[j];
-      hi[sp] = p95[j];
-    });
-    out.lo = lo;
-    out.hi = hi;
-    out.band = { lower: 0.05, upper: 0.95, draws: unc.outletBand.draws };
-  }
-  const result: UngatedResult = {
-    ...outcome(SIZING_STATUS, t.kind === 'size' ? 'rated' : 'sized', warnings),
-    ...base,
+/** The sized (or rated) result at the nominal fit with the final tube layout: size, space time, outlet with its band, pressure. */
+function nominalResult(run: SizingRun, mc: UncertaintyPasses, equilibrium: EquilibriumLimit | undefined): UngatedSizing {
+  const { kase } = run.input;
+  const { sys, sizer } = run;
+  const t = kase.target;
+  const y = mc.sizing.y;
+  const nominal = t.kind === 'size' ? t.value : mc.sizing.size;
+  const outlet = describeOutlet(sys, sizer, y, run.key.index, run.warnings);
+  const outletBand = mc.pass.unc.outletBand;
+  if (outletBand) Object.assign(outlet, describeOutletBand(sys, outletBand));
+  const result: UngatedSizing = {
+    ...outcome(SIZING_STATUS, t.kind === 'size' ? 'rated' : 'sized', run.warnings),
+    ...run.base,
     size: { value: nominal, unit: sys.unit, quantity: QUANTITY[sys.unit] },
-    spaceTime: spaceTime(sys, nominal, key),
-    outlet: out,
+    spaceTime: spaceTime(sys, nominal, run.key.index),
+    outlet,
     ...(equilibrium ? { equilibrium } : {}),
-    ...(tubes ? { tubes } : {}),
+    ...(mc.tubes ? { tubes: mc.tubes } : {}),
   };
   if (kase.pressure !== undefined && kase.reactor.kind !== 'batch') {
-    const pr = sys.hasPressure ? Math.sqrt(Math.max(res.y[sys.nS], 0)) : 1;
-    const P = kase.pressure * pr;
+    const P = kase.pressure * (sys.hasPressure ? Math.sqrt(Math.max(y[sys.nS], 0)) : 1);
     result.pressure = { inlet: kase.pressure, outlet: P, drop: kase.pressure - P, dropBar: (kase.pressure - P) / 1e5, unit: 'Pa' };
   }
-  const heat = heatCheck(sys, res.y);
+  result.uncertainty = mc.pass.unc;
+  return result;
+}
+
+/** P5/P95 of the outlet amounts over the band draws, with the outlet's round-off rule. */
+function describeOutletBand(sys: DesignSystem, band: NonNullable<UncertaintyResult['outletBand']>): Pick<NonNullable<SizingResult['outlet']>, 'lo' | 'hi' | 'band'> {
+  const species = sys.kase.species;
+  const nS = species.length;
+  const scale = feedScale(sys);
+  const p5 = shownAmounts(band.p5.slice(0, nS), band.p5.slice(0, nS), scale).amounts;
+  const p95 = shownAmounts(band.p95.slice(0, nS), band.p95.slice(0, nS), scale).amounts;
+  const lo: Record<string, number> = {};
+  const hi: Record<string, number> = {};
+  species.forEach((sp, j) => {
+    lo[sp] = p5[j];
+    hi[sp] = p95[j];
+  });
+  return { lo, hi, band: { lower: 0.05, upper: 0.95, draws: band.draws } };
+}
+
+/** The checks of the model's assumptions at the nominal size: heat (isothermal), extrapolation beyond the data, the plant pellet. */
+function addModelChecks(run: SizingRun, result: UngatedSizing, mc: UncertaintyPasses): void {
+  const { handoff, kinetics, kase, molarMasses } = run.input;
+  const { sys, sizer, warnings } = run;
+  const y = mc.sizing.y;
+  const heat = heatCheck(sys, y);
   if (heat.check) result.heat = heat.check;
   warnings.push(...heat.warnings);
-  warnings.push(...extrapolationWarnings(handoff, kase, handoff.coverage.conversion ? conversionOf(sizer, res.y, handoff.coverage.conversion.species) : undefined));
-  result.uncertainty = unc;
-  if (withPellet && t.kind !== 'size') {
+  const covered = handoff.coverage.conversion;
+  warnings.push(...extrapolationWarnings(handoff, kase, covered ? conversionOf(sizer, y, covered.species) : undefined));
+  if (run.withPellet && kase.target.kind !== 'size') {
     result.pellet = pelletSizing({
-      kinetics, kase, pellet: kase.pellet!, species: handoff.species, theta: map.theta, sys, hook: withPellet.hook, size: nominal,
-      ...(input.molarMasses ? { molarMasses: input.molarMasses } : {}),
-      ...(tubes ? { tubeCount: tubes.count } : {}),
+      kinetics, kase, pellet: kase.pellet!, species: handoff.species, theta: run.map.theta, sys, hook: run.withPellet.hook, size: result.size!.value,
+      ...(molarMasses ? { molarMasses } : {}),
+      ...(mc.tubes ? { tubeCount: mc.tubes.count } : {}),
     });
     warnings.push(...result.pellet.warnings);
   }
-  if (tubes?.draws && tubes.draws.overAllowed > 0) {
-    const d = tubes.draws;
-    const P = `P${fmt(level * 100, 3)}`;
-    const share = `${d.overAllowed} of ${d.of} Monte Carlo parameter sets (${fmt((100 * d.overAllowed) / d.of, 3)}%) need a pressure drop above the allowed ${fmt(tubes.allowedPressureDrop / 1e5, 4)} bar with ${tubes.count} tubes`;
-    warnings.push({
-      code: 'W_DRAWS_PRESSURE',
-      message: designed?.met
-        ? `${share}; the tubes are designed for ${P} of the catalyst mass, so these are parameter sets beyond the design percentile (at most ${fmt(100 * (1 - level), 3)}% by design); raise uncertainty.designLevel for a larger margin`
-        : `${share}; the tubes could not be designed for ${P} of the catalyst mass after ${designed?.passes ?? 0} Monte Carlo passes${designed?.detail ? ` (${designed.detail})` : ''}; use wider tubes, larger particles or a larger allowed pressure drop`,
-      path: ['tubes'],
-    });
-  } else if (designed && !designed.met) {
-    warnings.push({
-      code: 'W_DRAWS_PRESSURE',
-      message: `the bed of the P${fmt(level * 100, 3)} catalyst mass with ${tubes!.count} tubes exceeds the allowed pressure drop${designed.detail ? ` (${designed.detail})` : ''}`,
-      path: ['tubes'],
-    });
-  }
+}
+
+/** What the Monte Carlo draws say: bundle draws over the allowed pressure drop, failed draws ('draws-failed' beyond the allowed share), a missing delta method. */
+function addDrawWarnings(run: SizingRun, result: UngatedSizing, mc: UncertaintyPasses): void {
+  const { warnings } = run;
+  const { unc } = mc.pass;
+  const pressure = drawPressureWarning(mc);
+  if (pressure) warnings.push(pressure);
   if (unc.failed.count > 0) {
     const reasons = Object.entries(unc.failed.reasons).map(([r, n]) => `${n} ${r}`).join(', ');
     warnings.push({
@@ -421,15 +491,37 @@ function* sizingSteps(input: SizingInput): Generator<DrawRequest, UngatedResult,
       path: ['uncertainty'],
     });
   }
-  const maxFail = opts.maxFailedFraction ?? 0.01;
-  if (draws > 0 && unc.failed.count > maxFail * draws) {
-    Object.assign(result, outcome(SIZING_STATUS, 'draws-failed', warnings, `${unc.failed.count} of ${draws} draws failed`));
+  const maxFail = run.opts.maxFailedFraction ?? 0.01;
+  if (mc.draws > 0 && unc.failed.count > maxFail * mc.draws) {
+    Object.assign(result, outcome(SIZING_STATUS, 'draws-failed', warnings, `${unc.failed.count} of ${mc.draws} draws failed`));
   }
   if (!Number.isFinite(unc.deltaMethod.sd)) {
     warnings.push({ code: 'W_DELTA', message: 'the delta-method standard deviation could not be computed (a perturbed parameter set failed)' });
   }
-  result.warnings = warnings;
-  return result;
+}
+
+/** W_DRAWS_PRESSURE for a bundle whose Monte Carlo parameter sets exceed the allowed pressure drop, or whose percentile design was not met. */
+function drawPressureWarning({ tubes, designed, level }: UncertaintyPasses): Warning | undefined {
+  const P = `P${fmt(level * 100, 3)}`;
+  if (tubes?.draws && tubes.draws.overAllowed > 0) {
+    const d = tubes.draws;
+    const share = `${d.overAllowed} of ${d.of} Monte Carlo parameter sets (${fmt((100 * d.overAllowed) / d.of, 3)}%) need a pressure drop above the allowed ${fmt(tubes.allowedPressureDrop / 1e5, 4)} bar with ${tubes.count} tubes`;
+    return {
+      code: 'W_DRAWS_PRESSURE',
+      message: designed?.met
+        ? `${share}; the tubes are designed for ${P} of the catalyst mass, so these are parameter sets beyond the design percentile (at most ${fmt(100 * (1 - level), 3)}% by design); raise uncertainty.designLevel for a larger margin`
+        : `${share}; the tubes could not be designed for ${P} of the catalyst mass after ${designed?.passes ?? 0} Monte Carlo passes${designed?.detail ? ` (${designed.detail})` : ''}; use wider tubes, larger particles or a larger allowed pressure drop`,
+      path: ['tubes'],
+    };
+  }
+  if (designed && !designed.met) {
+    return {
+      code: 'W_DRAWS_PRESSURE',
+      message: `the bed of the ${P} catalyst mass with ${tubes!.count} tubes exceeds the allowed pressure drop${designed.detail ? ` (${designed.detail})` : ''}`,
+      path: ['tubes'],
+    };
+  }
+  return undefined;
 }
 
 /**
@@ -443,8 +535,21 @@ function thermalRoute(input: SizingInput): boolean | string {
   if (k.reactor.kind !== 'packed-bed' || !k.tubes || k.target.kind !== 'conversion') {
     return 'sizing under heat (heat.mode) needs a gas packed bed with "tubes" and a conversion target; remove heat.mode for an isothermal estimate';
   }
-  if (!input.molarMasses) return 'the tube design needs the molar masses of all species (give molarMass or formula per species in the hand-off)';
+  if (!input.molarMasses) return MOLAR_MASSES_NEEDED;
   return true;
+}
+
+/** The species a conversion is reported for: the target's species, else the first reactant fed. */
+interface KeySpecies {
+  name: string | undefined;
+  /** Index in the case's species; -1 when there is none. */
+  index: number;
+}
+
+function keySpecies(sys: DesignSystem): KeySpecies {
+  const t = sys.kase.target;
+  const name = t.kind === 'conversion' ? t.species : firstReactant(sys);
+  return { name, index: name !== undefined ? sys.kase.species.indexOf(name) : -1 };
 }
 
 function firstReactant(sys: DesignSystem): string | undefined {
@@ -464,8 +569,7 @@ function conversionOf(sizer: Sizer, y: Float64Array, species: string): number | 
 function describeOutlet(sys: DesignSystem, sizer: Sizer, y: Float64Array, key: number, warnings: Warning[]): NonNullable<SizingResult['outlet']> {
   const amounts: Record<string, number> = {};
   const moleFractions: Record<string, number> = {};
-  const y0 = sys.y0.subarray(0, sys.nS);
-  const shown = shownAmounts(y.subarray(0, sys.nS), y.subarray(0, sys.nS), y0.reduce((a, b) => a + Math.max(b, 0), 0));
+  const shown = shownAmounts(y.subarray(0, sys.nS), y.subarray(0, sys.nS), feedScale(sys));
   let total = 0;
   for (let j = 0; j < sys.nS; j++) total += Math.max(shown.amounts[j], 0);
   sys.kase.species.forEach((s, j) => {
@@ -480,6 +584,13 @@ function describeOutlet(sys: DesignSystem, sizer: Sizer, y: Float64Array, key: n
     ...(key >= 0 ? { conversion: { species: sys.kase.species[key], value: sizer.conversion(y, key) } } : {}),
     ...(shown.clamped ? { roundOff: ROUND_OFF_NOTE } : {}),
   };
+}
+
+/** Total feed (sum of the positive inlet amounts): the scale of the round-off rule. */
+function feedScale(sys: DesignSystem): number {
+  let total = 0;
+  for (let j = 0; j < sys.nS; j++) total += Math.max(sys.y0[j], 0);
+  return total;
 }
 
 function spaceTime(sys: DesignSystem, size: number, key: number): SizingResult['spaceTime'] {
