@@ -130,11 +130,59 @@ export function propagate(
   const draws = opts.draws ?? 10000;
   const seed = opts.seed ?? 20261201;
   const levels = opts.levels ?? [0.9, 0.95];
+  const L = cholesky(map.covariance, map.free.length);
+  const mc = monteCarloDraws(sizer, map, quantity, L, draws, seed, opts);
+  const ok = mc.ok;
+  const g = deltaGradient(sizer, map, quantity);
+  const sdQ = deltaStdDev(map, g);
+  const S = opts.bandSize ?? nominal;
+  const bands = key !== undefined && mc.nBand > 0 && Number.isFinite(S) && S > 0 && L ? uncertaintyBands(sizer, map, mc.zBand, mc.nBand, key, S, opts.profileGrid) : {};
+  sizer.sys.theta.set(map.theta);
+  return {
+    quantity: kind,
+    unit,
+    draws,
+    succeeded: ok.length,
+    failed: { count: L ? draws - ok.length : draws, reasons: L ? mc.reasons : { ...mc.reasons, 'not-drawn': draws } },
+    median: quantileSorted(ok, 0.5),
+    // simple-statistics' mean sums with Kahan-Babuska compensation (exact to the last bits over 10,000 draws).
+    mean: ok.length ? ssMean(ok as unknown as readonly number[]) : NaN,
+    percentiles: levels.map((level) => ({ level, value: quantileSorted(ok, level) })),
+    deltaMethod: { sd: sdQ, percentiles: levels.map((level) => ({ level, value: nominal + normalQuantile(level) * sdQ })) },
+    sensitivities: sensitivities(map, g, nominal),
+    ...bands,
+    histogram: histogramSorted(ok),
+    seed,
+  };
+}
+
+/** The Monte Carlo draws: successful values sorted, failures by reason, and the parameter vectors of the band draws. */
+interface MonteCarloDraws {
+  ok: Float64Array;
+  reasons: Record<string, number>;
+  /** Band draws: the first min(profileDraws, draws). */
+  nBand: number;
+  /** Their parameter vectors z (internal space), one after another (n values each). */
+  zBand: Float64Array;
+}
+
+/**
+ * Draw `draws` parameter vectors (none when the covariance has no Cholesky factor `L`) and evaluate
+ * the quantity for each, or take it from `opts.precomputed` (then only the band's vectors are drawn:
+ * same stream, same order).
+ */
+function monteCarloDraws(
+  sizer: Sizer,
+  map: ParameterMap,
+  quantity: (s: Sizer) => { value: number; status: string },
+  L: Float64Array | null,
+  draws: number,
+  seed: number,
+  opts: UncertaintyOptions,
+): MonteCarloDraws {
   const n = map.free.length;
   const theta = sizer.sys.theta;
-  const L = cholesky(map.covariance, n);
   const reasons: Record<string, number> = {};
-  const fail = (r: string) => (reasons[r] = (reasons[r] ?? 0) + 1);
   const values = new Float64Array(draws);
   let nOk = 0;
   const nBand = Math.min(opts.profileDraws ?? 200, draws);
@@ -143,31 +191,41 @@ export function propagate(
   const e = new Float64Array(n);
   const rng = new SeededRandom(seed);
   const pre = opts.precomputed && opts.precomputed.values.length === draws && opts.precomputed.statuses.length === draws ? opts.precomputed : undefined;
-  if (!L) fail('covariance-not-positive-semidefinite');
+  if (!L) countReason(reasons, 'covariance-not-positive-semidefinite');
   for (let d = 0; d < draws && L; d++) {
-    // with precomputed draws only the band's vectors are needed (same stream, same order)
     if (!pre || d < nBand) {
       correlatedDraw(rng, map.internal, L, n, e, z);
       if (d < nBand) zBand.set(z, d * n);
     }
-    let q: { value: number; status: string };
-    if (pre) q = { value: pre.values[d], status: pre.statuses[d] };
-    else {
+    let value: number;
+    let status: string;
+    if (pre) {
+      value = pre.values[d];
+      status = pre.statuses[d];
+    } else {
       applyInternal(map, z, theta);
-      q = quantity(sizer);
+      const q = quantity(sizer);
+      value = q.value;
+      status = q.status;
     }
-    if (Number.isFinite(q.value)) values[nOk++] = q.value;
-    else fail(q.status);
-    if (opts.onDraw) opts.onDraw(d, q.value, q.status);
+    if (Number.isFinite(value)) values[nOk++] = value;
+    else countReason(reasons, status);
+    if (opts.onDraw) opts.onDraw(d, value, status);
     if (!pre && opts.onProgress && ((d + 1) % 100 === 0 || d + 1 === draws)) opts.onProgress(d + 1, draws);
   }
-  const ok = values.subarray(0, nOk).sort();
-  // simple-statistics' mean sums with Kahan-Babuska compensation (exact to the last bits over 10,000 draws).
-  const mean = nOk ? ssMean(ok as unknown as readonly number[]) : NaN;
+  return { ok: values.subarray(0, nOk).sort(), reasons, nBand, zBand };
+}
 
-  // Delta method.
+function countReason(reasons: Record<string, number>, reason: string): void {
+  reasons[reason] = (reasons[reason] ?? 0) + 1;
+}
+
+/** Delta method: g_k = d quantity / d z_k by central differences, steps of 1e-3 standard deviations (1e-6 relative for a zero variance). */
+function deltaGradient(sizer: Sizer, map: ParameterMap, quantity: (s: Sizer) => { value: number; status: string }): Float64Array {
+  const n = map.free.length;
+  const theta = sizer.sys.theta;
   const g = new Float64Array(n);
-  let deltaOk = true;
+  const z = new Float64Array(n);
   for (let k = 0; k < n; k++) {
     const sd = Math.sqrt(map.covariance[k * n + k]);
     const h = sd > 0 ? 1e-3 * sd : 1e-6 * Math.max(1, Math.abs(map.internal[k]));
@@ -179,75 +237,71 @@ export function propagate(
     applyInternal(map, z, theta);
     const dn = quantity(sizer).value;
     g[k] = (up - dn) / (2 * h);
-    if (!Number.isFinite(g[k])) deltaOk = false;
   }
+  return g;
+}
+
+/** sd = sqrt(g' Cov g); NaN when a derivative could not be computed. */
+function deltaStdDev(map: ParameterMap, g: Float64Array): number {
+  const n = g.length;
+  if (!g.every(Number.isFinite)) return NaN;
   let varQ = 0;
   for (let i = 0; i < n; i++) for (let k = 0; k < n; k++) varQ += g[i] * map.covariance[i * n + k] * g[k];
-  const sdQ = deltaOk ? Math.sqrt(Math.max(varQ, 0)) : NaN;
+  return Math.sqrt(Math.max(varQ, 0));
+}
 
-  // Conversion band along the normalised size, and the outlet band at the band size.
-  let band: UncertaintyResult['band'];
-  let outletBand: UncertaintyResult['outletBand'];
-  const S = opts.bandSize ?? nominal;
-  if (key !== undefined && nBand > 0 && Number.isFinite(S) && S > 0 && L) {
-    const nS = sizer.sys.nS;
-    const grid = opts.profileGrid ?? Array.from({ length: 31 }, (_, i) => i * 0.05);
-    const pos = grid.map((f) => f * S);
-    // Positions evaluated in one integration per draw: the grid and the band size, ascending.
-    const evalPos = Array.from(new Set([...pos, S])).sort((a, b) => a - b);
-    const gridAt = pos.map((p) => evalPos.indexOf(p));
-    const atS = evalPos.indexOf(S);
-    const conv: number[][] = grid.map(() => []);
-    const outs: number[][] = Array.from({ length: nS }, () => []);
-    const pushOutlet = (y: ArrayLike<number>) => {
-      for (let j = 0; j < nS; j++) outs[j].push(Math.max(y[j], 0));
-    };
-    for (let d = 0; d < nBand; d++) {
-      applyInternal(map, zBand.subarray(d * n, (d + 1) * n), theta);
-      if (sizer.sys.kase.reactor.kind === 'stirred-tank') {
-        pos.forEach((p, i) => {
-          const r = p > 0 ? sizer.rate(p) : { status: 'sized', y: sizer.sys.y0 };
-          if (r.status === 'sized') conv[i].push(sizer.conversion(r.y, key));
-        });
-        const r = sizer.rate(S);
-        if (r.status === 'sized') pushOutlet(r.y);
-      } else {
-        const r = sizer.rate(evalPos[evalPos.length - 1], evalPos) as SizeOnce & { profile?: { x: number[]; y: Float64Array[] } };
-        const ys = r.profile?.y ?? [];
-        gridAt.forEach((k, i) => {
-          if (k < ys.length) conv[i].push(sizer.conversion(ys[k], key));
-        });
-        if (atS < ys.length) pushOutlet(ys[atS]);
-      }
-    }
-    const q = (a: number[], p: number) => quantileSorted(a.sort((x, y) => x - y), p);
-    band = {
-      x: grid,
-      median: conv.map((a) => q(a, 0.5)),
-      p5: conv.map((a) => q(a, 0.05)),
-      p95: conv.map((a) => q(a, 0.95)),
-      draws: nBand,
-      key: sizer.sys.kase.species[key],
-    };
-    if (outs[0].length > 0) {
-      outletBand = { at: S, p5: outs.map((a) => q(a, 0.05)), p95: outs.map((a) => q(a, 0.95)), draws: outs[0].length };
+/** d ln(quantity)/d z_k = g_k / nominal per free parameter, and per standard error. */
+function sensitivities(map: ParameterMap, g: Float64Array, nominal: number): Sensitivity[] {
+  const n = map.free.length;
+  return map.free.map((name, k) => ({
+    name,
+    transform: map.transform[k],
+    dLnQuantity: g[k] / nominal,
+    perStdError: (g[k] / nominal) * Math.sqrt(Math.max(map.covariance[k * n + k], 0)),
+    unit: map.transform[k] === 'log' || map.units[k] === '1' ? '1' : `1/(${map.units[k]})`,
+  }));
+}
+
+/**
+ * Conversion band along the normalised size (positions `grid` x S) and outlet band at the band size
+ * S, over the band draws' parameter vectors `zBand`; each draw rated in one integration through the
+ * grid and S (a stirred tank: one solve per position).
+ */
+function uncertaintyBands(sizer: Sizer, map: ParameterMap, zBand: Float64Array, nBand: number, key: number, S: number, profileGrid?: number[]): Pick<UncertaintyResult, 'band' | 'outletBand'> {
+  const n = map.free.length;
+  const theta = sizer.sys.theta;
+  const nS = sizer.sys.nS;
+  const grid = profileGrid ?? Array.from({ length: 31 }, (_, i) => i * 0.05);
+  const pos = grid.map((f) => f * S);
+  // Positions evaluated in one integration per draw: the grid and the band size, ascending.
+  const evalPos = Array.from(new Set([...pos, S])).sort((a, b) => a - b);
+  const gridAt = pos.map((p) => evalPos.indexOf(p));
+  const atS = evalPos.indexOf(S);
+  const conv: number[][] = grid.map(() => []);
+  const outs: number[][] = Array.from({ length: nS }, () => []);
+  const pushOutlet = (y: ArrayLike<number>) => {
+    for (let j = 0; j < nS; j++) outs[j].push(Math.max(y[j], 0));
+  };
+  for (let d = 0; d < nBand; d++) {
+    applyInternal(map, zBand.subarray(d * n, (d + 1) * n), theta);
+    if (sizer.sys.kase.reactor.kind === 'stirred-tank') {
+      pos.forEach((p, i) => {
+        const r = p > 0 ? sizer.rate(p) : { status: 'sized', y: sizer.sys.y0 };
+        if (r.status === 'sized') conv[i].push(sizer.conversion(r.y, key));
+      });
+      const r = sizer.rate(S);
+      if (r.status === 'sized') pushOutlet(r.y);
+    } else {
+      const r = sizer.rate(evalPos[evalPos.length - 1], evalPos) as SizeOnce & { profile?: { x: number[]; y: Float64Array[] } };
+      const ys = r.profile?.y ?? [];
+      gridAt.forEach((k, i) => {
+        if (k < ys.length) conv[i].push(sizer.conversion(ys[k], key));
+      });
+      if (atS < ys.length) pushOutlet(ys[atS]);
     }
   }
-  theta.set(map.theta);
-  return {
-    quantity: kind,
-    unit,
-    draws,
-    succeeded: nOk,
-    failed: { count: L ? draws - nOk : draws, reasons: L ? reasons : { ...reasons, 'not-drawn': draws } },
-    median: quantileSorted(ok, 0.5),
-    mean,
-    percentiles: levels.map((level) => ({ level, value: quantileSorted(ok, level) })),
-    deltaMethod: { sd: sdQ, percentiles: levels.map((level) => ({ level, value: nominal + normalQuantile(level) * sdQ })) },
-    sensitivities: map.free.map((name, k) => ({ name, transform: map.transform[k], dLnQuantity: g[k] / nominal, perStdError: (g[k] / nominal) * Math.sqrt(Math.max(map.covariance[k * n + k], 0)), unit: map.transform[k] === 'log' || map.units[k] === '1' ? '1' : `1/(${map.units[k]})` })),
-    ...(band ? { band } : {}),
-    ...(outletBand ? { outletBand } : {}),
-    histogram: histogramSorted(ok),
-    seed,
-  };
+  const q = (a: number[], p: number) => quantileSorted(a.sort((x, y) => x - y), p);
+  const band = { x: grid, median: conv.map((a) => q(a, 0.5)), p5: conv.map((a) => q(a, 0.05)), p95: conv.map((a) => q(a, 0.95)), draws: nBand, key: sizer.sys.kase.species[key] };
+  if (outs[0].length === 0) return { band };
+  return { band, outletBand: { at: S, p5: outs.map((a) => q(a, 0.05)), p95: outs.map((a) => q(a, 0.95)), draws: outs[0].length } };
 }
