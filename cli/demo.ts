@@ -141,104 +141,14 @@ ${items.join('\n')}
 /** Run the demo in-process; writes the reports and returns what happened. */
 export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
   const t0 = performance.now();
-  const dataDir = resolve(options.dataDir ?? DEMO_DATA_DIR);
-  const outDir = resolve(options.outDir ?? 'reports/demo');
-  const log = options.log ?? (() => {});
-  const files: string[] = [];
-  const keep = (p: string) => (files.push(p), p);
-  claimOutDir(outDir, !!options.force);
-  files.push(join(outDir, MARKER));
-  const w = (name: string, content: string) => keep(writeAtomic(join(outDir, name), content, { force: true }));
-  const truth = readJson(join(dataDir, 'truth.json'), 'truth file') as Record<string, { study: string; parameters: Record<string, { value: number; unit: string }> }>;
-  const rel = (p: string) => relative(process.cwd(), p) || '.';
-
-  // 1. check
-  const pbrPath = join(dataDir, 'pbr', 'pbr.study.json');
-  log('1/5 check: reading the pilot packed-bed data ...');
-  const { study, report } = readStudy(pbrPath);
-  const summary: StudySummary = summarizeStudy(study, report);
-  w('pbr-check.txt', formatCheck(summary, report) + '\n');
-
-  // 2. compare
-  log('2/5 compare: fitting the three rival rate-law sets ...');
-  const workers = options.workers ?? 'auto';
-  const cmp = await compareStudyParallel(study, { profile: false, workers });
-  const comparison: Comparison = cmp.comparison;
-  const bestName = comparison.ranking[0].name;
-  const bestFit = cmp.fits.find((f) => f.variant === bestName)!;
-  const cr = await writeFitReport(fitReportData(study, bestFit, comparison), { outDir, baseName: 'pbr-compare', force: true });
-  files.push(cr.html, cr.markdown);
-  w('pbr-compare.txt', formatComparison(comparison) + '\n');
-
-  // 3. fit the best-supported set with profile intervals
-  log(`3/5 fit: '${bestName}' with profile-likelihood intervals ...`);
-  const sf = await fitStudyParallel(study, { variant: bestName, profile: true, workers });
-  const handoff = buildHandoff(study, sf);
-  const handoffText = toJson(handoff) + '\n';
-  const handoffPath = w('pbr-kinetics.json', handoffText);
-  const fr = await writeFitReport(fitReportData(study, sf), { outDir, baseName: 'pbr-fit', force: true });
-  files.push(fr.html, fr.markdown);
-  w('pbr-fit.txt', formatFit(study, sf) + '\n');
-  const pbrVsTruth = vsTruth(study, sf, truth.pbr.parameters, 'truth.json');
-
-  // 4. size the production cases from the hand-off file as written
-  log('4/5 size: production cases with Monte Carlo uncertainty ...');
-  const h = parseHandoff(JSON.parse(handoffText));
-  const dk = kineticsFromHandoff(h);
-  const sizing: DemoResult['sizing'] = [];
-  for (const name of DEMO_CASES) {
-    const casePath = join(dataDir, 'pbr', `${name}.case.json`);
-    const caseRaw = readJson(casePath, 'case file');
-    const kase = loadCase(caseRaw, dk.kinetics.speciesNames, dk.kinetics.reactionIds);
-    const result: SizingResult = await sizeReactorParallel(
-      {
-        handoff: h,
-        kinetics: dk.kinetics,
-        kase,
-        ...(dk.molarMasses ? { molarMasses: dk.molarMasses } : {}),
-        options: options.draws !== undefined ? { draws: options.draws } : {},
-      },
-      { handoff: JSON.parse(handoffText), case: caseRaw },
-      { workers },
-    );
-    const json = w(`${name}-sizing.json`, toJson(result) + '\n');
-    w(`${name}-sizing.txt`, formatSizing(result) + '\n');
-    const sr = await writeSizingReport(sizingReportData(result), { outDir, baseName: `${name}-sizing`, force: true });
-    files.push(sr.html, sr.markdown);
-    const pct = (l: number) => result.uncertainty?.percentiles.find((p) => Math.abs(p.level - l) < 1e-9)?.value ?? null;
-    sizing.push({
-      case: result.case,
-      status: result.status,
-      success: result.success,
-      size: result.size?.value ?? null,
-      unit: result.size?.unit ?? null,
-      p90: pct(0.9),
-      p95: pct(0.95),
-      thermal: thermalLine(result),
-      warnings: result.warnings.map((x) => `[${x.code}] ${x.message}`),
-      cautions: result.cautions,
-      report: { html: sr.html, markdown: sr.markdown },
-      json,
-    });
-  }
-
-  // 5. liquid studies
-  const liquids: DemoStudyResult[] = [];
-  if (options.liquids !== false) {
-    log('5/5 fit: liquid batch and stirred-tank studies ...');
-    for (const key of ['batch', 'cstr']) {
-      const path = join(dataDir, truth[key].study);
-      const ls = readStudy(path).study;
-      const lf = await fitStudyParallel(ls, { profile: true, workers });
-      const lr = await writeFitReport(fitReportData(ls, lf), { outDir, baseName: `${key}-fit`, force: true });
-      files.push(lr.html, lr.markdown);
-      w(`${key}-fit.txt`, formatFit(ls, lf) + '\n');
-      liquids.push({ study: ls.title ?? key, status: lf.fit.status, converged: lf.fit.success, parameters: vsTruth(ls, lf, truth[key].parameters, 'truth.json'), report: { html: lr.html, markdown: lr.markdown } });
-    }
-  }
-
+  const run = startDemo(options);
+  const { study, report, summary } = checkPilotData(run);
+  const comparison = await compareRateLaws(run, study);
+  const fit = await fitBestRateLaw(run, study, comparison.best);
+  const sizing = await sizeDemoCases(run, fit.handoffText);
+  const liquids = options.liquids !== false ? await fitLiquidStudies(run) : [];
   const base = {
-    outDir,
+    outDir: run.outDir,
     check: {
       rowsIn: report.rowsIn,
       rowsUsed: report.rowsUsed,
@@ -248,28 +158,164 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoResult> {
       observations: summary.observations,
       degreesOfFreedom: summary.degreesOfFreedom,
     },
-    comparison: {
-      best: bestName,
-      ranking: comparison.ranking.map((r) => ({ name: r.name, delta: r.delta, weight: r.akaikeWeight, converged: r.converged })),
-      verdict: comparison.verdict,
-      report: { html: cr.html, markdown: cr.markdown },
-    },
-    fit: {
-      study: study.title ?? 'packed bed',
-      status: sf.fit.status,
-      converged: sf.fit.success,
-      parameters: pbrVsTruth,
-      report: { html: fr.html, markdown: fr.markdown },
-      handoff: handoffPath,
-      lackOfFitP: sf.fit.statistics.lackOfFit?.pValue ?? null,
-    },
+    comparison,
+    fit: fit.result,
     sizing,
     liquids,
   };
+  const rel = (p: string) => relative(process.cwd(), p) || '.';
   const text = narrate(base, study, report, rel);
-  const index = w('index.html', indexPage(base, outDir, text));
+  const index = run.write('index.html', indexPage(base, run.outDir, text));
   const seconds = (performance.now() - t0) / 1000;
-  return { ...base, index, files, seconds, text: `${text}\n\nDemo finished in ${g(seconds, 3)} s. Open ${rel(index)} for all reports.` };
+  return { ...base, index, files: run.files, seconds, text: `${text}\n\nDemo finished in ${g(seconds, 3)} s. Open ${rel(index)} for all reports.` };
+}
+
+/** Recorded true values of the generator per study (datasets-demo/truth.json). */
+type DemoTruth = Record<string, { study: string; parameters: Record<string, { value: number; unit: string }> }>;
+
+/** What every step of the demo shares: the folders, the settings and the files written so far. */
+interface DemoRun {
+  dataDir: string;
+  outDir: string;
+  log: (line: string) => void;
+  workers: WorkersSetting;
+  /** Monte Carlo draws of each sizing (undefined: the case file's). */
+  draws: number | undefined;
+  truth: DemoTruth;
+  /** Every file written, absolute, in writing order. */
+  files: string[];
+  /** Write a file into the output folder (replacing the demo's own) and record it; returns its path. */
+  write: (name: string, content: string) => string;
+}
+
+/** Claim the output folder, read the truth file. */
+function startDemo(options: DemoOptions): DemoRun {
+  const dataDir = resolve(options.dataDir ?? DEMO_DATA_DIR);
+  const outDir = resolve(options.outDir ?? 'reports/demo');
+  claimOutDir(outDir, !!options.force);
+  const files = [join(outDir, MARKER)];
+  const write = (name: string, content: string) => {
+    const path = writeAtomic(join(outDir, name), content, { force: true });
+    files.push(path);
+    return path;
+  };
+  const truth = readJson(join(dataDir, 'truth.json'), 'truth file') as DemoTruth;
+  return { dataDir, outDir, log: options.log ?? (() => {}), workers: options.workers ?? 'auto', draws: options.draws, truth, files, write };
+}
+
+/** Record a written report's HTML and Markdown files; returns their paths. */
+function keepReport(run: DemoRun, r: { html: string; markdown: string }): { html: string; markdown: string } {
+  run.files.push(r.html, r.markdown);
+  return { html: r.html, markdown: r.markdown };
+}
+
+/** 1. check: read and validate the pilot packed-bed data. */
+function checkPilotData(run: DemoRun): { study: Study; report: ValidationReport; summary: StudySummary } {
+  run.log('1/5 check: reading the pilot packed-bed data ...');
+  const { study, report } = readStudy(join(run.dataDir, 'pbr', 'pbr.study.json'));
+  const summary = summarizeStudy(study, report);
+  run.write('pbr-check.txt', formatCheck(summary, report) + '\n');
+  return { study, report, summary };
+}
+
+/** 2. compare: fit the rival rate-law sets and rank them. */
+async function compareRateLaws(run: DemoRun, study: Study): Promise<DemoResult['comparison']> {
+  run.log('2/5 compare: fitting the three rival rate-law sets ...');
+  const cmp = await compareStudyParallel(study, { profile: false, workers: run.workers });
+  const comparison: Comparison = cmp.comparison;
+  const best = comparison.ranking[0].name;
+  const bestFit = cmp.fits.find((f) => f.variant === best)!;
+  const report = keepReport(run, await writeFitReport(fitReportData(study, bestFit, comparison), { outDir: run.outDir, baseName: 'pbr-compare', force: true }));
+  run.write('pbr-compare.txt', formatComparison(comparison) + '\n');
+  return {
+    best,
+    ranking: comparison.ranking.map((r) => ({ name: r.name, delta: r.delta, weight: r.akaikeWeight, converged: r.converged })),
+    verdict: comparison.verdict,
+    report,
+  };
+}
+
+/** 3. fit the best-supported set with profile intervals and write the hand-off file. */
+async function fitBestRateLaw(run: DemoRun, study: Study, best: string): Promise<{ result: DemoResult['fit']; handoffText: string }> {
+  run.log(`3/5 fit: '${best}' with profile-likelihood intervals ...`);
+  const sf = await fitStudyParallel(study, { variant: best, profile: true, workers: run.workers });
+  const handoffText = toJson(buildHandoff(study, sf)) + '\n';
+  const handoff = run.write('pbr-kinetics.json', handoffText);
+  const report = keepReport(run, await writeFitReport(fitReportData(study, sf), { outDir: run.outDir, baseName: 'pbr-fit', force: true }));
+  run.write('pbr-fit.txt', formatFit(study, sf) + '\n');
+  return {
+    result: {
+      study: study.title ?? 'packed bed',
+      status: sf.fit.status,
+      converged: sf.fit.success,
+      parameters: vsTruth(study, sf, run.truth.pbr.parameters, 'truth.json'),
+      report,
+      handoff,
+      lackOfFitP: sf.fit.statistics.lackOfFit?.pValue ?? null,
+    },
+    handoffText,
+  };
+}
+
+/** 4. size the production cases from the hand-off file as written. */
+async function sizeDemoCases(run: DemoRun, handoffText: string): Promise<DemoResult['sizing']> {
+  run.log('4/5 size: production cases with Monte Carlo uncertainty ...');
+  const h = parseHandoff(JSON.parse(handoffText));
+  const dk = kineticsFromHandoff(h);
+  const sizing: DemoResult['sizing'] = [];
+  for (const name of DEMO_CASES) {
+    const caseRaw = readJson(join(run.dataDir, 'pbr', `${name}.case.json`), 'case file');
+    const kase = loadCase(caseRaw, dk.kinetics.speciesNames, dk.kinetics.reactionIds);
+    const result: SizingResult = await sizeReactorParallel(
+      {
+        handoff: h,
+        kinetics: dk.kinetics,
+        kase,
+        ...(dk.molarMasses ? { molarMasses: dk.molarMasses } : {}),
+        options: run.draws !== undefined ? { draws: run.draws } : {},
+      },
+      { handoff: JSON.parse(handoffText), case: caseRaw },
+      { workers: run.workers },
+    );
+    const json = run.write(`${name}-sizing.json`, toJson(result) + '\n');
+    run.write(`${name}-sizing.txt`, formatSizing(result) + '\n');
+    const report = keepReport(run, await writeSizingReport(sizingReportData(result), { outDir: run.outDir, baseName: `${name}-sizing`, force: true }));
+    sizing.push(sizingLine(result, report, json));
+  }
+  return sizing;
+}
+
+/** The demo's summary of one sizing (its cautions and warnings kept whole). */
+function sizingLine(result: SizingResult, report: { html: string; markdown: string }, json: string): DemoResult['sizing'][number] {
+  const pct = (l: number) => result.uncertainty?.percentiles.find((p) => Math.abs(p.level - l) < 1e-9)?.value ?? null;
+  return {
+    case: result.case,
+    status: result.status,
+    success: result.success,
+    size: result.size?.value ?? null,
+    unit: result.size?.unit ?? null,
+    p90: pct(0.9),
+    p95: pct(0.95),
+    thermal: thermalLine(result),
+    warnings: result.warnings.map((x) => `[${x.code}] ${x.message}`),
+    cautions: result.cautions,
+    report,
+    json,
+  };
+}
+
+/** 5. fit the liquid batch and stirred-tank studies. */
+async function fitLiquidStudies(run: DemoRun): Promise<DemoStudyResult[]> {
+  run.log('5/5 fit: liquid batch and stirred-tank studies ...');
+  const liquids: DemoStudyResult[] = [];
+  for (const key of ['batch', 'cstr']) {
+    const ls = readStudy(join(run.dataDir, run.truth[key].study)).study;
+    const lf = await fitStudyParallel(ls, { profile: true, workers: run.workers });
+    const report = keepReport(run, await writeFitReport(fitReportData(ls, lf), { outDir: run.outDir, baseName: `${key}-fit`, force: true }));
+    run.write(`${key}-fit.txt`, formatFit(ls, lf) + '\n');
+    liquids.push({ study: ls.title ?? key, status: lf.fit.status, converged: lf.fit.success, parameters: vsTruth(ls, lf, run.truth[key].parameters, 'truth.json'), report });
+  }
+  return liquids;
 }
 
 /** One line on the energy-balance design of a sizing (null for an isothermal case). */
