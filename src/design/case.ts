@@ -26,7 +26,7 @@
 import { loadCasePellet, type CasePellet } from './case-pellet.js';
 import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import { OPTION_RANGES } from '../core/option-ranges.js';
-import { quantityToSI, type QuantityKind } from './case-units.js';
+import { quantityToSI, SI_UNIT, type QuantityKind } from './case-units.js';
 import { cpAt } from '../reactors/thermal/heat-capacity.js';
 import { loadThermalCase, THERMAL_FIELDS, type ThermalCase } from './heat-case.js';
 import { GAS_CONSTANT } from '../core/constants.js';
@@ -154,7 +154,7 @@ function num(v: unknown, path: FieldPath, lo: number, hi: number, what: string):
 
 function positive(raw: unknown, kind: QuantityKind, path: FieldPath, what: string): number {
   const v = quantityToSI(raw, kind, path);
-  if (!(v > 0)) throw new RateloomError('E_VALUE', `${what} must be positive (got ${v} in SI)`, { path });
+  if (!(v > 0)) throw new RateloomError('E_VALUE', `${what} must be positive (got ${v} ${SI_UNIT[kind]})`, { path, fix: `Give ${what} above zero.` });
   return v;
 }
 
@@ -174,6 +174,15 @@ function speciesIndex(name: unknown, species: readonly string[], path: FieldPath
 
 const TOP = ['name', 'reactor', 'feed', 'temperature', 'pressure', 'target', 'tubes', 'pressureDrop', 'bulkDensity', 'catalystLoading', 'heat', 'uncertainty', 'description', 'pellet'] as const;
 
+type Reactor = DesignCase['reactor'];
+
+/** Inlet composition: molar flows (flow reactors) or initial concentrations (batch), SI. */
+interface CaseFeed {
+  feed: Float64Array;
+  concentrations?: Float64Array;
+  volumetricFlow?: number;
+}
+
 /**
  * Validate a parsed case file against the hand-off species and reaction ids; return the case in SI.
  * @param raw parsed JSON
@@ -184,9 +193,56 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
   checkArgs('loadCase', [raw, species, reactionIds], [{ name: 'raw', check: is.json }, { name: 'species', check: is.stringList }, { name: 'reactionIds', check: is.stringList }]);
   const top = obj(raw, [], 'the case file');
   checkFields(top, TOP, []);
-  const name = need(top, 'name', [], 'Add "name": "a short label for the case".');
-  if (typeof name !== 'string' || !name.trim()) throw new RateloomError('E_TYPE', 'name must be a non-empty string', { path: ['name'] });
+  const name = caseName(top);
+  const reactor = caseReactor(top);
+  const temperature = positive(need(top, 'temperature', [], 'Add "temperature": "520 K".'), 'temperature', ['temperature'], 'temperature');
+  const pressure = inletPressure(top, reactor.phase);
+  const inlet = caseFeed(top, species, reactor, temperature, pressure);
+  const target = caseTarget(top, species, reactor.kind, inlet);
 
+  const out: DesignCase = {
+    name,
+    reactor,
+    feed: inlet.feed,
+    species: [...species],
+    temperature,
+    target,
+    uncertainty: { draws: DEFAULT_DRAWS, seed: DEFAULT_SEED, levels: [...DEFAULT_LEVELS], designLevel: DEFAULT_DESIGN_LEVEL },
+  };
+  if (pressure !== undefined) out.pressure = pressure;
+  if (inlet.volumetricFlow !== undefined) out.volumetricFlow = inlet.volumetricFlow;
+  if (inlet.concentrations) out.concentrations = inlet.concentrations;
+
+  if (top.tubes !== undefined) {
+    out.tubes = caseTubes(top.tubes, reactor, pressure);
+    out.bulkDensity = out.tubes.bulkDensity;
+  }
+  if (top.pressureDrop !== undefined) out.alpha = caseAlpha(top, reactor);
+  if (top.bulkDensity !== undefined) {
+    if (top.tubes !== undefined) throw new RateloomError('E_SCHEMA', 'bulk density is given in "tubes"; remove the top-level "bulkDensity"', { path: ['bulkDensity'] });
+    out.bulkDensity = positive(top.bulkDensity, 'density', ['bulkDensity'], 'bulk density');
+  }
+  if (top.catalystLoading !== undefined) out.catalystLoading = positive(top.catalystLoading, 'density', ['catalystLoading'], 'catalyst loading');
+  if (top.heat !== undefined) out.heat = loadHeat(obj(top.heat, ['heat'], 'heat'), out, reactionIds);
+  if (top.uncertainty !== undefined) readUncertainty(obj(top.uncertainty, ['uncertainty'], 'uncertainty'), out.uncertainty);
+  if (top.pellet !== undefined) {
+    if (reactor.kind !== 'packed-bed') throw new RateloomError('E_SCHEMA', 'a pellet applies only to a packed bed', { path: ['pellet'], fix: 'Remove "pellet" or size a packed bed.' });
+    out.pellet = loadCasePellet(top.pellet, species, out.tubes?.innerDiameter);
+  }
+  return out;
+}
+
+/** The case's label, trimmed. */
+function caseName(top: Obj): string {
+  const name = need(top, 'name', [], 'Add "name": "a short label for the case".');
+  if (typeof name !== 'string' || !name.trim()) {
+    throw new RateloomError('E_TYPE', 'name must be a non-empty string', { path: ['name'], fix: 'Give "name" a short label such as "Plant A, line 2".' });
+  }
+  return name.trim();
+}
+
+/** Reactor kind (one of the sizable kinds) and phase. */
+function caseReactor(top: Obj): Reactor {
   const r = obj(need(top, 'reactor', [], 'Add "reactor": { "kind": "packed-bed", "phase": "gas" }.'), ['reactor'], 'reactor');
   checkFields(r, ['kind', 'phase'], ['reactor']);
   const kinds: DesignReactorKind[] = ['packed-bed', 'plug-flow', 'stirred-tank', 'batch'];
@@ -200,70 +256,99 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
   }
   const phase = need(r, 'phase', ['reactor'], 'Give "gas" or "liquid".');
   if (phase !== 'gas' && phase !== 'liquid') {
-    throw new RateloomError('E_VALUE', `phase '${String(phase)}' must be 'gas' or 'liquid'`, { path: ['reactor', 'phase'] });
+    throw new RateloomError('E_VALUE', `phase '${String(phase)}' must be 'gas' or 'liquid'`, { path: ['reactor', 'phase'], fix: 'Give "gas" or "liquid".' });
   }
+  return { kind, phase };
+}
 
-  const temperature = positive(need(top, 'temperature', [], 'Add "temperature": "520 K".'), 'temperature', ['temperature'], 'temperature');
-  let pressure: number | undefined;
-  if (top.pressure !== undefined) pressure = positive(top.pressure, 'pressure', ['pressure'], 'pressure');
+/** Inlet pressure, Pa: required for a gas, optional for a liquid. */
+function inletPressure(top: Obj, phase: Reactor['phase']): number | undefined {
+  const pressure = top.pressure !== undefined ? positive(top.pressure, 'pressure', ['pressure'], 'pressure') : undefined;
   if (phase === 'gas' && pressure === undefined) {
     throw new RateloomError('E_MISSING_FIELD', 'a gas-phase case needs the inlet pressure', { path: ['pressure'], fix: 'Add "pressure": "10 bar".' });
   }
+  return pressure;
+}
 
-  // Feed.
-  const nS = species.length;
+/** The `feed` block: initial concentrations for a batch, molar flows (and liquid volumetric flow) otherwise. */
+function caseFeed(top: Obj, species: readonly string[], reactor: Reactor, temperature: number, pressure: number | undefined): CaseFeed {
   const f = obj(need(top, 'feed', [], 'Add "feed" with "totalFlow" and "moleFractions", or "flows".'), ['feed'], 'feed');
   checkFields(f, ['totalFlow', 'moleFractions', 'flows', 'volumetricFlow', 'concentrations'], ['feed']);
-  const feed = new Float64Array(nS);
-  let concentrations: Float64Array | undefined;
-  let volumetricFlow: number | undefined;
-  if (kind === 'batch') {
-    if (f.concentrations !== undefined) {
-      concentrations = new Float64Array(nS);
-      const c = obj(f.concentrations, ['feed', 'concentrations'], 'concentrations');
-      for (const [s, q] of Object.entries(c)) {
-        const i = speciesIndex(s, species, ['feed', 'concentrations', s]);
-        concentrations[i] = quantityToSI(q, 'concentration', ['feed', 'concentrations', s]);
-        if (concentrations[i] < 0) throw new RateloomError('E_VALUE', 'concentration must not be negative', { path: ['feed', 'concentrations', s] });
-      }
-    } else if (f.moleFractions !== undefined && phase === 'gas') {
-      const y = moleFractions(f.moleFractions, species);
-      const cT = pressure! / (GAS_CONSTANT * temperature);
-      concentrations = Float64Array.from(y, (v) => v * cT);
-    } else {
-      throw new RateloomError('E_MISSING_FIELD', 'a batch case needs the initial composition', {
-        path: ['feed', 'concentrations'],
-        fix: 'Add "concentrations": { "A": "2 mol/L" } (or, for gas, "moleFractions" with temperature and pressure).',
-      });
+  const feed = new Float64Array(species.length);
+  if (reactor.kind === 'batch') return { feed, concentrations: batchConcentrations(f, species, reactor.phase, temperature, pressure) };
+  feedFlows(f, species, feed);
+  if (reactor.phase !== 'liquid') return { feed };
+  const volumetricFlow = positive(
+    need(f, 'volumetricFlow', ['feed'], 'A liquid flow reactor needs "volumetricFlow": "2 m3/h".'),
+    'volumetricFlow',
+    ['feed', 'volumetricFlow'],
+    'volumetric flow',
+  );
+  return { feed, volumetricFlow };
+}
+
+/** Initial concentrations of a batch, mol/m3: given, or from gas mole fractions by the ideal-gas law. */
+function batchConcentrations(f: Obj, species: readonly string[], phase: Reactor['phase'], temperature: number, pressure: number | undefined): Float64Array {
+  if (f.concentrations !== undefined) {
+    const concentrations = new Float64Array(species.length);
+    const c = obj(f.concentrations, ['feed', 'concentrations'], 'concentrations');
+    for (const [s, q] of Object.entries(c)) {
+      const i = speciesIndex(s, species, ['feed', 'concentrations', s]);
+      concentrations[i] = quantityToSI(q, 'concentration', ['feed', 'concentrations', s]);
+      if (concentrations[i] < 0) throw new RateloomError('E_VALUE', 'concentration must not be negative', { path: ['feed', 'concentrations', s], fix: `Give the concentration of '${s}' as zero or above.` });
+    }
+    return concentrations;
+  }
+  if (f.moleFractions !== undefined && phase === 'gas') {
+    const y = moleFractions(f.moleFractions, species);
+    // A gas case always has its pressure (inletPressure).
+    const cT = (pressure as number) / (GAS_CONSTANT * temperature);
+    return Float64Array.from(y, (v) => v * cT);
+  }
+  throw new RateloomError('E_MISSING_FIELD', 'a batch case needs the initial composition', {
+    path: ['feed', 'concentrations'],
+    fix: 'Add "concentrations": { "A": "2 mol/L" } (or, for gas, "moleFractions" with temperature and pressure).',
+  });
+}
+
+/** Feed molar flows of a flow reactor into `feed`, mol/s: per species, or total flow times mole fractions. */
+function feedFlows(f: Obj, species: readonly string[], feed: Float64Array): void {
+  if (f.flows !== undefined) {
+    if (f.totalFlow !== undefined || f.moleFractions !== undefined) {
+      throw new RateloomError('E_SCHEMA', 'give either "flows" or "totalFlow" with "moleFractions", not both', { path: ['feed'] });
+    }
+    const fl = obj(f.flows, ['feed', 'flows'], 'flows');
+    for (const [s, q] of Object.entries(fl)) {
+      const i = speciesIndex(s, species, ['feed', 'flows', s]);
+      feed[i] = quantityToSI(q, 'molarFlow', ['feed', 'flows', s]);
+      if (feed[i] < 0) throw new RateloomError('E_VALUE', 'a feed flow must not be negative', { path: ['feed', 'flows', s], fix: `Give the flow of '${s}' as zero or above.` });
     }
   } else {
-    if (f.flows !== undefined) {
-      if (f.totalFlow !== undefined || f.moleFractions !== undefined) {
-        throw new RateloomError('E_SCHEMA', 'give either "flows" or "totalFlow" with "moleFractions", not both', { path: ['feed'] });
-      }
-      const fl = obj(f.flows, ['feed', 'flows'], 'flows');
-      for (const [s, q] of Object.entries(fl)) {
-        const i = speciesIndex(s, species, ['feed', 'flows', s]);
-        feed[i] = quantityToSI(q, 'molarFlow', ['feed', 'flows', s]);
-        if (feed[i] < 0) throw new RateloomError('E_VALUE', 'a feed flow must not be negative', { path: ['feed', 'flows', s] });
-      }
-    } else {
-      const total = positive(need(f, 'totalFlow', ['feed'], 'Add "totalFlow": "100 mol/s" and "moleFractions", or use "flows".'), 'molarFlow', ['feed', 'totalFlow'], 'total flow');
-      const y = moleFractions(need(f, 'moleFractions', ['feed'], 'Add "moleFractions": { "A": 0.5, ... }.'), species);
-      for (let i = 0; i < nS; i++) feed[i] = y[i] * total;
-    }
-    if (!(feed.reduce((a, b) => a + b, 0) > 0)) throw new RateloomError('E_VALUE', 'the feed is empty', { path: ['feed'] });
-    if (phase === 'liquid') {
-      volumetricFlow = positive(
-        need(f, 'volumetricFlow', ['feed'], 'A liquid flow reactor needs "volumetricFlow": "2 m3/h".'),
-        'volumetricFlow',
-        ['feed', 'volumetricFlow'],
-        'volumetric flow',
-      );
-    }
+    const total = positive(need(f, 'totalFlow', ['feed'], 'Add "totalFlow": "100 mol/s" and "moleFractions", or use "flows".'), 'molarFlow', ['feed', 'totalFlow'], 'total flow');
+    const y = moleFractions(need(f, 'moleFractions', ['feed'], 'Add "moleFractions": { "A": 0.5, ... }.'), species);
+    for (let i = 0; i < species.length; i++) feed[i] = y[i] * total;
   }
+  if (!(feed.reduce((a, b) => a + b, 0) > 0)) throw new RateloomError('E_VALUE', 'the feed is empty', { path: ['feed'], fix: 'Give at least one species a flow above zero.' });
+}
 
-  // Target.
+/** Mole fractions in species order; they must add up to 1. */
+function moleFractions(v: unknown, sp: readonly string[]): number[] {
+  const mf = obj(v, ['feed', 'moleFractions'], 'moleFractions');
+  const y = new Array<number>(sp.length).fill(0);
+  let sum = 0;
+  for (const [s, q] of Object.entries(mf)) {
+    const i = speciesIndex(s, sp, ['feed', 'moleFractions', s]);
+    y[i] = num(q, ['feed', 'moleFractions', s], 0, 1, 'mole fraction');
+    sum += y[i];
+  }
+  if (Math.abs(sum - 1) > 1e-6) {
+    throw new RateloomError('E_VALUE', `mole fractions sum to ${sum}, not 1`, { path: ['feed', 'moleFractions'], fix: 'Make the mole fractions add up to 1.' });
+  }
+  return y;
+}
+
+/** The `target` block: exactly one of conversion, production and size. */
+function caseTarget(top: Obj, species: readonly string[], kind: DesignReactorKind, inlet: CaseFeed): DesignTarget {
   const t = obj(need(top, 'target', [], 'Add "target": { "conversion": 0.8, "species": "A" }.'), ['target'], 'target');
   checkFields(t, ['conversion', 'production', 'size', 'species'], ['target']);
   const given = ['conversion', 'production', 'size'].filter((k) => t[k] !== undefined);
@@ -273,135 +358,104 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
       fix: 'Give "conversion" (with "species"), "production" (with "species"), or "size".',
     });
   }
-  let target: DesignTarget;
   if (t.conversion !== undefined) {
     const sp = need(t, 'species', ['target'], 'Name the key reactant: "species": "A".') as string;
     const i = speciesIndex(sp, species, ['target', 'species']);
     const X = num(t.conversion, ['target', 'conversion'], 0, 1, 'target conversion');
-    if (!(X > 0 && X < 1)) throw new RateloomError('E_VALUE', 'target conversion must lie strictly between 0 and 1', { path: ['target', 'conversion'] });
-    const inlet = kind === 'batch' ? concentrations![i] : feed[i];
-    if (!(inlet > 0)) throw new RateloomError('E_VALUE', `the key reactant '${sp}' is not in the feed`, { path: ['target', 'species'], fix: 'Choose a species present in the feed.' });
-    target = { kind: 'conversion', species: sp, value: X };
-  } else if (t.production !== undefined) {
+    if (!(X > 0 && X < 1)) throw new RateloomError('E_VALUE', 'target conversion must lie strictly between 0 and 1', { path: ['target', 'conversion'], fix: 'Give a conversion such as 0.8.' });
+    // A batch always has its concentrations (batchConcentrations).
+    const amount = kind === 'batch' ? (inlet.concentrations as Float64Array)[i] : inlet.feed[i];
+    if (!(amount > 0)) throw new RateloomError('E_VALUE', `the key reactant '${sp}' is not in the feed`, { path: ['target', 'species'], fix: 'Choose a species present in the feed.' });
+    return { kind: 'conversion', species: sp, value: X };
+  }
+  if (t.production !== undefined) {
     const sp = need(t, 'species', ['target'], 'Name the product: "species": "C".') as string;
     speciesIndex(sp, species, ['target', 'species']);
     const kindQ: QuantityKind = kind === 'batch' ? 'concentration' : 'molarFlow';
-    target = { kind: 'production', species: sp, value: positive(t.production, kindQ, ['target', 'production'], 'production target') };
-  } else {
-    const kq: QuantityKind = kind === 'packed-bed' ? 'mass' : kind === 'batch' ? 'time' : 'volume';
-    target = { kind: 'size', value: positive(t.size, kq, ['target', 'size'], 'size') };
+    return { kind: 'production', species: sp, value: positive(t.production, kindQ, ['target', 'production'], 'production target') };
   }
+  const kq: QuantityKind = kind === 'packed-bed' ? 'mass' : kind === 'batch' ? 'time' : 'volume';
+  return { kind: 'size', value: positive(t.size, kq, ['target', 'size'], 'size') };
+}
 
-  const out: DesignCase = {
-    name: name.trim(),
-    reactor: { kind, phase },
-    feed,
-    species: [...species],
-    temperature,
-    target,
-    uncertainty: { draws: DEFAULT_DRAWS, seed: DEFAULT_SEED, levels: [...DEFAULT_LEVELS], designLevel: DEFAULT_DESIGN_LEVEL },
+/** The `tubes` block of a gas packed bed, SI. */
+function caseTubes(raw: unknown, reactor: Reactor, pressure: number | undefined): TubeSpec {
+  if (reactor.kind !== 'packed-bed' || reactor.phase !== 'gas') {
+    throw new RateloomError('E_SCHEMA', 'tubes apply only to a gas-phase packed bed', { path: ['tubes'], fix: 'Remove "tubes" or use a gas packed-bed reactor.' });
+  }
+  const tb = obj(raw, ['tubes'], 'tubes');
+  const names = ['innerDiameter', 'particleDiameter', 'voidFraction', 'bulkDensity', 'particleDensity', 'viscosity', 'allowedPressureDrop'] as const;
+  checkFields(tb, names, ['tubes']);
+  const p = (k: (typeof names)[number], q: QuantityKind) => positive(need(tb, k, ['tubes'], `Add "${k}".`), q, ['tubes', k], k);
+  const tubes: TubeSpec = {
+    innerDiameter: p('innerDiameter', 'length'),
+    particleDiameter: p('particleDiameter', 'length'),
+    voidFraction: num(need(tb, 'voidFraction', ['tubes'], 'Add "voidFraction": 0.4.'), ['tubes', 'voidFraction'], 0.05, 0.95, 'void fraction'),
+    bulkDensity: p('bulkDensity', 'density'),
+    particleDensity: p('particleDensity', 'density'),
+    viscosity: p('viscosity', 'viscosity'),
+    allowedPressureDrop: p('allowedPressureDrop', 'pressure'),
   };
-  if (pressure !== undefined) out.pressure = pressure;
-  if (volumetricFlow !== undefined) out.volumetricFlow = volumetricFlow;
-  if (concentrations) out.concentrations = concentrations;
-
-  if (top.tubes !== undefined) {
-    if (kind !== 'packed-bed' || phase !== 'gas') {
-      throw new RateloomError('E_SCHEMA', 'tubes apply only to a gas-phase packed bed', { path: ['tubes'], fix: 'Remove "tubes" or use a gas packed-bed reactor.' });
-    }
-    const tb = obj(top.tubes, ['tubes'], 'tubes');
-    const names = ['innerDiameter', 'particleDiameter', 'voidFraction', 'bulkDensity', 'particleDensity', 'viscosity', 'allowedPressureDrop'] as const;
-    checkFields(tb, names, ['tubes']);
-    const p = (k: (typeof names)[number], q: QuantityKind) => positive(need(tb, k, ['tubes'], `Add "${k}".`), q, ['tubes', k], k);
-    const tubes: TubeSpec = {
-      innerDiameter: p('innerDiameter', 'length'),
-      particleDiameter: p('particleDiameter', 'length'),
-      voidFraction: num(need(tb, 'voidFraction', ['tubes'], 'Add "voidFraction": 0.4.'), ['tubes', 'voidFraction'], 0.05, 0.95, 'void fraction'),
-      bulkDensity: p('bulkDensity', 'density'),
-      particleDensity: p('particleDensity', 'density'),
-      viscosity: p('viscosity', 'viscosity'),
-      allowedPressureDrop: p('allowedPressureDrop', 'pressure'),
-    };
-    if (tubes.particleDiameter >= tubes.innerDiameter) {
-      throw new RateloomError('E_VALUE', 'the particle diameter is not smaller than the tube diameter', { path: ['tubes', 'particleDiameter'] });
-    }
-    if (tubes.allowedPressureDrop >= pressure!) {
-      throw new RateloomError('E_VALUE', 'the allowed pressure drop is not below the inlet pressure', { path: ['tubes', 'allowedPressureDrop'] });
-    }
-    out.tubes = tubes;
-    out.bulkDensity = tubes.bulkDensity;
+  if (tubes.particleDiameter >= tubes.innerDiameter) {
+    throw new RateloomError('E_VALUE', `the particle diameter (${tubes.particleDiameter} m) is not smaller than the tube diameter (${tubes.innerDiameter} m)`, {
+      path: ['tubes', 'particleDiameter'],
+      fix: 'Give a particle diameter well below the tube inner diameter.',
+    });
   }
-  if (top.pressureDrop !== undefined) {
-    if (top.tubes !== undefined) throw new RateloomError('E_SCHEMA', 'give "tubes" or "pressureDrop", not both', { path: ['pressureDrop'], fix: 'With tubes, alpha is computed from the Ergun equation; remove "pressureDrop".' });
-    if (phase !== 'gas' || (kind !== 'packed-bed' && kind !== 'plug-flow')) {
-      throw new RateloomError('E_SCHEMA', 'pressure drop applies only to gas packed beds and plug-flow reactors', { path: ['pressureDrop'] });
-    }
-    const pd = obj(top.pressureDrop, ['pressureDrop'], 'pressureDrop');
-    checkFields(pd, ['alpha'], ['pressureDrop']);
-    const a = quantityToSI(need(pd, 'alpha', ['pressureDrop'], 'Add "alpha": "0.002 1/kg".'), kind === 'packed-bed' ? 'alphaMass' : 'alphaVolume', ['pressureDrop', 'alpha']);
-    if (!(a >= 0)) throw new RateloomError('E_VALUE', 'alpha must not be negative', { path: ['pressureDrop', 'alpha'] });
-    out.alpha = a;
+  // A gas case always has its pressure (inletPressure).
+  const inlet = pressure as number;
+  if (tubes.allowedPressureDrop >= inlet) {
+    throw new RateloomError('E_VALUE', `the allowed pressure drop (${tubes.allowedPressureDrop} Pa) is not below the inlet pressure (${inlet} Pa)`, {
+      path: ['tubes', 'allowedPressureDrop'],
+      fix: 'Give an allowed pressure drop below the inlet pressure.',
+    });
   }
-  if (top.bulkDensity !== undefined) {
-    if (top.tubes !== undefined) throw new RateloomError('E_SCHEMA', 'bulk density is given in "tubes"; remove the top-level "bulkDensity"', { path: ['bulkDensity'] });
-    out.bulkDensity = positive(top.bulkDensity, 'density', ['bulkDensity'], 'bulk density');
+  return tubes;
+}
+
+/** The pressure-drop parameter alpha given directly: 1/kg (packed bed) or 1/m3 (plug flow). */
+function caseAlpha(top: Obj, reactor: Reactor): number {
+  if (top.tubes !== undefined) throw new RateloomError('E_SCHEMA', 'give "tubes" or "pressureDrop", not both', { path: ['pressureDrop'], fix: 'With tubes, alpha is computed from the Ergun equation; remove "pressureDrop".' });
+  if (reactor.phase !== 'gas' || (reactor.kind !== 'packed-bed' && reactor.kind !== 'plug-flow')) {
+    throw new RateloomError('E_SCHEMA', 'pressure drop applies only to gas packed beds and plug-flow reactors', { path: ['pressureDrop'], fix: 'Remove "pressureDrop" for this reactor.' });
   }
-  if (top.catalystLoading !== undefined) out.catalystLoading = positive(top.catalystLoading, 'density', ['catalystLoading'], 'catalyst loading');
+  const pd = obj(top.pressureDrop, ['pressureDrop'], 'pressureDrop');
+  checkFields(pd, ['alpha'], ['pressureDrop']);
+  const a = quantityToSI(need(pd, 'alpha', ['pressureDrop'], 'Add "alpha": "0.002 1/kg".'), reactor.kind === 'packed-bed' ? 'alphaMass' : 'alphaVolume', ['pressureDrop', 'alpha']);
+  if (!(a >= 0)) throw new RateloomError('E_VALUE', 'alpha must not be negative', { path: ['pressureDrop', 'alpha'], fix: 'Give alpha as zero or above.' });
+  return a;
+}
 
-  if (top.heat !== undefined) out.heat = loadHeat(obj(top.heat, ['heat'], 'heat'), out, reactionIds);
-
-  if (top.uncertainty !== undefined) {
-    const u = obj(top.uncertainty, ['uncertainty'], 'uncertainty');
-    checkFields(u, ['draws', 'seed', 'levels', 'designLevel'], ['uncertainty']);
-    if (u.draws !== undefined) {
-      const d = num(u.draws, ['uncertainty', 'draws'], 0, OPTION_RANGES.draws.max, 'draws');
-      if (!Number.isInteger(d)) throw new RateloomError('E_VALUE', 'draws must be a whole number', { path: ['uncertainty', 'draws'] });
-      out.uncertainty.draws = d;
-    }
-    if (u.seed !== undefined) {
-      const s = num(u.seed, ['uncertainty', 'seed'], 0, OPTION_RANGES.seed.max, 'seed');
-      if (!Number.isInteger(s)) throw new RateloomError('E_VALUE', 'seed must be a whole number', { path: ['uncertainty', 'seed'] });
-      out.uncertainty.seed = s;
-    }
-    if (u.levels !== undefined) {
-      if (!Array.isArray(u.levels) || u.levels.length === 0) throw new RateloomError('E_TYPE', 'levels must be a non-empty list such as [0.9, 0.95]', { path: ['uncertainty', 'levels'] });
-      out.uncertainty.levels = u.levels.map((l, i) => {
-        const v = num(l, ['uncertainty', 'levels', i], 0, 1, 'level');
-        if (!(v > 0.5 && v < 1)) throw new RateloomError('E_VALUE', `level ${v} must lie between 0.5 and 1 (for example 0.9 for P90)`, { path: ['uncertainty', 'levels', i] });
-        return v;
+/** The `uncertainty` block, written over the defaults in `u`. */
+function readUncertainty(raw: Obj, u: DesignCase['uncertainty']): void {
+  checkFields(raw, ['draws', 'seed', 'levels', 'designLevel'], ['uncertainty']);
+  if (raw.draws !== undefined) u.draws = wholeNumber(raw.draws, 'draws', OPTION_RANGES.draws.max);
+  if (raw.seed !== undefined) u.seed = wholeNumber(raw.seed, 'seed', OPTION_RANGES.seed.max);
+  if (raw.levels !== undefined) {
+    if (!Array.isArray(raw.levels) || raw.levels.length === 0) throw new RateloomError('E_TYPE', 'levels must be a non-empty list such as [0.9, 0.95]', { path: ['uncertainty', 'levels'] });
+    u.levels = raw.levels.map((l, i) => {
+      const v = num(l, ['uncertainty', 'levels', i], 0, 1, 'level');
+      if (!(v > 0.5 && v < 1)) throw new RateloomError('E_VALUE', `level ${v} must lie between 0.5 and 1 (for example 0.9 for P90)`, { path: ['uncertainty', 'levels', i] });
+      return v;
+    });
+  }
+  if (raw.designLevel !== undefined) {
+    const v = num(raw.designLevel, ['uncertainty', 'designLevel'], 0, 1, 'design level');
+    if (!(v >= 0.5 && v < 1)) {
+      throw new RateloomError('E_VALUE', `design level ${v} must lie in [0.5, 1)`, {
+        path: ['uncertainty', 'designLevel'],
+        fix: 'Give the percentile the tubes are designed for as a fraction, for example 0.95 for P95 (0.5 designs for the median).',
       });
     }
-    if (u.designLevel !== undefined) {
-      const v = num(u.designLevel, ['uncertainty', 'designLevel'], 0, 1, 'design level');
-      if (!(v >= 0.5 && v < 1)) {
-        throw new RateloomError('E_VALUE', `design level ${v} must lie in [0.5, 1)`, {
-          path: ['uncertainty', 'designLevel'],
-          fix: 'Give the percentile the tubes are designed for as a fraction, for example 0.95 for P95 (0.5 designs for the median).',
-        });
-      }
-      out.uncertainty.designLevel = v;
-    }
+    u.designLevel = v;
   }
-  if (top.pellet !== undefined) {
-    if (kind !== 'packed-bed') throw new RateloomError('E_SCHEMA', 'a pellet applies only to a packed bed', { path: ['pellet'], fix: 'Remove "pellet" or size a packed bed.' });
-    out.pellet = loadCasePellet(top.pellet, species, out.tubes?.innerDiameter);
-  }
-  return out;
+}
 
-  function moleFractions(v: unknown, sp: readonly string[]): number[] {
-    const mf = obj(v, ['feed', 'moleFractions'], 'moleFractions');
-    const y = new Array<number>(sp.length).fill(0);
-    let sum = 0;
-    for (const [s, q] of Object.entries(mf)) {
-      const i = speciesIndex(s, sp, ['feed', 'moleFractions', s]);
-      y[i] = num(q, ['feed', 'moleFractions', s], 0, 1, 'mole fraction');
-      sum += y[i];
-    }
-    if (Math.abs(sum - 1) > 1e-6) {
-      throw new RateloomError('E_VALUE', `mole fractions sum to ${sum}, not 1`, { path: ['feed', 'moleFractions'], fix: 'Make the mole fractions add up to 1.' });
-    }
-    return y;
-  }
+/** A whole number in [0, max] at uncertainty.<key>. */
+function wholeNumber(raw: unknown, key: 'draws' | 'seed', max: number): number {
+  const v = num(raw, ['uncertainty', key], 0, max, key);
+  if (!Number.isInteger(v)) throw new RateloomError('E_VALUE', `${key} must be a whole number`, { path: ['uncertainty', key], fix: `Give ${key} without a fractional part.` });
+  return v;
 }
 
 /** The `heat` block: enthalpies, the mean heat capacity and, with `mode`, the energy-balance inputs. */

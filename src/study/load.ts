@@ -4,7 +4,7 @@
  * ValidationReport. Pure apart from the injected `readFile`.
  */
 import { dirname } from 'node:path';
-import { buildChemistry } from '../chemistry/mechanism.js';
+import { buildChemistry, type Chemistry } from '../chemistry/mechanism.js';
 import type { SpeciesSpec } from '../chemistry/spec.js';
 import type { ReactionSpec } from '../kinetics/spec.js';
 import { RateloomError, isRateloomError } from '../core/errors.js';
@@ -12,10 +12,11 @@ import { parseJsonText } from '../core/json-text.js';
 import type { RateLawSpec } from '../kinetics/spec.js';
 import type { ReactorSpec } from '../reactors/types.js';
 import { unitFor } from '../units/index.js';
-import { mapLongSource, mapPerRunSource, type MappedObservation, type MappedRun, type MappedSource, type RowLocation } from '../data/mapping.js';
-import { DEFAULT_CHECKS, type CheckSettings } from '../data/report.js';
+import type { CsvTable } from '../data/csv.js';
+import { mapLongSource, mapPerRunSource, type MappingContext, type MappedObservation, type MappedRun, type MappedSource, type RowLocation } from '../data/mapping.js';
+import { DEFAULT_CHECKS, type CheckSettings, type PureError } from '../data/report.js';
 import type { LongSourceSpec, MeasureSpec, PerRunSourceSpec, SourceSpec } from '../data/spec.js';
-import { Ledger, assertNoRejections, buildReport, checkAboveInlet, checkElementBalance, findReplicates, mergeDuplicateRuns, pureErrors, rejectZeroFeeds } from '../data/validation.js';
+import { Ledger, type InletCheckContext, assertNoRejections, buildReport, checkAboveInlet, checkElementBalance, findReplicates, mergeDuplicateRuns, pureErrors, rejectZeroFeeds } from '../data/validation.js';
 import schemaJson from '../../schema/study.schema.json' with { type: 'json' };
 import { checkSchema, type JsonSchema } from './schema-check.js';
 import { loadTransport } from './transport.js';
@@ -224,21 +225,70 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   const chemistry = buildChemistry(raw.species, raw.reactions);
   checkOrderSpecies(raw.reactions.map((r) => r.rate), chemistry, (i) => ['reactions', i, 'rate']);
   const speciesNames = chemistry.speciesNames;
-  const nS = speciesNames.length;
-  const settings: CheckSettings = {
-    ...DEFAULT_CHECKS,
-    ...(raw.checks?.elementBalanceTolerance !== undefined ? { elementBalanceTolerance: raw.checks.elementBalanceTolerance } : {}),
-    ...(raw.checks?.noiseSigmas !== undefined ? { noiseSigmas: raw.checks.noiseSigmas } : {}),
-    ...(raw.checks?.replicateTolerance !== undefined ? { replicateTolerance: raw.checks.replicateTolerance } : {}),
-  };
-  const strict = options.strict ?? raw.checks?.strict ?? false;
+  const settings = checkSettings(raw.checks);
   const reactor = reactorSpec(raw.reactor, speciesNames);
   const models = errorModels(raw.errorModels);
-  const modelNames = Object.keys(models);
+  const keyReactantIndex = keyReactantOf(raw.keyReactant, chemistry);
+  const data = readData(raw, studyPath, readFile, options, { speciesNames, reactor, errorModelNames: Object.keys(models), settings });
+  const inletCtx: InletCheckContext = { kind: reactor.kind, phase: reactor.phase, reactant: reactantFlags(chemistry), sigmaOf: sigmaFor(models), settings };
+  const rows = checkPerRunRows(data, models, chemistry, inletCtx);
+  addLongSources(raw.data, data, rows, inletCtx);
+  const { runs, observations, runIndex } = settleRunSizes(rows.runs, rows.observations, data.ledger);
+  checkModelUnits(models, observations);
+  const replicateGroups = findReplicates(runs, settings.replicateTolerance);
+  const pure = pureErrors(observations, replicateGroups);
+  const report = buildReport(data.ledger, replicateGroups, pure, settings);
+  if (options.strict ?? raw.checks?.strict ?? false) assertNoRejections(report);
+  const studyObs = observationsWithSigma(observations, models, pure, runIndex);
+  const studyRuns = runs.map(studyRun);
+  const reference = referenceTemperatureOf(raw.referenceTemperature, studyRuns);
+  const { base, candidates } = studyParameters(raw, chemistry, studyRuns);
+  checkRateBases(studyObs, raw.reactions, candidates, chemistry, keyReactantIndex);
 
-  // Reactants: consumed by some reaction, produced by none, not inert.
+  const study: Study = {
+    ...(raw.title !== undefined ? { title: raw.title } : {}),
+    studyPath,
+    species: raw.species,
+    reactions: raw.reactions,
+    chemistry,
+    keyReactant: speciesNames[keyReactantIndex],
+    keyReactantIndex,
+    reactor,
+    referenceTemperature: reference.value,
+    referenceTemperatureSource: reference.source,
+    parameters: base.parameters,
+    scopes: base.scopes,
+    ...(base.autoStart.length ? { autoStart: base.autoStart } : {}),
+    runs: studyRuns,
+    observations: studyObs,
+    errorModels: models,
+    candidates,
+    replicateGroups,
+    ...(raw.transport !== undefined ? { transport: loadTransport(raw.transport, speciesNames, raw.reactions.map((r) => r.id)) } : {}),
+    sources: raw.data,
+  };
+  study.referenceTemperatureApplies = referenceTemperatureMatters(study);
+  const notes = data.perRun.flatMap((m) => m.rateNotes ?? []);
+  if (notes.length) study.rateNotes = notes;
+  const labCtx = { baseDir: dirname(studyPath), readFile, definedRunIds: perRunIds(data.tables, raw.data) };
+  return { study: attachLabData(study, raw.labData, raw.activity, labCtx), report };
+}
+
+/** The study's data checks: the defaults with the values the study gives. */
+function checkSettings(checks: RawStudy['checks']): CheckSettings {
+  return {
+    ...DEFAULT_CHECKS,
+    ...(checks?.elementBalanceTolerance !== undefined ? { elementBalanceTolerance: checks.elementBalanceTolerance } : {}),
+    ...(checks?.noiseSigmas !== undefined ? { noiseSigmas: checks.noiseSigmas } : {}),
+    ...(checks?.replicateTolerance !== undefined ? { replicateTolerance: checks.replicateTolerance } : {}),
+  };
+}
+
+/** Per species: a reactant (consumed by some reaction, produced by none, not inert). */
+function reactantFlags(chemistry: Chemistry): boolean[] {
+  const nS = chemistry.speciesNames.length;
   const nR = chemistry.reactionIds.length;
-  const reactant = speciesNames.map((_, j) => {
+  return chemistry.speciesNames.map((_, j) => {
     let consumed = false;
     for (let i = 0; i < nR; i++) {
       const nu = chemistry.stoich[i * nS + j];
@@ -247,58 +297,105 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     }
     return consumed && !chemistry.inert[j];
   });
-  let keyReactantIndex: number;
-  if (raw.keyReactant !== undefined) {
-    keyReactantIndex = speciesNames.indexOf(raw.keyReactant);
-    if (keyReactantIndex < 0) throw new RateloomError('E_UNKNOWN_SPECIES', `key reactant '${raw.keyReactant}' is not a declared species`, { path: ['keyReactant'] });
-  } else {
-    keyReactantIndex = speciesNames.findIndex((_, j) => chemistry.reactantCoefficients[j] > 0);
-    if (keyReactantIndex < 0) keyReactantIndex = 0;
-  }
+}
 
-  // Data sources.
-  const baseDir = dirname(studyPath);
+/** Index of the key reactant: the one named, else the first species with a reactant coefficient, else 0. */
+function keyReactantOf(name: string | undefined, chemistry: Chemistry): number {
+  const speciesNames = chemistry.speciesNames;
+  if (name !== undefined) {
+    const j = speciesNames.indexOf(name);
+    if (j < 0) {
+      throw new RateloomError('E_UNKNOWN_SPECIES', `key reactant '${name}' is not a declared species`, { path: ['keyReactant'], fix: `Name one of: ${speciesNames.join(', ')}.` });
+    }
+    return j;
+  }
+  const j = speciesNames.findIndex((_, k) => chemistry.reactantCoefficients[k] > 0);
+  return j < 0 ? 0 : j;
+}
+
+/** The CSV sources read and their per-run sources mapped, with the ledger of rejected rows. */
+interface SourceData {
+  tables: CsvTable[];
+  ledger: Ledger;
+  /** Mapping context of source i. */
+  ctxFor: (i: number) => MappingContext;
+  perRun: MappedSource[];
+  /** Every run row of the per-run sources, before merging repeats. */
+  allRuns: MappedRun[];
+  /** Runs with repeated rows of equal conditions merged. */
+  runs: MappedRun[];
+}
+
+/** Read every source, map the per-run ones (run conditions), reject zero feeds and merge repeated runs. */
+function readData(
+  raw: RawStudy,
+  studyPath: string,
+  readFile: (absPath: string) => string,
+  options: LoadOptions,
+  setup: { speciesNames: readonly string[]; reactor: ReactorSpec; errorModelNames: readonly string[]; settings: CheckSettings },
+): SourceData {
+  const { speciesNames, reactor, errorModelNames, settings } = setup;
   const tables = readSources(raw.data, studyPath, readFile, options);
   const ledger = new Ledger();
   raw.data.forEach((s, i) => ledger.addSource(s.file, s.layout, tables[i].rows.length));
   const parameterStart = parameterStartFor(raw.parameters);
-  const ctxFor = (i: number) => ({ speciesNames, kind: reactor.kind, phase: reactor.phase, errorModelNames: modelNames, path: ['data', i], parameterStart });
+  const ctxFor = (i: number): MappingContext => ({ speciesNames, kind: reactor.kind, phase: reactor.phase, errorModelNames, path: ['data', i], parameterStart });
 
   const perRun: MappedSource[] = [];
   raw.data.forEach((s, i) => {
     if (s.layout === 'per-run') perRun.push(mapPerRunSource(tables[i], s as PerRunSourceSpec, ctxFor(i)));
   });
   for (const m of perRun) ledger.reject(...m.rejections);
-  if (!perRun.length) throw new RateloomError('E_MISSING_FIELD', 'the data need at least one per-run source (run conditions)', { path: ['data'] });
-
+  if (!perRun.length) {
+    throw new RateloomError('E_MISSING_FIELD', 'the data need at least one per-run source (run conditions)', { path: ['data'], fix: 'Add a source with "layout": "per-run" giving each run\'s conditions.' });
+  }
   // Plain loops instead of flatMap and map-to-pairs: these run over every row and observation.
   const allRuns: MappedRun[] = [];
   for (const m of perRun) for (const r of m.runs) allRuns.push(r);
   rejectZeroFeeds(allRuns, reactor.kind, ledger);
-  let runs = mergeDuplicateRuns(allRuns, ledger, settings.replicateTolerance);
-  // An absolute sigma must be in a unit of the responses that use it.
-  const checkModelUnits = (list: readonly MappedObservation[]) => {
-    for (const o of list) {
-      const em = models[o.errorModel ?? DEFAULT_ERROR_MODEL];
-      if (em.unit !== undefined && em.unit !== o.unit) {
-        throw new RateloomError('E_UNIT', `error model '${em.name}' has an absolute sigma in ${em.unit}, but it is used for ${o.response} values in ${o.unit}`, {
-          path: ['errorModels', em.name, 'absolute', 'unit'],
-          fix: `Give the absolute sigma in a ${o.response} unit, or use a separate error model for each response.`,
-        });
-      }
+  const runs = mergeDuplicateRuns(allRuns, ledger, settings.replicateTolerance);
+  return { tables, ledger, ctxFor, perRun, allRuns, runs };
+}
+
+/** An absolute sigma must be in a unit of the responses that use it. */
+function checkModelUnits(models: Record<string, ErrorModel>, list: readonly MappedObservation[]): void {
+  for (const o of list) {
+    const em = models[o.errorModel ?? DEFAULT_ERROR_MODEL];
+    if (em.unit !== undefined && em.unit !== o.unit) {
+      throw new RateloomError('E_UNIT', `error model '${em.name}' has an absolute sigma in ${em.unit}, but it is used for ${o.response} values in ${o.unit}`, {
+        path: ['errorModels', em.name, 'absolute', 'unit'],
+        fix: `Give the absolute sigma in a ${o.response} unit, or use a separate error model for each response.`,
+      });
     }
-  };
-  for (const m of perRun) checkModelUnits(m.observations);
-  const sigmaOf = (o: MappedObservation): number | undefined => {
+  }
+}
+
+/** Sigma of an observation when known before the fit: its sigma column, else a fixed error model. */
+function sigmaFor(models: Record<string, ErrorModel>): (o: MappedObservation) => number | undefined {
+  return (o) => {
     if (o.sigma !== undefined) return o.sigma;
     const m = models[o.errorModel ?? DEFAULT_ERROR_MODEL];
     return m && m.kind !== 'replicates' ? sigmaFromModel(m, o.value) : undefined;
   };
-  const inletCtx = { kind: reactor.kind, phase: reactor.phase, reactant, sigmaOf, settings };
-  const runById = new Map<string, MappedRun>();
-  for (const r of runs) runById.set(r.id, r);
+}
 
-  // Per-run observations: drop those of rejected rows, then physical checks row by row.
+/** Runs and observations that survive the row checks, and the runs rejected (with where). */
+interface CheckedRows {
+  runs: MappedRun[];
+  runById: Map<string, MappedRun>;
+  observations: MappedObservation[];
+  rejectedRuns: Map<string, RowLocation>;
+}
+
+/**
+ * Per-run observations: drop those of rejected rows, then physical checks row by row (outlet above
+ * inlet, element balance); a rejected run takes its other rows and its observations with it.
+ */
+function checkPerRunRows(data: SourceData, models: Record<string, ErrorModel>, chemistry: Chemistry, inletCtx: InletCheckContext): CheckedRows {
+  const { ledger, perRun } = data;
+  for (const m of perRun) checkModelUnits(models, m.observations);
+  const runById = new Map<string, MappedRun>();
+  for (const r of data.runs) runById.set(r.id, r);
   let observations: MappedObservation[] = [];
   for (const m of perRun) for (const o of m.observations) if (!ledger.isRejected(o.location)) observations.push(o);
   for (const list of rowGroups(observations, new Set(perRun.map((m) => m.file)).size === perRun.length)) {
@@ -312,55 +409,60 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     if (eb) ledger.reject(eb);
   }
   const rejectedRuns = new Map<string, RowLocation>();
-  runs = runs.filter((r) => {
+  const runs = data.runs.filter((r) => {
     if (!ledger.isRejected(r.location)) return true;
     rejectedRuns.set(r.id, r.location);
     return false;
   });
   // Other rows of a rejected run (repeated rows with equal conditions) go with it.
-  for (const r of allRuns) {
+  for (const r of data.allRuns) {
     const at = rejectedRuns.get(r.id);
     if (at && !ledger.isRejected(r.location)) ledger.reject({ file: r.location.file, line: r.location.line, reason: 'run-rejected', message: `run '${r.id}' was rejected (${at.file}:${at.line})` });
   }
   observations = observations.filter((o) => !ledger.isRejected(o.location) && !rejectedRuns.has(o.runId));
+  return { runs, runById, observations, rejectedRuns };
+}
 
-  // Long sources, against the surviving runs.
+/** Long sources, mapped against the surviving runs; their observations checked and added to `rows`. */
+function addLongSources(sources: readonly SourceSpec[], data: SourceData, rows: CheckedRows, inletCtx: InletCheckContext): void {
   const known = new Set<string>();
-  if (raw.data.some((s) => s.layout === 'long')) for (const r of runs) known.add(r.id);
-  raw.data.forEach((s, i) => {
+  if (sources.some((s) => s.layout === 'long')) for (const r of rows.runs) known.add(r.id);
+  sources.forEach((s, i) => {
     if (s.layout !== 'long') return;
-    const m = mapLongSource(tables[i], s as LongSourceSpec, ctxFor(i), known, rejectedRuns);
-    ledger.reject(...m.rejections);
+    const m = mapLongSource(data.tables[i], s as LongSourceSpec, data.ctxFor(i), known, rows.rejectedRuns);
+    data.ledger.reject(...m.rejections);
     for (const o of m.observations) {
-      const bad = checkAboveInlet(o, runById.get(o.runId) as MappedRun, inletCtx);
-      if (bad) ledger.reject(bad);
-      else observations.push(o);
+      const bad = checkAboveInlet(o, rows.runById.get(o.runId) as MappedRun, inletCtx);
+      if (bad) data.ledger.reject(bad);
+      else rows.observations.push(o);
     }
   });
+}
 
-  // Batch and semibatch runs take their size (time) from the last profile point when not given.
+/**
+ * Batch and semibatch runs take their size (time) from the last profile point when not given; a run
+ * with neither (and not rates only) is rejected with its observations. Returns what is left, indexed.
+ */
+function settleRunSizes(checked: readonly MappedRun[], observed: readonly MappedObservation[], ledger: Ledger): { runs: MappedRun[]; observations: MappedObservation[]; runIndex: Map<string, number> } {
   const maxPos = new Map<string, number>();
-  for (const o of observations) if (o.position !== undefined) maxPos.set(o.runId, Math.max(maxPos.get(o.runId) ?? 0, o.position));
-  runs = runs.map((r) => (r.size !== undefined ? r : maxPos.has(r.id) ? { ...r, size: maxPos.get(r.id) as number } : r));
-  const rateOnly = ratesOnlyRuns(observations);
-  for (const r of runs) {
+  for (const o of observed) if (o.position !== undefined) maxPos.set(o.runId, Math.max(maxPos.get(o.runId) ?? 0, o.position));
+  const sized = checked.map((r) => (r.size !== undefined ? r : maxPos.has(r.id) ? { ...r, size: maxPos.get(r.id) as number } : r));
+  const rateOnly = ratesOnlyRuns(observed);
+  for (const r of sized) {
     if (r.size !== undefined || rateOnly.has(r.id)) continue;
     ledger.reject({ file: r.location.file, line: r.location.line, reason: 'missing', message: `run '${r.id}' has no reaction time and no profile points to take it from` });
-    for (const o of observations) if (o.runId === r.id) ledger.reject({ file: o.location.file, line: o.location.line, reason: 'run-rejected', message: `run '${r.id}' was rejected (${r.location.file}:${r.location.line})` });
+    for (const o of observed) if (o.runId === r.id) ledger.reject({ file: o.location.file, line: o.location.line, reason: 'run-rejected', message: `run '${r.id}' was rejected (${r.location.file}:${r.location.line})` });
   }
-  runs = runs.filter((r) => r.size !== undefined || rateOnly.has(r.id));
+  const runs = sized.filter((r) => r.size !== undefined || rateOnly.has(r.id));
   const runIndex = new Map<string, number>();
   for (let i = 0; i < runs.length; i++) runIndex.set(runs[i].id, i);
-  observations = observations.filter((o) => runIndex.has(o.runId) && !ledger.isRejected(o.location));
+  const observations = observed.filter((o) => runIndex.has(o.runId) && !ledger.isRejected(o.location));
+  return { runs, observations, runIndex };
+}
 
-  checkModelUnits(observations);
-  const replicateGroups = findReplicates(runs, settings.replicateTolerance);
-  const pure = pureErrors(observations, replicateGroups);
-  const report = buildReport(ledger, replicateGroups, pure, settings);
-  if (strict) assertNoRejections(report);
-
-  // Observations with error models; replicates sigma from the pooled pure error of the response.
-  const studyObs: Observation[] = observations.map((o, index) => {
+/** Observations with their error models; a replicates model takes sigma (and its dof) from the pooled pure error of the response. */
+function observationsWithSigma(observations: readonly MappedObservation[], models: Record<string, ErrorModel>, pure: readonly PureError[], runIndex: ReadonlyMap<string, number>): Observation[] {
+  return observations.map((o, index) => {
     const modelName = o.errorModel ?? DEFAULT_ERROR_MODEL;
     let sigma = o.sigma;
     if (sigma === undefined && models[modelName].kind === 'replicates') {
@@ -376,70 +478,99 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     }
     return studyObservation(o, index, runIndex.get(o.runId) as number, sigma, modelName);
   });
+}
 
-  const studyRuns: StudyRun[] = runs.map((r) => {
-    // A run with measured rates only needs no size: NaN marks it (no reactor is solved for it).
-    const sr = { id: r.id, temperature: r.temperature, size: r.size ?? NaN } as StudyRun;
-    if (r.pressure !== undefined) sr.pressure = r.pressure;
-    if (r.feed) sr.feed = r.feed;
-    if (r.volumetricFlow !== undefined) sr.volumetricFlow = r.volumetricFlow;
-    if (r.initialConcentrations) sr.initialConcentrations = r.initialConcentrations;
-    if (r.initialVolume !== undefined) sr.initialVolume = r.initialVolume;
-    if (r.catalystMass !== undefined) sr.catalystMass = r.catalystMass;
-    if (r.rateConcentrations) sr.rateConcentrations = r.rateConcentrations;
-    if (r.runParameters) sr.runParameters = r.runParameters;
-    if (r.group !== undefined) sr.group = r.group;
-    sr.location = r.location;
-    return sr;
-  });
+/** A study run from a mapped run, optional fields only when given. */
+function studyRun(r: MappedRun): StudyRun {
+  // A run with measured rates only needs no size: NaN marks it (no reactor is solved for it).
+  const sr = { id: r.id, temperature: r.temperature, size: r.size ?? NaN } as StudyRun;
+  if (r.pressure !== undefined) sr.pressure = r.pressure;
+  if (r.feed) sr.feed = r.feed;
+  if (r.volumetricFlow !== undefined) sr.volumetricFlow = r.volumetricFlow;
+  if (r.initialConcentrations) sr.initialConcentrations = r.initialConcentrations;
+  if (r.initialVolume !== undefined) sr.initialVolume = r.initialVolume;
+  if (r.catalystMass !== undefined) sr.catalystMass = r.catalystMass;
+  if (r.rateConcentrations) sr.rateConcentrations = r.rateConcentrations;
+  if (r.runParameters) sr.runParameters = r.runParameters;
+  if (r.group !== undefined) sr.group = r.group;
+  sr.location = r.location;
+  return sr;
+}
 
-  // Reference temperature: given, or the round number nearest the inverse-mean of the data range.
-  let referenceTemperature: number;
-  let referenceTemperatureSource: Study['referenceTemperatureSource'] = 'study';
-  if (raw.referenceTemperature !== undefined) {
-    const t = raw.referenceTemperature;
-    referenceTemperature = typeof t === 'number' ? t : unitFor('temperature', t.unit, { path: ['referenceTemperature', 'unit'] }).toSI(t.value);
-    if (!(referenceTemperature > 0)) throw new RateloomError('E_VALUE', 'reference temperature must be above 0 K', { path: ['referenceTemperature'] });
-  } else {
-    referenceTemperatureSource = 'data';
-    const Ts = studyRuns.map((r) => r.temperature);
-    // Reduced rather than spread into Math.min/max: a spread of many runs can overflow the stack.
-    referenceTemperature = Ts.length ? Math.round(2 / (1 / Ts.reduce((a, b) => Math.min(a, b), Infinity) + 1 / Ts.reduce((a, b) => Math.max(a, b), -Infinity))) : 298;
+/** Reference temperature, K: given, or the round number nearest the inverse-mean of the data range (298 K without runs). */
+function referenceTemperatureOf(given: RawStudy['referenceTemperature'], runs: readonly StudyRun[]): { value: number; source: Study['referenceTemperatureSource'] } {
+  if (given !== undefined) {
+    const value = typeof given === 'number' ? given : unitFor('temperature', given.unit, { path: ['referenceTemperature', 'unit'] }).toSI(given.value);
+    if (!(value > 0)) {
+      throw new RateloomError('E_VALUE', `reference temperature must be above 0 K (got ${value} K)`, { path: ['referenceTemperature'], fix: 'Give an absolute temperature, for example { "value": 350, "unit": "K" }, or leave it out to take it from the data.' });
+    }
+    return { value, source: 'study' };
   }
+  const Ts = runs.map((r) => r.temperature);
+  // Reduced rather than spread into Math.min/max: a spread of many runs can overflow the stack.
+  const value = Ts.length ? Math.round(2 / (1 / Ts.reduce((a, b) => Math.min(a, b), Infinity) + 1 / Ts.reduce((a, b) => Math.max(a, b), -Infinity))) : 298;
+  return { value, source: 'data' };
+}
 
-  const runValues = runParameterNames(studyRuns);
-  const groups = [...new Set(studyRuns.map((r) => r.group).filter((g): g is string => g !== undefined))];
-  const hasGroupColumn = studyRuns.some((r) => r.group !== undefined);
-  // Default starts of parameters without values: orders default to the species' coefficient.
-  const coefficient = (i: number, sp: string, side: 'forward' | 'reverse'): number => {
-    const j = speciesNames.indexOf(sp);
-    const nu = j < 0 ? 0 : chemistry.stoich[i * nS + j];
-    return side === 'forward' ? Math.max(0, -nu) : Math.max(0, nu);
+/** What the parameter sets of the study and its candidates share: groups, per-run values, default orders. */
+interface ParameterContext {
+  groups: string[];
+  hasGroupColumn: boolean;
+  runValues: Set<string>;
+  /** Default start of an order: the species' coefficient on that side of reaction i. */
+  coefficient: (i: number, sp: string, side: 'forward' | 'reverse') => number;
+}
+
+/** The study's parameters and its candidate rate-law sets (names checked). */
+function studyParameters(raw: RawStudy, chemistry: Chemistry, runs: readonly StudyRun[]): { base: ReturnType<typeof buildParameters>; candidates: CandidateSet[] } {
+  const nS = chemistry.speciesNames.length;
+  const ctx: ParameterContext = {
+    runValues: runParameterNames(runs),
+    groups: [...new Set(runs.map((r) => r.group).filter((g): g is string => g !== undefined))],
+    hasGroupColumn: runs.some((r) => r.group !== undefined),
+    coefficient: (i, sp, side) => {
+      const j = chemistry.speciesNames.indexOf(sp);
+      const nu = j < 0 ? 0 : chemistry.stoich[i * nS + j];
+      return side === 'forward' ? Math.max(0, -nu) : Math.max(0, nu);
+    },
   };
-  const base = buildParameters(raw.parameters, raw.reactions.map((r) => r.rate), groups, hasGroupColumn, ['parameters'], parameterRoles(raw.reactions.map((r) => r.rate), coefficient));
-  const candidates: CandidateSet[] = (raw.candidates ?? []).map((c, ci) => {
-    const path = ['candidates', ci];
-    const replaced = Object.keys(c.reactions);
-    for (const id of replaced) {
-      if (!chemistry.reactionIds.includes(id)) throw new RateloomError('E_VALUE', `candidate '${c.name}' replaces unknown reaction '${id}'`, { path: [...path, 'reactions', id] });
+  const rates = raw.reactions.map((r) => r.rate);
+  const base = buildParameters(raw.parameters, rates, ctx.groups, ctx.hasGroupColumn, ['parameters'], parameterRoles(rates, ctx.coefficient));
+  const candidates = (raw.candidates ?? []).map((c, ci) => candidateSet(c, ci, raw, chemistry, ctx));
+  checkCandidateNames(candidates);
+  return { base, candidates };
+}
+
+/** One candidate: the study's reactions with its rate laws in place, and its parameter set. */
+function candidateSet(c: NonNullable<RawStudy['candidates']>[number], ci: number, raw: RawStudy, chemistry: Chemistry, ctx: ParameterContext): CandidateSet {
+  const path = ['candidates', ci];
+  const replaced = Object.keys(c.reactions);
+  for (const id of replaced) {
+    if (!chemistry.reactionIds.includes(id)) {
+      throw new RateloomError('E_VALUE', `candidate '${c.name}' replaces unknown reaction '${id}'`, { path: [...path, 'reactions', id], fix: `Use one of the study's reaction ids: ${chemistry.reactionIds.join(', ')}.` });
     }
-    const reactions = raw.reactions.map((r) => (c.reactions[r.id] ? { ...r, rate: c.reactions[r.id] } : r));
-    checkOrderSpecies(reactions.map((r) => r.rate), chemistry, (i) => (replaced.includes(reactions[i].id) ? [...path, 'reactions', reactions[i].id] : ['reactions', i, 'rate']));
-    // A candidate keeps only the study parameters its own rate laws use (an unused one would be an
-    // unidentifiable direction of the fit), plus every parameter it declares itself.
-    const used = new Set<string>();
-    for (const r of reactions) {
-      if (r.rate.form === 'expression') {
-        for (const m of r.rate.expression.matchAll(/[A-Za-z_][A-Za-z0-9_]*/g)) used.add(m[0]);
-      } else {
-        const { constants, others } = referencedNames(r.rate);
-        for (const n of [...constants, ...others]) used.add(n);
-      }
+  }
+  const reactions = raw.reactions.map((r) => (c.reactions[r.id] ? { ...r, rate: c.reactions[r.id] } : r));
+  const rates = reactions.map((r) => r.rate);
+  checkOrderSpecies(rates, chemistry, (i) => (replaced.includes(reactions[i].id) ? [...path, 'reactions', reactions[i].id] : ['reactions', i, 'rate']));
+  // A candidate keeps only the study parameters its own rate laws use (an unused one would be an
+  // unidentifiable direction of the fit), plus every parameter it declares itself.
+  const used = new Set<string>();
+  for (const r of reactions) {
+    if (r.rate.form === 'expression') {
+      for (const m of r.rate.expression.matchAll(/[A-Za-z_][A-Za-z0-9_]*/g)) used.add(m[0]);
+    } else {
+      const { constants, others } = referencedNames(r.rate);
+      for (const n of [...constants, ...others]) used.add(n);
     }
-    const kept = raw.parameters.filter((p) => used.has(p.name) || p.scope === 'per-run-group' || runValues.has(p.name));
-    const own = buildParameters([...kept, ...(c.parameters ?? [])], reactions.map((r) => r.rate), groups, hasGroupColumn, [...path, 'parameters'], parameterRoles(reactions.map((r) => r.rate), coefficient));
-    return { name: c.name, ...(c.description !== undefined ? { description: c.description } : {}), ...(c.nests !== undefined ? { nests: c.nests } : {}), reactions, replaced, parameters: own.parameters, scopes: own.scopes, ...(own.autoStart.length ? { autoStart: own.autoStart } : {}) };
-  });
+  }
+  const kept = raw.parameters.filter((p) => used.has(p.name) || p.scope === 'per-run-group' || ctx.runValues.has(p.name));
+  const own = buildParameters([...kept, ...(c.parameters ?? [])], rates, ctx.groups, ctx.hasGroupColumn, [...path, 'parameters'], parameterRoles(rates, ctx.coefficient));
+  return { name: c.name, ...(c.description !== undefined ? { description: c.description } : {}), ...(c.nests !== undefined ? { nests: c.nests } : {}), reactions, replaced, parameters: own.parameters, scopes: own.scopes, ...(own.autoStart.length ? { autoStart: own.autoStart } : {}) };
+}
+
+/** Candidate names are unique and each `nests` names 'base' or another candidate. */
+function checkCandidateNames(candidates: readonly CandidateSet[]): void {
   const names = new Set<string>();
   for (const c of candidates) {
     if (c.nests !== undefined && c.nests !== 'base' && !candidates.some((o) => o.name === c.nests)) {
@@ -448,14 +579,19 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
         fix: `Name 'base' or one of: ${candidates.map((o) => o.name).join(', ')}.`,
       });
     }
-    if (names.has(c.name)) throw new RateloomError('E_VALUE', `candidate name '${c.name}' is used twice`, { path: ['candidates'] });
+    if (names.has(c.name)) throw new RateloomError('E_VALUE', `candidate name '${c.name}' is used twice`, { path: ['candidates'], fix: 'Give each candidate its own name.' });
     names.add(c.name);
   }
+}
 
-  // Measured rates are predicted from the rate laws as written (no basis conversion): a rate in
-  // mol/(kg s) needs mass-basis rate laws for its species, a rate in mol/(m3 s) volume-basis ones.
+/**
+ * Measured rates are predicted from the rate laws as written (no basis conversion): a rate in
+ * mol/(kg s) needs mass-basis rate laws for its species, a rate in mol/(m3 s) volume-basis ones.
+ */
+function checkRateBases(studyObs: readonly Observation[], reactions: readonly ReactionSpec[], candidates: readonly CandidateSet[], chemistry: Chemistry, keyReactantIndex: number): void {
+  const nS = chemistry.speciesNames.length;
   const rateSets = [
-    { name: 'the study', reactions: raw.reactions, at: (i: number) => ['reactions', i, 'rate', 'basis'] },
+    { name: 'the study', reactions, at: (i: number) => ['reactions', i, 'rate', 'basis'] },
     ...candidates.map((c, ci) => ({ name: `candidate '${c.name}'`, reactions: c.reactions, at: (i: number) => (c.replaced.includes(c.reactions[i].id) ? ['candidates', ci, 'reactions', c.reactions[i].id, 'basis'] : ['reactions', i, 'rate', 'basis']) })),
   ];
   for (const o of studyObs) {
@@ -466,38 +602,11 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
       set.reactions.forEach((r, i) => {
         const lawBasis = r.rate.basis ?? 'volume';
         if (chemistry.stoich[i * nS + j] === 0 || lawBasis === basis) return;
-        throw new RateloomError('E_UNIT', `measured rates of ${speciesNames[j]} are per ${basis === 'mass' ? 'kg of catalyst' : 'm3 of fluid'} (${o.location.file}:${o.location.line}), but reaction '${r.id}' of ${set.name} has a ${lawBasis}-basis rate law`, {
+        throw new RateloomError('E_UNIT', `measured rates of ${chemistry.speciesNames[j]} are per ${basis === 'mass' ? 'kg of catalyst' : 'm3 of fluid'} (${o.location.file}:${o.location.line}), but reaction '${r.id}' of ${set.name} has a ${lawBasis}-basis rate law`, {
           path: set.at(i),
           fix: `Give the rate column in a ${lawBasis === 'mass' ? 'per-mass unit such as mmol/(g min)' : 'per-volume unit such as mol/(L s)'}, or set the rate law's basis to '${basis}'.`,
         });
       });
     }
   }
-
-  const study: Study = {
-    ...(raw.title !== undefined ? { title: raw.title } : {}),
-    studyPath,
-    species: raw.species,
-    reactions: raw.reactions,
-    chemistry,
-    keyReactant: speciesNames[keyReactantIndex],
-    keyReactantIndex,
-    reactor,
-    referenceTemperature,
-    referenceTemperatureSource,
-    parameters: base.parameters,
-    scopes: base.scopes,
-    ...(base.autoStart.length ? { autoStart: base.autoStart } : {}),
-    runs: studyRuns,
-    observations: studyObs,
-    errorModels: models,
-    candidates,
-    replicateGroups,
-    ...(raw.transport !== undefined ? { transport: loadTransport(raw.transport, speciesNames, raw.reactions.map((r) => r.id)) } : {}),
-    sources: raw.data,
-  };
-  study.referenceTemperatureApplies = referenceTemperatureMatters(study);
-  const notes = perRun.flatMap((m) => m.rateNotes ?? []);
-  if (notes.length) study.rateNotes = notes;
-  return { study: attachLabData(study, raw.labData, raw.activity, { baseDir, readFile, definedRunIds: perRunIds(tables, raw.data) }), report };
 }
