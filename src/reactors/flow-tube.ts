@@ -154,7 +154,7 @@ function prepareChecked(kind: TubeKind, spec: ReactorSpec, run: RunConditions, k
  * with or without permeation): created once and reused by every solve (solves are synchronous, so
  * one workspace per variant suffices). The closures, the state reader and the pressure slope are
  * made here, never per solve; a solve only sets the run (`p` and the numeric fields, which the
- * generated right-hand side of tube-rhs.ts reads) and `theta`.
+ * generated right-hand side of tube-rhs.ts and the Jacobian helpers below read) and `theta`.
  */
 class TubeWork implements TubeRhsState {
   p!: PreparedTube;
@@ -167,6 +167,28 @@ class TubeWork implements TubeRhsState {
   weights: Float64Array = new Float64Array(0);
   perm: Float64Array = new Float64Array(0);
   sweep: Float64Array = new Float64Array(0);
+  readonly kinetics: CompiledKinetics;
+  readonly gas: boolean;
+  readonly membrane: boolean;
+  /** Species, parameters, reactions, state size (nS + 1 for gas: the pressure ratio p). */
+  readonly nS: number;
+  readonly nP: number;
+  readonly nR: number;
+  readonly n: number;
+  /** Concentrations at the current state (nS). */
+  readonly C: Float64Array;
+  /** Reaction-level derivatives dr_i/dC (nR x nS) and dr_i/dtheta (nR x nP). */
+  readonly jc: Float64Array;
+  readonly jp: Float64Array;
+  /** Gas concentration derivatives dC/dF (nS x nS) and dC/dp (nS). */
+  readonly dCdF: Float64Array;
+  readonly dCdp: Float64Array;
+  /** Species-level dR/dC minus permeation (nS x nS). */
+  readonly dRdC: Float64Array;
+  /** dC/dtheta along the solution (nS x nP). */
+  readonly dC: Float64Array;
+  /** Weighted reaction sensitivities w_i dr_i/dtheta (nR x nP). */
+  readonly g: Float64Array;
   readonly core: OdeCore;
   /** Inlet state of the current solve. */
   readonly y0: Float64Array;
@@ -176,149 +198,32 @@ class TubeWork implements TubeRhsState {
   constructor(kinetics: CompiledKinetics, gas: boolean, membrane: boolean) {
     const nS = kinetics.speciesNames.length;
     const nP = kinetics.parameterNames.length;
-    const n = gas ? nS + 1 : nS;
-    // Derivatives of the species-level rate terms R = nu^T diag(w) r (rate-terms.ts); R itself is
-    // formed by the generated right-hand side.
     const nR = kinetics.reactionIds.length;
-    const nu = kinetics.stoich;
-    const r = new Float64Array(nR);
-    const jc = new Float64Array(nR * nS);
-    const jp = new Float64Array(nR * nP);
-    const jacCm = (C: Float64Array, T: number, theta: Float64Array, w: Float64Array, out: Float64Array): void => {
-      kinetics.ratesJacC(C, T, theta, jc);
-      speciesFromReactions(nu, w, jc, nR, nS, nS, out);
-    };
-    const jacPm = (C: Float64Array, T: number, theta: Float64Array, w: Float64Array, out: Float64Array): void => {
-      kinetics.ratesJacP(C, T, theta, jp);
-      speciesFromReactions(nu, w, jp, nR, nS, nP, out);
-    };
-    const rt = { jacC: jacCm, jacP: jacPm };
-    const C = new Float64Array(nS);
-    const dCdF = new Float64Array(nS * nS);
-    const dCdp = new Float64Array(nS);
-    const dRdC = new Float64Array(nS * nS);
-    const dRdP = new Float64Array(nS * nP);
-    const dC = new Float64Array(nS * nP);
-    const g = new Float64Array(nR * nP);
-    const gasJac = gasConcentrationJacobian;
-    const sum = sumFirst;
-    const conc = (y: Float64Array, out: Float64Array): void => {
-      if (gas) {
-        let FT = 0;
-        for (let j = 0; j < nS; j++) FT += y[j];
-        if (!(FT > 0)) {
-          for (let j = 0; j < nS; j++) out[j] = 0;
-          return;
-        }
-        const f = (this.p.cT0 * y[nS]) / FT;
-        for (let j = 0; j < nS; j++) out[j] = f * y[j];
-      } else {
-        const invV0 = this.p.invV0;
-        for (let j = 0; j < nS; j++) out[j] = y[j] * invV0;
-      }
-    };
+    const n = gas ? nS + 1 : nS;
+    this.kinetics = kinetics;
+    this.gas = gas;
+    this.membrane = membrane;
+    this.nS = nS;
+    this.nP = nP;
+    this.nR = nR;
+    this.n = n;
+    this.C = new Float64Array(nS);
+    this.jc = new Float64Array(nR * nS);
+    this.jp = new Float64Array(nR * nP);
+    this.dCdF = new Float64Array(nS * nS);
+    this.dCdp = new Float64Array(nS);
+    this.dRdC = new Float64Array(nS * nS);
+    this.dC = new Float64Array(nS * nP);
+    this.g = new Float64Array(nR * nP);
     this.core = {
       n,
       nP,
       atol: new Float64Array(n),
       // the hot path: generated per kinetics (tube-rhs.ts), reading the run from this object
-      rhs: makeTubeRhs(kinetics, gas, membrane, this, C, r),
-      jac: (_x, y, out) => {
-        const { T, weights, perm, alpha, FT0, cT0, invV0 } = this.p;
-        conc(y, C);
-        rt.jacC(C, T, this.theta, weights, dRdC);
-        for (let j = 0; j < nS; j++) dRdC[j * nS + j] -= perm[j];
-        for (let q = 0; q < n * n; q++) out[q] = 0;
-        if (gas) {
-          const p = y[nS];
-          gasJac(y, nS, p, cT0, dCdF, dCdp);
-          for (let j = 0; j < nS; j++) {
-            let sp = 0;
-            for (let m = 0; m < nS; m++) {
-              const a = dRdC[j * nS + m];
-              if (a === 0) continue;
-              sp += a * dCdp[m];
-              for (let k = 0; k < nS; k++) out[j * n + k] += a * dCdF[m * nS + k];
-            }
-            out[j * n + nS] = sp;
-          }
-          if (alpha !== 0) {
-            const pp = p > 1e-12 ? p : 1e-12;
-            const d = -alpha / (2 * pp * FT0);
-            for (let k = 0; k < nS; k++) out[nS * n + k] = d;
-            out[nS * n + nS] = (alpha / (2 * pp * pp)) * (sum(y, nS) / FT0);
-          }
-        } else {
-          for (let j = 0; j < nS; j++) for (let k = 0; k < nS; k++) out[j * n + k] = dRdC[j * nS + k] * invV0;
-        }
-      },
-      dtheta: (_x, y, out) => {
-        conc(y, C);
-        rt.jacP(C, this.p.T, this.theta, this.p.weights, dRdP);
-        for (let q = 0; q < nS * nP; q++) out[q] = dRdP[q];
-        if (gas) for (let q = nS * nP; q < n * nP; q++) out[q] = 0;
-      },
-      // dS/dx = (df/dy) S + df/dtheta without forming df/dy: dC/dtheta first, then dR/dC dC/dtheta.
-      sensRhs: (_x, y, out) => {
-        const pr = this.p;
-        const { T, weights, alpha, FT0, cT0, invV0 } = pr;
-        const theta = this.theta;
-        conc(y, C);
-        // reaction-level derivatives: dr_i/dC (jc, nR x nS) and dr_i/dtheta (jp, nR x nP)
-        kinetics.ratesJacC(C, T, theta, jc);
-        kinetics.ratesJacP(C, T, theta, jp);
-        let FT = 0;
-        if (gas) for (let j = 0; j < nS; j++) FT += y[j];
-        const p = gas ? y[nS] : 1;
-        // dC/dtheta (nS x nP) from the flow and pressure sensitivities
-        for (let k = 0; k < nP; k++) {
-          if (gas) {
-            if (FT > 0) {
-              let dFT = 0;
-              for (let m = 0; m < nS; m++) dFT += y[n + m * nP + k];
-              const a = (cT0 * p) / FT;
-              const Sp = y[n + nS * nP + k];
-              for (let j = 0; j < nS; j++) {
-                dC[j * nP + k] = a * (y[n + j * nP + k] - (y[j] / FT) * dFT) + ((cT0 * y[j]) / FT) * Sp;
-              }
-              if (alpha !== 0) {
-                const pp = p > 1e-12 ? p : 1e-12;
-                out[n + nS * nP + k] = (-alpha / (2 * pp * FT0)) * dFT + (alpha / (2 * pp * pp)) * (FT / FT0) * Sp;
-              } else out[n + nS * nP + k] = 0;
-            } else {
-              for (let j = 0; j < nS; j++) dC[j * nP + k] = 0;
-              out[n + nS * nP + k] = 0;
-            }
-          } else {
-            for (let j = 0; j < nS; j++) dC[j * nP + k] = y[n + j * nP + k] * invV0;
-          }
-        }
-        // d r_i/d theta_k along the solution: g = jc dC + jp (nR x nP), weighted by w_i
-        for (let i = 0; i < nR; i++) {
-          const wi = weights[i];
-          for (let k = 0; k < nP; k++) {
-            let v = jp[i * nP + k];
-            for (let m = 0; m < nS; m++) {
-              const c = jc[i * nS + m];
-              if (c !== 0) v += c * dC[m * nP + k];
-            }
-            g[i * nP + k] = wi * v;
-          }
-        }
-        // dR_j/dtheta_k = sum_i nu_ij g_ik (minus permeation)
-        for (let q = 0; q < nS * nP; q++) out[n + q] = 0;
-        for (let i = 0; i < nR; i++) {
-          for (let j = 0; j < nS; j++) {
-            const c = nu[i * nS + j];
-            if (c === 0) continue;
-            for (let k = 0; k < nP; k++) out[n + j * nP + k] += c * g[i * nP + k];
-          }
-        }
-        if (pr.kind === 'membrane') {
-          const perm = pr.perm;
-          for (let j = 0; j < nS; j++) for (let k = 0; k < nP; k++) out[n + j * nP + k] -= perm[j] * dC[j * nP + k];
-        }
-      },
+      rhs: makeTubeRhs(kinetics, gas, membrane, this, this.C, new Float64Array(nR)),
+      jac: (_x, y, out) => tubeJacobian(this, y, out),
+      dtheta: (_x, y, out) => tubeParameterJacobian(this, y, out),
+      sensRhs: (_x, y, out) => tubeSensitivityRhs(this, y, out),
     };
     if (gas) this.core.pressureIndex = nS;
     this.y0 = new Float64Array(n);
@@ -343,6 +248,150 @@ class TubeWork implements TubeRhsState {
     const a = this.core.atol;
     for (let j = 0; j < nS; j++) a[j] = atol * prep.FT0;
     if (prep.gas) a[nS] = atol;
+  }
+}
+
+/*
+ * The Jacobian and sensitivity steps below run on every Jacobian or sensitivity evaluation of a
+ * solve: plain functions of the bound workspace, writing only into its buffers and `out`.
+ */
+
+/** Concentrations at state y into out: gas C_j = C_T0 (F_j / F_T) p (unclamped p, as in the right-hand side), liquid F_j / v0. */
+function tubeConcentrations(w: TubeWork, y: Float64Array, out: Float64Array): void {
+  const nS = w.nS;
+  if (w.gas) gasConcentrations(y, nS, y[nS], w.cT0, out);
+  else {
+    const invV0 = w.invV0;
+    for (let j = 0; j < nS; j++) out[j] = y[j] * invV0;
+  }
+}
+
+/** df/dy (n x n) at state y by the chain rule (dR/dC - diag(k)) dC/dy, with the pressure row for gas. */
+function tubeJacobian(w: TubeWork, y: Float64Array, out: Float64Array): void {
+  const { nS, n, dRdC, perm } = w;
+  tubeConcentrations(w, y, w.C);
+  w.kinetics.ratesJacC(w.C, w.T, w.theta, w.jc);
+  speciesFromReactions(w.kinetics.stoich, w.weights, w.jc, w.nR, nS, nS, dRdC);
+  for (let j = 0; j < nS; j++) dRdC[j * nS + j] -= perm[j];
+  for (let q = 0; q < n * n; q++) out[q] = 0;
+  if (w.gas) gasJacobianRows(w, y, out);
+  else {
+    const invV0 = w.invV0;
+    for (let j = 0; j < nS; j++) for (let k = 0; k < nS; k++) out[j * n + k] = dRdC[j * nS + k] * invV0;
+  }
+}
+
+/** Gas rows of df/dy into a zeroed out: species rows through dC/dF and dC/dp, then the pressure row. */
+function gasJacobianRows(w: TubeWork, y: Float64Array, out: Float64Array): void {
+  const { nS, n, dRdC, dCdF, dCdp, alpha, FT0 } = w;
+  const p = y[nS];
+  gasConcentrationJacobian(y, nS, p, w.cT0, dCdF, dCdp);
+  for (let j = 0; j < nS; j++) {
+    let sp = 0;
+    for (let m = 0; m < nS; m++) {
+      const a = dRdC[j * nS + m];
+      if (a === 0) continue;
+      sp += a * dCdp[m];
+      for (let k = 0; k < nS; k++) out[j * n + k] += a * dCdF[m * nS + k];
+    }
+    out[j * n + nS] = sp;
+  }
+  if (alpha !== 0) {
+    const pp = p > 1e-12 ? p : 1e-12;
+    const d = -alpha / (2 * pp * FT0);
+    for (let k = 0; k < nS; k++) out[nS * n + k] = d;
+    out[nS * n + nS] = (alpha / (2 * pp * pp)) * (sumFirst(y, nS) / FT0);
+  }
+}
+
+/** df/dtheta (n x nP) at state y: the species-level dR/dtheta; zero pressure row (gas). */
+function tubeParameterJacobian(w: TubeWork, y: Float64Array, out: Float64Array): void {
+  const { nS, nP, n } = w;
+  tubeConcentrations(w, y, w.C);
+  w.kinetics.ratesJacP(w.C, w.T, w.theta, w.jp);
+  speciesFromReactions(w.kinetics.stoich, w.weights, w.jp, w.nR, nS, nP, out);
+  if (w.gas) for (let q = nS * nP; q < n * nP; q++) out[q] = 0;
+}
+
+/**
+ * dS/dx = (df/dy) S + df/dtheta without forming df/dy (S = y[n..], row-major n x nP): dC/dtheta
+ * first, then the weighted reaction sensitivities, then their stoichiometric sum into out[n..].
+ */
+function tubeSensitivityRhs(w: TubeWork, y: Float64Array, out: Float64Array): void {
+  tubeConcentrations(w, y, w.C);
+  w.kinetics.ratesJacC(w.C, w.T, w.theta, w.jc);
+  w.kinetics.ratesJacP(w.C, w.T, w.theta, w.jp);
+  if (w.gas) gasConcentrationSensitivities(w, y, out);
+  else liquidConcentrationSensitivities(w, y);
+  weightedRateSensitivities(w);
+  speciesRateSensitivities(w, out);
+}
+
+/** dC/dtheta (w.dC) from the flow and pressure sensitivities, and the pressure rows of out. */
+function gasConcentrationSensitivities(w: TubeWork, y: Float64Array, out: Float64Array): void {
+  const { nS, nP, n, dC, cT0, alpha, FT0 } = w;
+  let FT = 0;
+  for (let j = 0; j < nS; j++) FT += y[j];
+  const p = y[nS];
+  for (let k = 0; k < nP; k++) {
+    if (FT > 0) {
+      let dFT = 0;
+      for (let m = 0; m < nS; m++) dFT += y[n + m * nP + k];
+      const a = (cT0 * p) / FT;
+      const Sp = y[n + nS * nP + k];
+      for (let j = 0; j < nS; j++) {
+        dC[j * nP + k] = a * (y[n + j * nP + k] - (y[j] / FT) * dFT) + ((cT0 * y[j]) / FT) * Sp;
+      }
+      if (alpha !== 0) {
+        const pp = p > 1e-12 ? p : 1e-12;
+        out[n + nS * nP + k] = (-alpha / (2 * pp * FT0)) * dFT + (alpha / (2 * pp * pp)) * (FT / FT0) * Sp;
+      } else out[n + nS * nP + k] = 0;
+    } else {
+      for (let j = 0; j < nS; j++) dC[j * nP + k] = 0;
+      out[n + nS * nP + k] = 0;
+    }
+  }
+}
+
+/** dC/dtheta (w.dC) = S / v0 for a liquid. */
+function liquidConcentrationSensitivities(w: TubeWork, y: Float64Array): void {
+  const { nS, nP, n, dC, invV0 } = w;
+  for (let k = 0; k < nP; k++) {
+    for (let j = 0; j < nS; j++) dC[j * nP + k] = y[n + j * nP + k] * invV0;
+  }
+}
+
+/** d r_i/d theta_k along the solution, weighted: g = diag(w) (jc dC + jp) (nR x nP). */
+function weightedRateSensitivities(w: TubeWork): void {
+  const { nS, nP, nR, jc, jp, dC, g, weights } = w;
+  for (let i = 0; i < nR; i++) {
+    const wi = weights[i];
+    for (let k = 0; k < nP; k++) {
+      let v = jp[i * nP + k];
+      for (let m = 0; m < nS; m++) {
+        const c = jc[i * nS + m];
+        if (c !== 0) v += c * dC[m * nP + k];
+      }
+      g[i * nP + k] = wi * v;
+    }
+  }
+}
+
+/** Species rows of the sensitivity right-hand side: dR_j/dtheta_k = sum_i nu_ij g_ik (minus permeation). */
+function speciesRateSensitivities(w: TubeWork, out: Float64Array): void {
+  const { nS, nP, nR, n, g, dC } = w;
+  const nu = w.kinetics.stoich;
+  for (let q = 0; q < nS * nP; q++) out[n + q] = 0;
+  for (let i = 0; i < nR; i++) {
+    for (let j = 0; j < nS; j++) {
+      const c = nu[i * nS + j];
+      if (c === 0) continue;
+      for (let k = 0; k < nP; k++) out[n + j * nP + k] += c * g[i * nP + k];
+    }
+  }
+  if (w.membrane) {
+    const perm = w.perm;
+    for (let j = 0; j < nS; j++) for (let k = 0; k < nP; k++) out[n + j * nP + k] -= perm[j] * dC[j * nP + k];
   }
 }
 

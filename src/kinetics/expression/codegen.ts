@@ -66,72 +66,13 @@ const CALL_TEXT: Record<string, string> = {
 
 /** Straight-line statements computing all assignments, with shared subtrees hoisted into consts. */
 export function emitBody(assignments: readonly Assignment[], opts: EmitOptions): EmittedBody {
-  // reference counts over the DAG reachable from the roots
-  const refs = new Map<number, number>();
-  const order: Node[] = [];
-  const visit = (n: Node): void => {
-    const c = refs.get(n.id);
-    refs.set(n.id, (c ?? 0) + 1);
-    if (c !== undefined) return;
-    for (const ch of children(n)) visit(ch);
-    order.push(n); // post-order: children before parents
-  };
-  for (const a of assignments) visit(a.node);
-
-  const varText = new Map<number, string>();
-  const accessOf = (v: number): string => {
-    let s = varText.get(v);
-    if (s === undefined) {
-      s = opts.access(v);
-      if (!ACCESS_RE.test(s)) throw new InternalError(`unsafe variable accessor '${s}'`);
-      varText.set(v, s);
-    }
-    return s;
-  };
-
+  const { refs, order } = referenceCounts(assignments);
+  const accessOf = checkedAccessor(opts.access);
   const text = new Map<number, string>();
   const lines: string[] = [];
   let temps = 0;
   for (const n of order) {
-    let t: string;
-    switch (n.kind) {
-      case 'num':
-        t = formatNumber(n.value);
-        break;
-      case 'var':
-        t = accessOf(n.v);
-        break;
-      case 'neg':
-        t = `(-${text.get(n.a.id)})`;
-        break;
-      case 'add':
-        t = `(${text.get(n.a.id)}+${text.get(n.b.id)})`;
-        break;
-      case 'sub':
-        t = `(${text.get(n.a.id)}-${text.get(n.b.id)})`;
-        break;
-      case 'mul':
-        t = `(${text.get(n.a.id)}*${text.get(n.b.id)})`;
-        break;
-      case 'div':
-        t = `(${text.get(n.a.id)}/${text.get(n.b.id)})`;
-        break;
-      case 'pow':
-        t = `M.pow(${text.get(n.a.id)},${text.get(n.b.id)})`;
-        break;
-      case 'ppow':
-        t =
-          n.b.kind === 'num' && n.b.value === 1
-            ? `pos(${text.get(n.a.id)})`
-            : `ppow(${text.get(n.a.id)},${text.get(n.b.id)})`;
-        break;
-      case 'call': {
-        const f = CALL_TEXT[n.fn];
-        if (f === undefined) throw new InternalError('unknown function tag');
-        t = `${f}(${n.args.map((a) => text.get(a.id)).join(',')})`;
-        break;
-      }
-    }
+    let t = nodeText(n, text, accessOf);
     const shared = (refs.get(n.id) as number) > 1 && n.kind !== 'num' && n.kind !== 'var';
     if (shared) {
       const name = `t${temps++}`;
@@ -148,6 +89,66 @@ export function emitBody(assignments: readonly Assignment[], opts: EmitOptions):
     code: [...(opts.zeroFill ? ['out.fill(0);'] : []), ...lines, ...outLines].join('\n'),
     temporaries: temps,
   };
+}
+
+/** Reference counts over the DAG reachable from the roots, and its nodes in post-order (children first). */
+function referenceCounts(assignments: readonly Assignment[]): { refs: Map<number, number>; order: Node[] } {
+  const refs = new Map<number, number>();
+  const order: Node[] = [];
+  const visit = (n: Node): void => {
+    const c = refs.get(n.id);
+    refs.set(n.id, (c ?? 0) + 1);
+    if (c !== undefined) return;
+    for (const ch of children(n)) visit(ch);
+    order.push(n); // post-order: children before parents
+  };
+  for (const a of assignments) visit(a.node);
+  return { refs, order };
+}
+
+/** The caller's variable accessor, each result checked against ACCESS_RE once and memoised. */
+function checkedAccessor(access: (v: number) => string): (v: number) => string {
+  const varText = new Map<number, string>();
+  return (v) => {
+    let s = varText.get(v);
+    if (s === undefined) {
+      s = access(v);
+      if (!ACCESS_RE.test(s)) throw new InternalError(`unsafe variable accessor '${s}'`);
+      varText.set(v, s);
+    }
+    return s;
+  };
+}
+
+/** Source text of one node, its children's texts (or temporaries) already in `text`. */
+function nodeText(n: Node, text: ReadonlyMap<number, string>, accessOf: (v: number) => string): string {
+  switch (n.kind) {
+    case 'num':
+      return formatNumber(n.value);
+    case 'var':
+      return accessOf(n.v);
+    case 'neg':
+      return `(-${text.get(n.a.id)})`;
+    case 'add':
+      return `(${text.get(n.a.id)}+${text.get(n.b.id)})`;
+    case 'sub':
+      return `(${text.get(n.a.id)}-${text.get(n.b.id)})`;
+    case 'mul':
+      return `(${text.get(n.a.id)}*${text.get(n.b.id)})`;
+    case 'div':
+      return `(${text.get(n.a.id)}/${text.get(n.b.id)})`;
+    case 'pow':
+      return `M.pow(${text.get(n.a.id)},${text.get(n.b.id)})`;
+    case 'ppow':
+      return n.b.kind === 'num' && n.b.value === 1
+        ? `pos(${text.get(n.a.id)})`
+        : `ppow(${text.get(n.a.id)},${text.get(n.b.id)})`;
+    case 'call': {
+      const f = CALL_TEXT[n.fn];
+      if (f === undefined) throw new InternalError('unknown function tag');
+      return `${f}(${n.args.map((a) => text.get(a.id)).join(',')})`;
+    }
+  }
 }
 
 /** Signature of a generated evaluator: (C, T, theta, out) -> void. */
