@@ -1,5 +1,5 @@
 /** Text of `rateloom fit --cross-check` (src/workflow/cross-check-study.ts). */
-import type { StudyCrossCheck } from '../src/index.js';
+import { sharedDigits, type StudyCrossCheck } from '../src/index.js';
 import { g, table } from './format.js';
 
 const digitsText = (d: number) => (d >= 16 ? 'identical' : `${d.toFixed(1)} digits`);
@@ -10,7 +10,7 @@ export function formatCrossCheck(cc: StudyCrossCheck): string {
   const { optimum: o, integration: i, tolerances: t } = cc;
   const L = [`Cross-check (ml-levenberg-marquardt re-solve from the estimates; odex re-integration at rtol ${t.odexRtol}): ${cc.agrees ? 'AGREES' : 'DISAGREES'}`];
   const rows = [['parameter', 'reported', 'ml-levenberg-marquardt', 'shared digits', 'unit']];
-  for (const e of o.estimates) rows.push([e.name, g(e.reported, 10), g(e.recheck, 10), digitsText(e.relativeDifference === 0 ? 16 : -Math.log10(e.relativeDifference)), e.unit]);
+  for (const e of o.estimates) rows.push([e.name, g(e.reported, 10), g(e.recheck, 10), digitsText(sharedDigits(e.recheck, e.reported)), e.unit]);
   L.push(table(rows));
   L.push(`  estimates: ${digitsText(o.digits)} in common (asked: ${t.estimateDigits}); package status ${o.solverStatus} after ${o.iterations} iterations`);
   L.push(`  weighted SSR: reported ${g(o.ssrReported, 10)}, re-solved ${g(o.ssrRecheck, 10)} (relative difference ${o.ssrRelativeDifference.toExponential(2)}; asked <= ${t.ssrRelative})`);

@@ -17,12 +17,26 @@ import type { FitData, FitResult } from './fit-types.js';
 import { fitModel } from './fit.js';
 import type { RegressionModel } from './model.js';
 import { ResidualProblem } from './residuals.js';
+import { applyWhitening } from './whiten.js';
 
 /** Weighted SSR of `model` at theta (estimation space) as a fit computes it (whitening included); null when the model fails. */
 export function weightedSsr(model: RegressionModel, data: FitData, theta: Float64Array): number | null {
   const problem = new ResidualProblem({ model, measured: data.measured, sigma: data.sigma, thetaFull: theta, freeIndex: [], ...(data.whiten?.length ? { whiten: data.whiten } : {}) });
   const r = new Float64Array(model.nObservations);
   if (!problem.residuals(new Float64Array(0), r)) return null;
+  let ssr = 0;
+  for (let i = 0; i < r.length; i++) ssr += r[i] * r[i];
+  return ssr;
+}
+
+/**
+ * Weighted SSR of given predictions (one per observation, as the model orders them): the scaled
+ * residuals (y - f) / sigma, whitened within correlated blocks, squared and summed, as
+ * ResidualProblem.residuals forms them.
+ */
+export function ssrOfPredictions(data: FitData, predictions: ArrayLike<number>): number {
+  const r = Float64Array.from(data.measured, (y, i) => (y - predictions[i]) * (1 / data.sigma[i]));
+  if (data.whiten?.length) applyWhitening(data.whiten, r);
   let ssr = 0;
   for (let i = 0; i < r.length; i++) ssr += r[i] * r[i];
   return ssr;
