@@ -71,11 +71,11 @@ export function formatPlan(r: PlanResult, csvPath: string): string {
 function planOptions(flags: PlanFlags): PlanOptions {
   const { runs, draws, posteriorDraws, seed, level } = flags;
   const mode = flags.mode ?? 'precision';
-  if (mode !== 'precision' && mode !== 'discrimination') throw new RateloomError('E_USAGE', `--mode must be 'precision' or 'discrimination', not '${mode}'`);
+  if (mode !== 'precision' && mode !== 'discrimination') throw new RateloomError('E_USAGE', `--mode must be 'precision' or 'discrimination', not '${mode}'`, { path: ['--mode'], fix: 'Give --mode precision (narrow the intervals of one rate-law set) or --mode discrimination (tell rival sets apart).' });
   const criterion = flags.criterion ?? 'D';
-  if (!['D', 'Ds', 'A'].includes(criterion)) throw new RateloomError('E_USAGE', `--criterion must be D, Ds or A, not '${criterion}'`);
+  if (!['D', 'Ds', 'A'].includes(criterion)) throw new RateloomError('E_USAGE', `--criterion must be D, Ds or A, not '${criterion}'`, { path: ['--criterion'], fix: 'Give --criterion D (all parameters), Ds (with --subset) or A.' });
   const disc = flags.discrimination ?? 'box-hill';
-  if (disc !== 'box-hill' && disc !== 'hunter-reiner') throw new RateloomError('E_USAGE', `--discrimination must be 'box-hill' or 'hunter-reiner', not '${disc}'`);
+  if (disc !== 'box-hill' && disc !== 'hunter-reiner') throw new RateloomError('E_USAGE', `--discrimination must be 'box-hill' or 'hunter-reiner', not '${disc}'`, { path: ['--discrimination'], fix: 'Give --discrimination box-hill or --discrimination hunter-reiner.' });
   return {
     runs,
     mode,
