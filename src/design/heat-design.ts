@@ -180,13 +180,6 @@ export function sizeCooledBed(input: SizingInput, map: ParameterMap, sys: Design
   return verdict(input, thermal, mc.unc, warnings, base, t, hs);
 }
 
-/** Superficial mass flux of one tube, kg/(m2 s). */
-function massFlux(t: TubeTrial, hs: HeatSizer): number {
-  let m = 0;
-  t.tube.spec.F0.forEach((f, j) => (m += f * hs.molarMasses[j]));
-  return m / hs.area();
-}
-
 /** The full sizing result of a cooled bed: status from the limits and the hot-spot percentile. */
 function verdict(input: SizingInput, thermal: ThermalSizing, unc: UncertaintyResult, warnings: Warning[], base: SizingBase, t: TubeTrial, hs: HeatSizer): UngatedSizing {
   const kase = input.kase;
@@ -227,7 +220,7 @@ function verdict(input: SizingInput, thermal: ThermalSizing, unc: UncertaintyRes
     pressure: { inlet: P0, outlet: P0 - t.drop, drop: t.drop, dropBar: t.drop / 1e5, unit: 'Pa' },
     tubes: {
       count: t.N, innerDiameter: hs.diameter, length: t.length, catalystPerTube: t.W, flowPerTube: t.tube.spec.F0.reduce((a, b) => a + b, 0),
-      superficialMassFlux: massFlux(t, hs), alphaPerTube: t.tube.spec.alpha, pressureDrop: { pa: t.drop, bar: t.drop / 1e5 },
+      superficialMassFlux: t.tube.G, alphaPerTube: t.tube.spec.alpha, pressureDrop: { pa: t.drop, bar: t.drop / 1e5 },
       allowedPressureDrop: kase.tubes!.allowedPressureDrop, designedFor: { level: null, basis: `nominal fit, energy balance (${thermal.design.binding} binding)` }, nominalCount: t.N,
     },
     uncertainty: unc,
