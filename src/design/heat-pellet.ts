@@ -27,7 +27,7 @@ import { HEAT_TRANSFER, MASS_TRANSFER } from '../pellets/external.js';
 import type { RateFactor } from '../reactors/thermal/tube-balances.js';
 import type { DesignCase } from './case.js';
 import type { CasePellet } from './case-pellet.js';
-import { casePelletModel, DIRECT_ABOVE, keySpecies, pelletFilm } from './pellet-hook.js';
+import { casePelletModel, keySpecies, needsDirect, pelletFilm, solvePellet } from './pellet-hook.js';
 
 /** Largest relative change of eta bridged by the per-march table (tighter than the isothermal 0.25: eta follows T). */
 export const THERMAL_ETA_REL_TOL = 0.02;
@@ -61,15 +61,10 @@ export class ThermalPelletFactor {
   readonly factor: RateFactor = (C, T, eta, y) => {
     const x = this.inletFlow > 0 ? 1 - y[this.key] / this.inletFlow : 0;
     if (!this.direct && this.table.lookup(x, eta)) return;
-    const res = this.evaluator.evaluate(C, T);
-    if (!res.ok) {
-      this.failures++;
-      this.lastFailure = res.detail;
-    }
-    eta.set(res.factor);
+    solvePellet(this.evaluator, C, T, eta, this);
     if (this.direct) return;
     this.table.insert(x, eta, 0);
-    for (let i = 0; i < eta.length; i++) if (eta[i] > DIRECT_ABOVE) this.direct = true;
+    this.direct = needsDirect(eta);
   };
 }
 

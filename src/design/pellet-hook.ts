@@ -107,6 +107,28 @@ export function pelletFilm(kase: DesignCase, cp: CasePellet, species: readonly S
   return { film: { kc, h: heatTransfer(flow, kf, cpf).h, enthalpy }, reynolds: mts[0].Re, warnings };
 }
 
+/** Where a rate factor counts its pellet solves that did not converge (their eta is still used). */
+export interface PelletSolveTally {
+  failures: number;
+  lastFailure?: string;
+}
+
+/** eta at bulk (C, T) from a pellet solve, into `eta`; a solve that did not converge is counted on `tally`. */
+export function solvePellet(evaluator: EffectivenessEvaluator, C: Float64Array, T: number, eta: Float64Array, tally: PelletSolveTally): void {
+  const res = evaluator.evaluate(C, T);
+  if (!res.ok) {
+    tally.failures++;
+    tally.lastFailure = res.detail;
+  }
+  eta.set(res.factor);
+}
+
+/** Whether a table entry calls for a pellet solve at every call (some eta above DIRECT_ABOVE). */
+export function needsDirect(eta: ArrayLike<number>): boolean {
+  for (let i = 0; i < eta.length; i++) if (eta[i] > DIRECT_ABOVE) return true;
+  return false;
+}
+
 /** Key species of the eta table: the target species of a conversion target, else the first fed reactant. */
 export function keySpecies(kinetics: CompiledKinetics, kase: DesignCase): number {
   if (kase.target.kind === 'conversion') return kase.species.indexOf(kase.target.species);
@@ -203,7 +225,7 @@ export class PelletRateHook implements RateHook {
     } finally {
       this.learning = false;
     }
-    this.direct = this.table.entries().some((e) => e.values.some((v) => v > DIRECT_ABOVE));
+    this.direct = this.table.entries().some((e) => needsDirect(e.values));
   }
 
   apply(t: number, y: Float64Array, C: Float64Array, T: number, r: Float64Array): void {
@@ -211,12 +233,7 @@ export class PelletRateHook implements RateHook {
     const x = this.progress(y);
     if (this.learning) {
       if (!this.table.lookup(x, eta)) {
-        const res = this.evaluator.evaluate(C, T);
-        if (!res.ok) {
-          this.failures++;
-          this.lastFailure = res.detail;
-        }
-        eta.set(res.factor);
+        solvePellet(this.evaluator, C, T, eta, this);
         this.table.insert(x, eta, t);
       }
     } else {
