@@ -89,22 +89,23 @@ export interface ThermalPelletBuilder {
  */
 export function thermalPelletBuilder(kinetics: CompiledKinetics, kase: DesignCase, cp: CasePellet, species: readonly SpeciesSpec[], molarMasses: ArrayLike<number>, theta: Float64Array, dH: Float64Array): ThermalPelletBuilder {
   const key = keySpecies(kinetics, kase);
-  const modelFor = (G: number): { model: PelletModel; film: ReturnType<typeof pelletFilm> } => {
-    const model = casePelletModel(kinetics, kase, cp, species);
-    if (model.thermal) model.thermal = { ...model.thermal, enthalpy: dH };
-    const film = pelletFilm(kase, cp, species, molarMasses, G, dH);
-    if (film) model.film = film.film;
-    return { model, film };
-  };
-  const build = ((N: number, G: number) => new ThermalPelletFactor(modelFor(G).model, theta, key, kase.feed[key] / N, cp.etaStep)) as ThermalPelletBuilder;
+  // The pellet (geometry, diffusivities, enthalpies) is resolved once; only the film follows the mass flux.
+  const pellet = casePelletModel(kinetics, kase, cp, species);
+  if (pellet.thermal) pellet.thermal = { ...pellet.thermal, enthalpy: dH };
+  const filmAt = (G: number) => pelletFilm(kase, cp, species, molarMasses, G, dH);
+  const build = ((N: number, G: number) => {
+    const film = filmAt(G);
+    const model: PelletModel = film ? { ...pellet, film: film.film } : pellet;
+    return new ThermalPelletFactor(model, theta, key, kase.feed[key] / N, cp.etaStep);
+  }) as ThermalPelletBuilder;
   build.info = (G) => {
-    const f = modelFor(G).film;
+    const f = filmAt(G);
     return {
       method: cp.method,
       nonIsothermal: cp.nonIsothermal,
       film: f ? { massCorrelation: MASS_TRANSFER.name, heatCorrelation: f.film.h !== undefined ? HEAT_TRANSFER.name : null, reynolds: f.reynolds, basis: 'coefficients at the tube inlet (mass flux, density, diffusivities), held along the tube' } : null,
     };
   };
-  build.warnings = (G) => modelFor(G).film?.warnings ?? [];
+  build.warnings = (G) => filmAt(G)?.warnings ?? [];
   return build;
 }
