@@ -8,6 +8,7 @@
 import { RateloomError } from '../core/errors.js';
 import { compareModels } from '../estimation/compare.js';
 import { cholesky } from '../design/random.js';
+import { canonicalJson } from '../design/handoff-hash.js';
 import type { Study } from '../study/types.js';
 import type { StudyFit } from '../workflow/fit-study.js';
 import type { ModelVariant } from '../workflow/study-model.js';
@@ -39,15 +40,6 @@ export interface RivalSetup {
   warnings: string[];
 }
 
-function canonical(v: unknown): string {
-  if (Array.isArray(v)) return `[${v.map(canonical).join(',')}]`;
-  if (v && typeof v === 'object') {
-    const o = v as Record<string, unknown>;
-    return `{${Object.keys(o).sort().filter((k) => o[k] !== undefined).map((k) => `${JSON.stringify(k)}:${canonical(o[k])}`).join(',')}}`;
-  }
-  return JSON.stringify(v);
-}
-
 /**
  * Throws (exit 2) unless there are two or more rival rate-law sets and no two of them have the
  * same rate laws and the same parameters (then nothing could tell them apart).
@@ -55,7 +47,7 @@ function canonical(v: unknown): string {
 export function checkDistinctRivals(variants: readonly ModelVariant[]): void {
   if (variants.length < 2) throw new RateloomError('E_VALUE', `discrimination needs two or more rival rate-law sets, the study has ${variants.length}`, { path: ['candidates'], fix: 'Add rival rate-law sets under "candidates" in the study, or plan for precision (--mode precision).' });
   const keys = variants.map((v) =>
-    canonical({
+    canonicalJson({
       reactions: v.reactions,
       parameters: v.parameters.map((p) => ({ name: p.name, fixed: p.fixed, held: p.fixed ? p.value : undefined })).sort((x, y) => (x.name < y.name ? -1 : 1)),
     }),
