@@ -6,6 +6,7 @@
  * Box-Hill discrimination plan of the three rate-law sets (fits given; their fitting is not timed).
  * Run: npx tsx bench/planning-bench.ts
  */
+import { median } from 'simple-statistics';
 import { readFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
 import { loadStudy } from '../src/study/load';
@@ -31,8 +32,7 @@ function medianOf(f: () => void, n: number): number {
     f();
     t.push(performance.now() - t0);
   }
-  t.sort((a, b) => a - b);
-  return t[Math.floor(n / 2)];
+  return median(t);
 }
 
 export function runPlanningBench(repeats: number): PlanningBench {
