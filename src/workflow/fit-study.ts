@@ -90,7 +90,7 @@ export function findVariant(study: Study, name: string): ModelVariant {
  * The fit with the drift warning of repeated reference conditions added (src/workflow/drift.ts),
  * and a warning when lab responses of a run carry the same measurement twice (fit-data.ts).
  */
-function withDriftWarning(fit: FitResult, study: Study, data: StudyFitData): FitResult {
+function withStudyWarnings(fit: FitResult, study: Study, data: StudyFitData): FitResult {
   const w = driftCheck(study)?.warning;
   const runs = data.dependentRuns;
   const twice = runs.length
@@ -127,7 +127,7 @@ export function finishStudyFit(study: Study, plan: StudyFitPlan, fit: FitResult,
   const steadyStates = tankSteadyStates(study, plan.model, Float64Array.from(fit.parameters, (p) => p.value));
   const branches = tankBranchWarnings(study, steadyStates);
   const shown = roundOffPredictions(fit, study);
-  const named = withDriftWarning(nameObservations(branches.length ? { ...shown.fit, warnings: [...shown.fit.warnings, ...branches] } : shown.fit, study), study, plan.data);
+  const named = withStudyWarnings(nameObservations(branches.length ? { ...shown.fit, warnings: [...shown.fit.warnings, ...branches] } : shown.fit, study), study, plan.data);
   const derived = derivedQuantities(named, plan.variant.reactions.map((r) => r.rate), study.referenceTemperature);
   const transport = fittedLabTransport(study, plan.model, named);
   return {
