@@ -58,7 +58,7 @@ function checkOptions(o: PlanOptions, fits: readonly StudyFit[]): void {
   if (o.posteriorDraws !== undefined) checkOption('posteriorDraws', o.posteriorDraws, ['posteriorDraws']);
   if (o.seed !== undefined) checkOption('seed', o.seed, ['seed']);
   if (o.level !== undefined) checkOption('level', o.level, ['level']);
-  if (!fits.length) throw new RateloomError('E_VALUE', 'planning needs a fit of the study', { path: ['fits'] });
+  if (!fits.length) throw new RateloomError('E_VALUE', 'planning needs a fit of the study', { path: ['fits'], fix: 'Pass the fit of the study (fitStudy), or one fit per rival rate-law set for discrimination.' });
 }
 
 /** Reported runs from chosen candidates with their reasons. */
