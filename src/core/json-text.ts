@@ -201,7 +201,9 @@ export function parseJsonText(text: string, file: string, what = 'JSON file'): u
   try {
     return JSON.parse(clean);
   } catch (e) {
-    const p = findJsonSyntaxError(clean);
+    // The locator strips the one leading BOM itself: give it the original text, not `clean`, or a
+    // second BOM would be stripped and a document JSON.parse rejects would look valid to it.
+    const p = findJsonSyntaxError(text);
     const problem = p ? p.problem : (e as Error).message.split('\n')[0];
     throw new RateloomError('E_JSON', `${what} is not valid JSON: ${problem}`, {
       location: { file, ...(p ? { line: p.line, column: p.column } : {}) },

@@ -40,7 +40,9 @@ describe('JSON text with locations', () => {
           expect(err.message).toContain('Fix:');
         }
       }),
-      { numRuns: 3000 },
+      // Seed fixed so CI is reproducible; the example is a text a random run once found (two BOMs:
+      // JSON.parse rejects the second, so the locator must too).
+      { numRuns: 3000, seed: 20261205, examples: [['\uFEFF\uFEFFtrue']] },
     );
     console.log(`JSON locator property: ${tried} cases tried (${invalid} invalid, each located)`);
   });
