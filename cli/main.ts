@@ -13,6 +13,7 @@ import { registerCheck } from './check.js';
 import { registerSimulate } from './simulate.js';
 import { registerDemo } from './demo.js';
 import { registerPlan } from './plan.js';
+import { registerNew } from './new.js';
 
 const program = new Command();
 program
@@ -32,6 +33,7 @@ registrations.push(registerFit);
 registrations.push(registerCompare);
 registrations.push(registerDemo);
 registrations.push(registerPlan);
+registrations.push(registerNew);
 
 for (const r of registrations) r(program);
 describeRanges(program);

@@ -93,3 +93,6 @@ export { readText, readJson, maxInputBytes } from './api/files.js';
 // Planning the next lab runs (precision or model discrimination).
 export { planRuns, PLAN_STATUS, checkDistinctRivals, parseLimits, LIMITS_SCHEMA, greedyExchange, criterionValue } from './planning/index.js';
 export type { PlanOptions, PlanResult, PlannedRun, LabLimits, CriterionKind, ExchangeProblem, ExchangeResult } from './planning/index.js';
+
+// From lab CSV files to a study skeleton.
+export { studySkeleton, parseOrders, recogniseColumn, splitHeader, rateConstantUnit, type SkeletonOptions, type StudySkeleton, type LocatedTodo, type SkeletonFile } from './onboard/index.js';

@@ -28,6 +28,7 @@ export const ERROR_CODES = {
   E_DATA: 'Correct or remove the data named in the message.',
   E_CASE: 'Correct the production case file.',
   E_HANDOFF_UNTRUSTED: 'Fit again until the verdict is trustworthy and size the hand-off it writes, unchanged; or pass --accept-untrustworthy to size it anyway.',
+  E_COLUMNS: 'Name the columns as lab exports usually do (run, T [degC], P [bar], W [g], F_A,in (mol/min), C_A [mol/L], ...), or write the study file by hand (schema/study.schema.json).',
   E_INTERNAL: 'This is a rateloom bug; please report it with the input that caused it.',
 } as const;
 

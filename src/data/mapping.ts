@@ -13,6 +13,7 @@ import { columnIndex, type CsvRow, type CsvTable } from './csv.js';
 import { decimalCommaToPoint } from './dialect.js';
 import { PHYSICAL_RANGES, outsideRange, type PhysicalRange } from './ranges.js';
 import type { Rejection } from './report.js';
+import type { SourceLayout } from './report.js';
 import type { FieldSpec, LongSourceSpec, MeasureSpec, MeasuredSpec, PerRunColumns, PerRunSourceSpec, ResponseKind } from './spec.js';
 import type { RunParameterRef } from './run-parameters.js';
 import { prepareBalanceRates, prepareRateComposition, readBalanceRate, readRateComposition, type MappingTools, type PreparedBalanceRate, type PreparedComposition } from './rate-composition.js';
@@ -78,7 +79,7 @@ export interface MappedObservation {
 
 export interface MappedSource {
   file: string;
-  layout: 'per-run' | 'long';
+  layout: SourceLayout;
   rowsIn: number;
   runs: MappedRun[];
   observations: MappedObservation[];
@@ -121,12 +122,12 @@ export interface Prepared {
   conv: UnitConversion;
 }
 
-function ambientSI(spec: MeasureSpec | undefined, path: FieldPath): number | undefined {
+export function ambientSI(spec: MeasureSpec | undefined, path: FieldPath): number | undefined {
   if (!spec) return undefined;
   return unitFor('pressure', spec.unit, { path: [...path, 'ambientPressure', 'unit'] }).toSI(spec.value);
 }
 
-function prepare(table: CsvTable, name: string, f: FieldSpec, q: Quantity, path: FieldPath, ambient?: number, parameterStart?: MappingContext['parameterStart']): Prepared {
+export function prepare(table: CsvTable, name: string, f: FieldSpec, q: Quantity, path: FieldPath, ambient?: number, parameterStart?: MappingContext['parameterStart']): Prepared {
   const hasColumn = typeof f.column === 'string';
   const hasValue = typeof f.value === 'number';
   if (typeof f.parameter === 'string') return prepareParameterField(name, f, q, path, parameterStart, hasColumn || hasValue);
@@ -139,7 +140,7 @@ function prepare(table: CsvTable, name: string, f: FieldSpec, q: Quantity, path:
   return { name, constant: conv.toSI(f.value as number), conv };
 }
 
-function speciesIdx(ctx: MappingContext, name: string, path: FieldPath): number {
+export function speciesIdx(ctx: MappingContext, name: string, path: FieldPath): number {
   const j = ctx.speciesNames.indexOf(name);
   if (j >= 0) return j;
   const near = closestName(name, ctx.speciesNames);
@@ -149,7 +150,7 @@ function speciesIdx(ctx: MappingContext, name: string, path: FieldPath): number 
   });
 }
 
-function checkErrorModel(ctx: MappingContext, name: string | undefined, path: FieldPath): void {
+export function checkErrorModel(ctx: MappingContext, name: string | undefined, path: FieldPath): void {
   if (name === undefined || ctx.errorModelNames.includes(name)) return;
   const near = closestName(name, ctx.errorModelNames);
   throw new RateloomError('E_VALUE', `error model '${name}' is not defined in errorModels${near ? ` (did you mean '${near}'?)` : ''}`, {
@@ -165,7 +166,7 @@ function shortCell(cell: string): string {
 }
 
 /** The message of a row whose cell count differs from the header's, with a hint on decimal commas. */
-function columnCountMessage(cells: number, header: number, delimiter: string): string {
+export function columnCountMessage(cells: number, header: number, delimiter: string): string {
   const hint = delimiter === ',' && cells > header ? " (decimal commas split cells in a comma-separated file: separate cells with ';' instead, or write decimal points)" : '';
   return `row has ${cells} cells, the header has ${header}${hint}`;
 }

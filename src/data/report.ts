@@ -29,9 +29,12 @@ export interface Rejection {
   message: string;
 }
 
+/** Layout names of the data sources (schema/study.schema.json). */
+export type SourceLayout = 'per-run' | 'long' | 'stacked' | 'run-file';
+
 export interface SourceSummary {
   file: string;
-  layout: 'per-run' | 'long';
+  layout: SourceLayout;
   rowsIn: number;
   rowsUsed: number;
   rowsRejected: number;

@@ -85,3 +85,59 @@ export interface LongSourceSpec {
 }
 
 export type SourceSpec = PerRunSourceSpec | LongSourceSpec;
+
+/** A per-species amount column of a stacked source: a molar flow or a concentration (its unit tells which). */
+export interface StackedAmountSpec {
+  column: string;
+  unit: string;
+}
+
+/**
+ * One row per run and species (the "long" export of many lab spreadsheets): the run's conditions
+ * repeated on each of its rows, a species column, and that species' inlet and measured outlet
+ * amount. See stacked.ts.
+ */
+export interface StackedSourceSpec {
+  file: string;
+  layout: 'stacked';
+  ambientPressure?: MeasureSpec;
+  errorModel?: string;
+  columns: {
+    run: string;
+    species: string;
+    temperature: FieldSpec;
+    pressure?: FieldSpec;
+    catalystMass?: FieldSpec;
+    volume?: FieldSpec;
+    volumetricFlow?: FieldSpec;
+    /** Feed molar flow, or inlet concentration (flow reactors; with volumetricFlow), or initial concentration (batch). */
+    inlet?: StackedAmountSpec;
+    /** Measured outlet molar flow (outlet-flow) or concentration (outlet-concentration). */
+    outlet: StackedAmountSpec;
+  };
+}
+
+/**
+ * One file per run (a batch run's samples): a time column, the temperature, and one concentration
+ * column per species. The row at time 0 gives the initial concentrations; every later row is a
+ * sample. See run-file.ts.
+ */
+export interface RunFileSourceSpec {
+  file: string;
+  layout: 'run-file';
+  /** Run id. Default: the file name without folders and extension. */
+  run?: string;
+  /** Unit of the species columns (a concentration unit). */
+  unit: string;
+  errorModel?: string;
+  columns: {
+    time: FieldSpec;
+    temperature: FieldSpec;
+    pressure?: FieldSpec;
+    /** Species -> column of its concentration. */
+    species: Record<string, string>;
+  };
+}
+
+/** Every source layout a study may use. */
+export type AnySourceSpec = SourceSpec | StackedSourceSpec | RunFileSourceSpec;

@@ -9,17 +9,17 @@
 import { sumNthPowerDeviations } from 'simple-statistics';
 import { RateloomError } from '../core/errors.js';
 import type { MappedObservation, MappedRun, RowLocation } from './mapping.js';
-import { describeRules, type CheckSettings, type PureError, type Rejection, type ReplicateGroup, type SourceSummary, type ValidationReport } from './report.js';
+import { describeRules, type CheckSettings, type PureError, type Rejection, type ReplicateGroup, type SourceLayout, type SourceSummary, type ValidationReport } from './report.js';
 
 /** Row bookkeeping for every source of a study. */
 export class Ledger {
-  private readonly sources = new Map<string, { layout: 'per-run' | 'long'; rowsIn: number; rejected: Set<number> }>();
+  private readonly sources = new Map<string, { layout: SourceLayout; rowsIn: number; rejected: Set<number> }>();
   readonly rejections: Rejection[] = [];
   /** Last file asked about in isRejected and its set of rejected lines (a lookup cache). */
   private lastFile: string | undefined;
   private lastRejected: Set<number> | undefined;
 
-  addSource(file: string, layout: 'per-run' | 'long', rowsIn: number): void {
+  addSource(file: string, layout: SourceLayout, rowsIn: number): void {
     this.sources.set(file, { layout, rowsIn, rejected: new Set() });
     this.lastFile = undefined;
     this.lastRejected = undefined;

@@ -15,7 +15,9 @@ import { unitFor } from '../units/index.js';
 import type { CsvTable } from '../data/csv.js';
 import { mapLongSource, mapPerRunSource, type MappingContext, type MappedObservation, type MappedRun, type MappedSource, type RowLocation } from '../data/mapping.js';
 import { DEFAULT_CHECKS, type CheckSettings, type PureError } from '../data/report.js';
-import type { LongSourceSpec, MeasureSpec, PerRunSourceSpec, SourceSpec } from '../data/spec.js';
+import type { AnySourceSpec, LongSourceSpec, MeasureSpec, PerRunSourceSpec, RunFileSourceSpec, StackedSourceSpec } from '../data/spec.js';
+import { mapStackedSource } from '../data/stacked.js';
+import { mapRunFileSource } from '../data/run-file.js';
 import { Ledger, type InletCheckContext, assertNoRejections, buildReport, checkAboveInlet, checkElementBalance, findReplicates, mergeDuplicateRuns, pureErrors, rejectZeroFeeds } from '../data/validation.js';
 import schemaJson from '../../schema/study.schema.json' with { type: 'json' };
 import { checkSchema, type JsonSchema } from './schema-check.js';
@@ -47,7 +49,7 @@ interface RawStudy {
     membrane?: { permeation: Record<string, MeasureSpec>; sweep?: Record<string, MeasureSpec> };
   };
   referenceTemperature?: number | MeasureSpec;
-  data: SourceSpec[];
+  data: AnySourceSpec[];
   parameters: ParameterSpec[];
   errorModels?: Record<string, { absolute?: MeasureSpec; relative?: number; replicates?: true; size?: 'known' | 'weights' }>;
   candidates?: { name: string; description?: string; nests?: string; reactions: Record<string, RateLawSpec>; parameters?: ParameterSpec[] }[];
@@ -344,10 +346,12 @@ function readData(
   const perRun: MappedSource[] = [];
   raw.data.forEach((s, i) => {
     if (s.layout === 'per-run') perRun.push(mapPerRunSource(tables[i], s as PerRunSourceSpec, ctxFor(i)));
+    else if (s.layout === 'stacked') perRun.push(mapStackedSource(tables[i], s as StackedSourceSpec, ctxFor(i)));
+    else if (s.layout === 'run-file') perRun.push(mapRunFileSource(tables[i], s as RunFileSourceSpec, ctxFor(i)));
   });
   for (const m of perRun) ledger.reject(...m.rejections);
   if (!perRun.length) {
-    throw new RateloomError('E_MISSING_FIELD', 'the data need at least one per-run source (run conditions)', { path: ['data'], fix: 'Add a source with "layout": "per-run" giving each run\'s conditions.' });
+    throw new RateloomError('E_MISSING_FIELD', 'the data need at least one per-run source (run conditions)', { path: ['data'], fix: 'Add a source with "layout": "per-run", "stacked" or "run-file" giving each run\'s conditions.' });
   }
   // Plain loops instead of flatMap and map-to-pairs: these run over every row and observation.
   const allRuns: MappedRun[] = [];
@@ -424,7 +428,7 @@ function checkPerRunRows(data: SourceData, models: Record<string, ErrorModel>, c
 }
 
 /** Long sources, mapped against the surviving runs; their observations checked and added to `rows`. */
-function addLongSources(sources: readonly SourceSpec[], data: SourceData, rows: CheckedRows, inletCtx: InletCheckContext): void {
+function addLongSources(sources: readonly AnySourceSpec[], data: SourceData, rows: CheckedRows, inletCtx: InletCheckContext): void {
   const known = new Set<string>();
   if (sources.some((s) => s.layout === 'long')) for (const r of rows.runs) known.add(r.id);
   sources.forEach((s, i) => {

@@ -6,7 +6,7 @@
 import { dirname, isAbsolute, relative, resolve, sep } from 'node:path';
 import { RateloomError, isRateloomError } from '../core/errors.js';
 import { readCsv, type CsvTable } from '../data/csv.js';
-import type { SourceSpec } from '../data/spec.js';
+import type { AnySourceSpec } from '../data/spec.js';
 
 /** How data paths may be resolved. */
 export interface SourcePathOptions {
@@ -50,7 +50,7 @@ function readOne(file: string, i: number, abs: string, readFile: (absPath: strin
 }
 
 /** Read and parse every source of a study, refusing repeats and paths outside its folder. */
-export function readSources(data: readonly SourceSpec[], studyPath: string, readFile: (absPath: string) => string, opts: SourcePathOptions = {}): CsvTable[] {
+export function readSources(data: readonly AnySourceSpec[], studyPath: string, readFile: (absPath: string) => string, opts: SourcePathOptions = {}): CsvTable[] {
   const firstAt = new Map<string, number>();
   return data.map((src, i) => {
     const abs = sourcePath(src.file, i, studyPath, opts);

@@ -8,7 +8,7 @@ import type { ReactionSpec } from '../kinetics/spec.js';
 import type { Parameter } from '../core/parameter.js';
 import type { ReactorSpec, RunConditions } from '../reactors/types.js';
 import type { ReplicateGroup, ValidationReport } from '../data/report.js';
-import type { ResponseKind, SourceSpec } from '../data/spec.js';
+import type { AnySourceSpec, ResponseKind } from '../data/spec.js';
 import type { RunParameterRef } from '../data/run-parameters.js';
 import type { PelletSpec } from '../pellets/types.js';
 import type { PelletFluid } from '../pellets/load.js';
@@ -175,7 +175,7 @@ export interface Study {
   activity?: Activity;
   /** The data sources as written in the study file (column mapping and units), for writers that
    * produce CSV in the study's own layout (the run planner). */
-  sources?: SourceSpec[];
+  sources?: AnySourceSpec[];
 }
 
 export interface LoadedStudy {
