@@ -6,7 +6,8 @@
 import { isAbsolute, resolve } from 'node:path';
 import { RateloomError, isRateloomError } from '../core/errors.js';
 import { type CsvTable, readCsv } from '../data/csv.js';
-import type { SourceSpec } from '../data/spec.js';
+import type { AnySourceSpec } from '../data/spec.js';
+import { runFileId } from '../data/run-file.js';
 import { activityParameters } from './activity-params.js';
 import { resolveLabConfig } from './lab-config.js';
 import { loadLabRows } from './lab-load.js';
@@ -34,10 +35,11 @@ function readLabTable(spec: LabDataSpec, io: LabIo) {
 }
 
 /** Every run id written in the run column of the per-run sources, rows rejected later included. */
-export function perRunIds(tables: readonly CsvTable[], specs: readonly SourceSpec[]): Set<string> {
+export function perRunIds(tables: readonly CsvTable[], specs: readonly AnySourceSpec[]): Set<string> {
   const ids = new Set<string>();
   specs.forEach((s, i) => {
-    if (s.layout !== 'per-run') return;
+    if (s.layout === 'run-file') ids.add(runFileId(s));
+    if (s.layout !== 'per-run' && s.layout !== 'stacked') return;
     const col = tables[i].header.indexOf(s.columns.run);
     if (col >= 0) for (const row of tables[i].rows) ids.add((row.cells[col] ?? '').trim());
   });

@@ -33,7 +33,7 @@ describe('invented layouts', () => {
     expect(sk.todo.some((x) => /PLACEHOLDER reaction/.test(x.what) && x.line !== undefined)).toBe(true);
     const { study, report } = loadStudy(sk.text, studyPath, (abs) => readFileSync(abs, 'utf8'));
     expect(report.rowsRejected).toBe(0);
-    const r = fitStudy(study, { profiles: false });
+    const r = fitStudy(study, { profile: false });
     expect(r.fit.verdict.trustworthy).toBe(true);
     expect(r.fit.success).toBe(true);
     const [k, E] = r.fit.parameters;
