@@ -30,7 +30,3 @@ export const ATOMIC_WEIGHTS: ReadonlyMap<string, number> = new Map<string, numbe
   ['Pa', 231.03588], ['U', 238.02891], ['Np', 237], ['Pu', 244],
 ]);
 
-/** True when `symbol` is a known element symbol (case-sensitive: 'Co' is cobalt, 'CO' is not a symbol). */
-export function isElement(symbol: string): boolean {
-  return ATOMIC_WEIGHTS.has(symbol);
-}

@@ -85,7 +85,3 @@ export function externalDerivative(p: Pick<Parameter, 'transform'>, internal: nu
   return p.transform === 'log' ? Math.exp(internal) : 1;
 }
 
-/** A copy of a parameter with a new value (and nothing else changed). */
-export function withValue(p: Parameter, value: number): Parameter {
-  return { ...p, value };
-}

@@ -28,8 +28,6 @@ export interface FieldSpec {
 
 export type ResponseKind = 'outlet-flow' | 'outlet-concentration' | 'conversion' | 'rate' | 'outlet-pressure';
 
-export const RESPONSE_KINDS: readonly ResponseKind[] = ['outlet-flow', 'outlet-concentration', 'conversion', 'rate', 'outlet-pressure'];
-
 export interface MeasuredSpec {
   response: ResponseKind;
   /** Species measured; required for every response except outlet-pressure. */

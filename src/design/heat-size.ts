@@ -15,7 +15,6 @@
  */
 import type { CompiledKinetics } from '../kinetics/compiled.js';
 import { brent } from '../numerics/roots.js';
-import type { ShootingReport } from '../reactors/thermal/counter-current.js';
 import { ThermalTube, type ThermalTubeSolution } from '../reactors/thermal/thermal-tube.js';
 import type { ThermalCase } from './heat-case.js';
 import type { DesignSystem } from './system.js';
@@ -184,7 +183,3 @@ export function chooseTubes(hs: HeatSizer, key: number, X: number): HeatDesignCh
   return { trial, binding, met: true, countFor };
 }
 
-/** Report of the counter-current solve of a design, when there is one. */
-export function bvpOf(t: TubeTrial): ShootingReport | undefined {
-  return t.solution?.bvp;
-}

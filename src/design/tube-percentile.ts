@@ -113,19 +113,6 @@ export function raiseTubeCount(
   return { count: hi, sizing };
 }
 
-/** Design the tube count for the percentile `level` of the required catalyst mass; see the header. */
-export function designTubesForPercentile(input: PercentileTubeInput): PercentileTubeResult {
-  const steps = designTubesForPercentileSteps({
-    ...input,
-    monteCarlo: function* () {
-      return input.monteCarlo();
-    },
-  });
-  let next = steps.next();
-  while (!next.done) next = steps.next(undefined as never);
-  return next.value;
-}
-
 /**
  * designTubesForPercentile with the Monte Carlo pass as a generator (it may yield to have its
  * draws computed elsewhere, e.g. on worker threads); `monteCarlo(count)` runs with the sizer's alpha

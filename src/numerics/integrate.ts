@@ -18,8 +18,7 @@
 import type { OdeOptions, OdeResult, OdeRhs } from './ode-types.js';
 import { integratePooled } from './ode-workspace.js';
 
-export { ODE_STATUS } from './ode-common.js';
-export { AUTO_STIFFNESS_THRESHOLD, badInputResult, OdeWorkspace } from './ode-workspace.js';
+export { badInputResult, OdeWorkspace } from './ode-workspace.js';
 
 /**
  * Integrate y' = f(t, y) from t0 to t1. `f` writes dy/dt into its `out` argument and must not

@@ -35,13 +35,6 @@ function cloneable<T extends object>(o: T): Partial<T> {
   return Object.fromEntries(Object.entries(o).filter(([, v]) => typeof v !== 'function' && v !== undefined)) as Partial<T>;
 }
 
-/** Worker threads fitStudyParallel would use for these options (after resolving 'auto'). */
-export function fitWorkers(study: Study, options: ParallelFitOptions = {}): number {
-  const { workers, ...fitOptions } = options;
-  const plan = planStudyFit(study, fitOptions);
-  return workersForPlan(study, plan.variant.parameters.filter((p) => !p.fixed).length, plan.starts, fitOptions, workers);
-}
-
 function workersForPlan(study: Study, nFree: number, starts: number, options: StudyFitOptions, setting: WorkersSetting | undefined): number {
   const profile = options.profile ?? true;
   return chooseWorkers(setting, { profileParameters: profile ? nFree : 0, runs: study.runs.length, starts });

@@ -64,8 +64,3 @@ export function gasConcentrationJacobian(
   }
 }
 
-/** Liquid-phase concentrations C_j = F_j / v0 (flows, mol/s; v0, m3/s) or N_j / V (moles; V, m3). */
-export function liquidConcentrations(F: Float64Array, nS: number, v0: number, out: Float64Array): void {
-  const inv = 1 / v0;
-  for (let j = 0; j < nS; j++) out[j] = F[j] * inv;
-}

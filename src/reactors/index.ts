@@ -55,7 +55,6 @@ export function solveReactor(
   return model.solve(spec, run, kinetics, theta, options);
 }
 
-export { ergunAlpha, ergunBeta0, resolveAlpha } from './ergun.js';
-export { totalConcentration } from './gas.js';
-export { REACTOR_STATUS } from './status.js';
+export { ergunAlpha, resolveAlpha } from './ergun.js';
+
 export type * from './types.js';

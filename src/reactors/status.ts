@@ -5,7 +5,7 @@
 import type { StatusTable } from '../core/outcome.js';
 import type { ReactorStatus } from './types.js';
 
-export const REACTOR_STATUS: StatusTable<ReactorStatus> = {
+const REACTOR_STATUS: StatusTable<ReactorStatus> = {
   success: { success: true, message: 'reactor solved' },
   'integration-failed': { success: false, message: 'the integration of the mole balances failed' },
   'pressure-exhausted': { success: false, message: 'the pressure falls to zero inside the reactor' },
@@ -13,11 +13,7 @@ export const REACTOR_STATUS: StatusTable<ReactorStatus> = {
   'non-finite': { success: false, message: 'a non-finite value appeared in the solution' },
 };
 
-/** success flag per status. */
-export const STATUS_SUCCESS: Record<ReactorStatus, boolean> = {
-  success: true,
-  'integration-failed': false,
-  'pressure-exhausted': false,
-  'newton-failed': false,
-  'non-finite': false,
-};
+/** success flag per status, read from the table. */
+export const STATUS_SUCCESS = Object.fromEntries(
+  Object.entries(REACTOR_STATUS).map(([status, row]) => [status, row.success]),
+) as Record<ReactorStatus, boolean>;

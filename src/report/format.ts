@@ -46,26 +46,6 @@ export function formatNumber(x: number | null | undefined, sig = SIG_VALUE): str
   return `${minus}${trimZeros(mant)}×10${superscript(String(Number(exp)))}`;
 }
 
-/** Plain ASCII variant (1.234e-5) for places where unicode is unwanted (chart tooltips, CSV). */
-export function formatNumberAscii(x: number | null | undefined, sig = SIG_VALUE): string {
-  if (x === null || x === undefined) return NOT_COMPUTED;
-  if (!Number.isFinite(x)) return 'n/a';
-  return Number(x.toPrecision(sig)).toString();
-}
-
-/** Integer with thin-space thousands grouping (12 345). */
-export function formatInteger(x: number | null | undefined): string {
-  if (x === null || x === undefined) return NOT_COMPUTED;
-  if (!Number.isFinite(x)) return 'n/a';
-  return Math.round(x).toString().replace(/\B(?=(\d{3})+(?!\d))/g, '\u2009').replace('-', '−');
-}
-
-/** Fraction 0..1 as a percentage with `sig` significant digits ('97.3 %'); value only, no unit. */
-export function formatPercentValue(fraction: number | null | undefined, sig = 3): string {
-  if (fraction === null || fraction === undefined) return NOT_COMPUTED;
-  return formatNumber(fraction * 100, sig);
-}
-
 /** Text shown for a dimensionless unit. */
 export const DIMENSIONLESS = '–';
 

@@ -33,7 +33,6 @@ export type Node =
   | { readonly kind: 'call'; readonly id: number; readonly height: number; readonly fn: FnName; readonly args: readonly Node[] };
 
 export type NumNode = Extract<Node, { kind: 'num' }>;
-export type BinaryNode = Extract<Node, { a: Node; b: Node }>;
 
 /**
  * Numeric semantics of the non-Math helpers. Passed by reference into generated functions, so the

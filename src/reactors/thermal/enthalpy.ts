@@ -57,12 +57,3 @@ export class ReactionEnthalpy {
   }
 }
 
-/** sum_j F_j Cp_j(T) (W/K for flows in mol/s, J/K for moles). */
-export function flowHeatCapacity(cp: readonly (HeatCapacity | undefined)[], F: ArrayLike<number>, T: number): number {
-  let s = 0;
-  for (let j = 0; j < cp.length; j++) {
-    const h = cp[j];
-    if (h && F[j] !== 0) s += F[j] * cpAt(h, T);
-  }
-  return s;
-}

@@ -57,7 +57,3 @@ export function paddedDomain(values: number[], pad = 0.05): [number, number] {
   return [lo, hi];
 }
 
-/** Distinct values in first-seen order. */
-export function distinct<T>(values: T[]): T[] {
-  return [...new Set(values)];
-}
