@@ -23,7 +23,6 @@ describe('--workers 1 and --workers 2 print the same JSON', () => {
     const size = (w: string) =>
       run(['size', 'tests/design/fixtures/bed.kinetics.json', 'tests/design/fixtures/bed.case.json', '--draws', '300', '--json', '--workers', w]);
     // one spawn each; the two settings run side by side
-    // biome-ignore lint/suspicious/noFocusedTests: fit() here is this file's CLI helper, not a focused test
     const [f1, f2, s1, s2] = await Promise.all([fit('1'), fit('2'), size('1'), size('2')]);
     expect(f1.code).toBe(0);
     expect(JSON.parse(f1.out).fit.profiles.length).toBeGreaterThan(0);
