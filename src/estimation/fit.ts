@@ -23,6 +23,7 @@ import { analyseJacobian, informationCriteria, lackOfFit, nullDirection, observa
 import type { FitStatus } from './status.js';
 import { FIT_STATUS } from './status.js';
 import { applyVerdict, type VerdictRules } from './verdict.js';
+import { batchOf, runStepsHere, type JobSteps } from '../core/jobs.js';
 
 export type { FitData, FitOptions, FitResult } from './fit-types.js';
 
@@ -36,9 +37,13 @@ export function fitModel(
   data: FitData,
   options: FitOptions = {},
 ): FitResult {
-  const prep = prepareFit(model, parameters, data, options);
+  return runStepsHere(fitModelSteps(prepareFit(model, parameters, data, options)));
+}
+
+/** fitModel as steps (src/core/jobs.ts): the solve here, then the profiles as a batch of jobs. */
+export function* fitModelSteps(prep: PreparedFit): JobSteps<FitResult> {
   const { result } = solveFree(prep, prep.thetaFull);
-  return assembleFit(prep, result);
+  return yield* fitSteps(prep, result);
 }
 
 const fmt = (v: number): string => (Math.abs(v) >= 1e-3 && Math.abs(v) < 1e5 ? v.toPrecision(4) : v.toExponential(3));
@@ -218,20 +223,40 @@ export function profilesApply(fit: FitResult): boolean {
   return FIT_STATUS[fit.statistics.solverStatus].success && fit.observations.length > 0 && fit.covariance.internal !== null && fit.statistics.dof > 0;
 }
 
-/** Profile-likelihood intervals of every free parameter (when profilesApply). */
-function profilesOf(prep: PreparedFit, fit: FitResult, thetaHat: Float64Array): ParameterProfile[] {
+/** One profile job: the profile-likelihood interval of the parameter at `index` of theta. */
+export type ProfileJob = Omit<Parameters<typeof profileParameter>[0], 'prep'>;
+
+/** The profile jobs of every free parameter (none unless profilesApply). */
+function profileJobs(prep: PreparedFit, fit: FitResult, thetaHat: Float64Array): ProfileJob[] {
   const covInt = fit.covariance.internal;
   if (!profilesApply(fit) || !covInt) return [];
-  const free = prep.freeIndex;
-  return free.map((j, k) => {
-    const prof = profileParameter({ prep, thetaHat, index: j, ssrMin: fit.statistics.ssr, internalStdError: Math.sqrt(covInt[k][k]), linear: fit.parameters[j].ci.linear });
-    prep.options.profileProgress?.(k + 1, free.length);
-    return prof;
-  });
+  return prep.freeIndex.map((j, k) => ({ thetaHat, index: j, ssrMin: fit.statistics.ssr, internalStdError: Math.sqrt(covInt[k][k]), linear: fit.parameters[j].ci.linear }));
 }
 
-/** Build the FitResult from a solver result (also used by the multistart driver). */
+/** Build the FitResult from a solver result, profiles included unless withProfile is false. */
 export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.options.profile ?? true): FitResult {
+  return runStepsHere(fitSteps(prep, lm, withProfile));
+}
+
+/**
+ * assembleFit as steps: statistics and verdict at the solver's end point here, then the profile of
+ * every free parameter as one batch of 'fit-profile' jobs (src/core/jobs.ts).
+ */
+export function* fitSteps(prep: PreparedFit, lm: LmResult, withProfile = prep.options.profile ?? true): JobSteps<FitResult> {
+  const { fit, thetaHat } = fitAtEstimate(prep, lm);
+  const jobs = withProfile ? profileJobs(prep, fit, thetaHat) : [];
+  if (!jobs.length) return fit;
+  const profiles = yield* batchOf<ProfileJob, ParameterProfile>({
+    kind: 'fit-profile',
+    jobs,
+    runHere: (job) => profileParameter({ prep, ...job }),
+    ...(prep.options.profileProgress ? { onProgress: prep.options.profileProgress } : {}),
+  });
+  return applyProfiles(fit, profiles, prep.options.verdict);
+}
+
+/** The FitResult without profiles at a solver result, and the full theta there. */
+function fitAtEstimate(prep: PreparedFit, lm: LmResult): { fit: FitResult; thetaHat: Float64Array } {
   const { model, data, options } = prep;
   const m = model.nObservations;
   const p = prep.freeIndex.length;
@@ -292,9 +317,7 @@ export function assembleFit(prep: PreparedFit, lm: LmResult, withProfile = prep.
     ...diag,
     profiles: [],
   };
-  const fit = applyVerdict(base, options.verdict);
-  const profiles = withProfile ? profilesOf(prep, fit, at.thetaHat) : [];
-  return profiles.length ? applyProfiles(fit, profiles, options.verdict) : fit;
+  return { fit: applyVerdict(base, options.verdict), thetaHat: at.thetaHat };
 }
 
 /**

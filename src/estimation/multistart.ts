@@ -19,7 +19,8 @@
 import { outcome, type Outcome, type Warning } from '../core/outcome.js';
 import { toExternal } from '../core/parameter.js';
 import type { Parameter } from '../core/parameter.js';
-import { assembleFit } from './fit.js';
+import { assembleFit, fitSteps } from './fit.js';
+import { batchOf, runStepsHere, type JobSteps } from '../core/jobs.js';
 import type { FitData, FitOptions, FitResult } from './fit-types.js';
 import { minimumFound } from './verdict.js';
 import type { LmResult } from './lm.js';
@@ -247,14 +248,21 @@ export function multistartFit(
   if (!Number.isInteger(count) || count < 0) {
     throw new RateloomError('E_VALUE', `starts must be a non-negative integer, got ${count}`, { path: ['starts'] });
   }
-  const prep = prepareFit(model, parameters, data, options);
+  return runStepsHere(multistartSteps(prepareFit(model, parameters, data, options), options));
+}
+
+/**
+ * multistartFit as steps (src/core/jobs.ts): the starts as one batch of 'fit-start' jobs, the
+ * grouping here, then the full fit (with its profile jobs) at the best minimum.
+ */
+export function* multistartSteps(prep: PreparedFit, options: MultistartOptions = {}): JobSteps<MultistartResult> {
   const design = multistartDesign(prep, options);
-  const total = design.length;
-  const results: LmResult[] = [];
-  design.forEach((x0, s) => {
-    results.push(runStart(prep, x0));
-    options.progress?.(s + 1, total);
+  const results = yield* batchOf<number[], LmResult>({
+    kind: 'fit-start',
+    jobs: design,
+    runHere: (x0) => runStart(prep, x0),
+    ...(options.progress ? { onProgress: options.progress } : {}),
   });
   const groups = groupStarts(prep, design, results, options);
-  return multistartResult(design, groups, assembleFit(prep, groups.bestLm));
+  return multistartResult(design, groups, yield* fitSteps(prep, groups.bestLm));
 }

@@ -12,6 +12,7 @@
  * depend on this choice: every parallel path gives the serial result, byte for byte.
  */
 import { availableParallelism } from 'node:os';
+import { RateloomError } from '../core/errors.js';
 
 /** Worker threads requested: a count (1 = serial, in this thread) or 'auto' (see the header). */
 export type WorkersSetting = number | 'auto';
@@ -49,13 +50,19 @@ export function largeWork(w: WorkSize): boolean {
 }
 
 /**
- * Worker threads to use: a given count as is (at least 1), or for 'auto' 2 when the machine has
- * 2 or more cores and the work is large, else 1 (serial).
+ * Worker threads to use: a given count as is, or for 'auto' 2 when the machine has 2 or more cores
+ * and the work is large, else 1 (serial). A count that is not a whole number >= 1 is bad input.
  * @param cores cores available; default os.availableParallelism()
  */
 export function chooseWorkers(setting: WorkersSetting | undefined, work: WorkSize, cores = availableParallelism()): number {
   if (setting === undefined || setting === 'auto') return cores >= 2 && largeWork(work) ? AUTO_RULE.workers : 1;
-  return Math.max(1, Math.floor(setting));
+  if (!(Number.isInteger(setting) && setting >= 1)) {
+    throw new RateloomError('E_VALUE', `workers is ${setting}; it must be a whole number >= 1 or 'auto'`, {
+      path: ['workers'],
+      fix: "Give 'auto' or a whole number of worker threads >= 1 (1 = serial).",
+    });
+  }
+  return setting;
 }
 
 /** One-line statement of the rule, for --help texts. */

@@ -16,22 +16,18 @@
  */
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
-
-/** The outcome of one job: its result, or why it failed. */
-export type JobOutcome<R> = { ok: true; value: R } | { ok: false; message: string };
+import type { JobOutcome, JobProgress } from '../core/jobs.js';
 
 export interface PoolOptions {
   /** Worker threads; default os.availableParallelism() (<= 1 runs the jobs in this thread). */
   workers?: number;
 }
 
-/** Called as jobs of a batch finish, with (jobs done, jobs in the batch); no output of its own. */
-export type JobProgress = (done: number, total: number) => void;
-
 /** The shape a job module must export. */
 export interface JobModule<C, S, J, R> {
   setup?: (context: C) => S | Promise<S>;
-  runJob: (state: S, job: J) => R | Promise<R>;
+  /** Run one job; `kind` is the kind of its batch (src/core/jobs.ts) when the pool was given one. */
+  runJob: (state: S, job: J, kind?: string) => R | Promise<R>;
 }
 
 /**
@@ -78,12 +74,19 @@ export function chunkRanges(total: number, chunks: number): { start: number; cou
 
 const message = (e: unknown): string => (e instanceof Error ? e.message : String(e));
 
+/** The outcome of a job that was never started because its batch was cancelled. */
+const CANCELLED: JobOutcome<never> = { ok: false, message: 'cancelled' };
+
 /** A started pool: workers with the job module set up, reusable for several batches of jobs. */
 export interface JobPool<J, R> {
   /** Worker threads running (0: jobs run in this thread). */
   readonly workers: number;
-  /** Run a batch; outcomes in job order. One batch at a time. `onDone` is called as jobs finish. */
-  run(jobs: readonly J[], onDone?: JobProgress): Promise<JobOutcome<R>[]>;
+  /**
+   * Run a batch; outcomes in job order. One batch at a time. `onDone` is called as jobs finish;
+   * after `signal` aborts no further job is handed out (those jobs are 'cancelled'); `kind` goes to
+   * each runJob call.
+   */
+  run(jobs: readonly J[], onDone?: JobProgress, signal?: AbortSignal, kind?: string): Promise<JobOutcome<R>[]>;
   /** Stop the workers. */
   close(): Promise<void>;
 }
@@ -108,11 +111,12 @@ export async function startPool<C, J, R>(moduleUrl: string, context: C, options:
     const state = mod.setup ? await mod.setup(context) : context;
     return {
       workers: 0,
-      async run(jobs, onDone) {
+      async run(jobs, onDone, signal, kind) {
         const out: JobOutcome<R>[] = [];
         for (const job of jobs) {
           try {
-            out.push({ ok: true, value: await mod.runJob(state, job) });
+            if (signal?.aborted) out.push(CANCELLED);
+            else out.push({ ok: true, value: await mod.runJob(state, job, kind) });
           } catch (e) {
             out.push({ ok: false, message: message(e) });
           }
@@ -154,7 +158,7 @@ export async function startPool<C, J, R>(moduleUrl: string, context: C, options:
   );
   return {
     workers: slots.length,
-    run(jobs, onDone) {
+    run(jobs, onDone, signal, kind) {
       const results: JobOutcome<R>[] = new Array(jobs.length);
       let next = 0;
       let pending = jobs.length;
@@ -173,12 +177,13 @@ export async function startPool<C, J, R>(moduleUrl: string, context: C, options:
           while (next < jobs.length) finish(next++, { ok: false, message: 'no worker left to run the job' });
         };
         const feed = (slot: Slot) => {
+          if (signal?.aborted) while (next < jobs.length) finish(next++, CANCELLED);
           if (!slot.alive || next >= jobs.length) {
             slot.current = -1;
             return;
           }
           slot.current = next++;
-          slot.w.postMessage({ index: slot.current, job: jobs[slot.current] });
+          slot.w.postMessage({ index: slot.current, job: jobs[slot.current], kind });
         };
         for (const slot of slots) {
           slot.onResult = (index, o) => {

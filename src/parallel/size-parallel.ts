@@ -11,8 +11,9 @@
 import { sizeReactorWith, type DrawRequest, type DrawValues, type SizingInput, type SizingResult } from '../design/size.js';
 import { chooseWorkers, type WorkersSetting } from './auto.js';
 import { monteCarloVectors } from './mc-adapter.js';
-import type { McContext, McJob, McJobResult } from './mc-jobs.js';
-import { chunkRanges, siblingModule, startPool, type JobPool } from './pool.js';
+import { runJob as runMcJob, setup as setupMc, type McContext, type McJob, type McJobResult } from './mc-jobs.js';
+import { chunkRanges, siblingModule } from './pool.js';
+import { workerRunner, type WorkerRunner } from './runner.js';
 import { checkArgs, is, options as optionsArg } from '../core/args.js';
 
 const JOBS_URL = siblingModule('mc-jobs', import.meta.url);
@@ -48,19 +49,25 @@ export async function sizeReactorParallel(input: SizingInput, sources: SizingSou
   if (workers <= 1) return sizeReactorWith(input, async () => undefined);
   const onProgress = input.options?.onProgress;
   const perJob = Math.max(1, Math.floor(options.chunkDraws ?? 250));
-  let pool: JobPool<McJob, McJobResult> | undefined;
+  let runner: WorkerRunner | undefined;
+  let here: ReturnType<typeof setupMc> | undefined;
   const provider = async (req: DrawRequest): Promise<DrawValues | undefined> => {
     const vec = monteCarloVectors(sources.handoff, sources.case, req.draws, req.seed);
     if (!vec) return undefined; // covariance not positive semidefinite: the serial pass reports it
     const ctx: McContext = { handoff: sources.handoff, case: sources.case, ...(req.tubeCount !== undefined ? { tubeCount: req.tubeCount } : {}) };
-    pool ??= await startPool<McContext, McJob, McJobResult>(JOBS_URL, ctx, { workers });
+    runner ??= workerRunner({ 'mc-draws': { moduleUrl: JOBS_URL, context: ctx } }, workers);
     const ranges = chunkRanges(req.draws, Math.ceil(req.draws / perJob));
     const jobs: McJob[] = ranges.map((r) => ({
       z: vec.z.slice(r.start * vec.n, (r.start + r.count) * vec.n),
       count: r.count,
       ...(req.tubeCount !== undefined ? { tubeCount: req.tubeCount } : {}),
     }));
-    const outs = await pool.run(jobs, onProgress ? (done, total) => onProgress(Math.round((done * req.draws) / total), req.draws) : undefined);
+    const outs = await runner.run<McJob, McJobResult>({
+      kind: 'mc-draws',
+      jobs,
+      runHere: (job) => runMcJob((here ??= setupMc(ctx)), job),
+      ...(onProgress ? { onProgress: (done: number, total: number) => onProgress(Math.round((done * req.draws) / total), req.draws) } : {}),
+    });
     if (outs.some((o) => !o.ok)) return undefined;
     const values = new Float64Array(req.draws);
     const sizes = new Float64Array(req.draws);
@@ -79,6 +86,6 @@ export async function sizeReactorParallel(input: SizingInput, sources: SizingSou
   try {
     return await sizeReactorWith(input, provider);
   } finally {
-    await pool?.close();
+    await runner?.close();
   }
 }

@@ -10,9 +10,9 @@ const { moduleUrl, context } = workerData as { moduleUrl: string; context: unkno
 const port = parentPort!;
 const mod = (await import(moduleUrl)) as JobModule<unknown, unknown, unknown, unknown>;
 const state = mod.setup ? await mod.setup(context) : context;
-port.on('message', async (m: { index: number; job: unknown }) => {
+port.on('message', async (m: { index: number; job: unknown; kind?: string }) => {
   try {
-    const value = await mod.runJob(state, m.job);
+    const value = await mod.runJob(state, m.job, m.kind);
     port.postMessage({ type: 'result', index: m.index, ok: true, value });
   } catch (e) {
     port.postMessage({ type: 'result', index: m.index, ok: false, message: e instanceof Error ? e.message : String(e) });

@@ -4,8 +4,10 @@
  */
 import { tankBranchWarnings, tankSteadyStates, type TankRunStates } from './tank-branches.js';
 import { PREDICTION_ROUND_OFF_NOTE, roundOffPredictions } from './round-off-predictions.js';
-import { fitModel } from '../estimation/fit.js';
-import { multistartFit, type Minimum, type StartRun } from '../estimation/multistart.js';
+import { fitModelSteps } from '../estimation/fit.js';
+import { prepareFit } from '../estimation/solve.js';
+import { runStepsHere, type JobSteps } from '../core/jobs.js';
+import { multistartSteps, type Minimum, type StartRun } from '../estimation/multistart.js';
 import type { FitOptions, FitResult } from '../estimation/fit-types.js';
 import { HANDOFF_FORMAT, HANDOFF_VERSION, type FittedKinetics } from '../design/handoff.js';
 import { handoffHash } from '../design/handoff-hash.js';
@@ -152,12 +154,21 @@ export function fitStudy(study: Study, options: StudyFitOptions = {}): StudyFit 
 
 /** fitStudy for a plan made by planStudyFit(study, options) (same options). */
 export function fitPlannedStudy(study: Study, plan: StudyFitPlan, options: StudyFitOptions = {}): StudyFit {
+  return runStepsHere(studyFitSteps(study, plan, options));
+}
+
+/**
+ * The fit of a plan as steps (src/core/jobs.ts): multistart starts and profiles are batches of
+ * jobs that any runner may run (fitStudyParallel hands them to worker threads).
+ */
+export function* studyFitSteps(study: Study, plan: StudyFitPlan, options: StudyFitOptions = {}): JobSteps<StudyFit> {
   const { model, variant, data, starts } = plan;
   if (starts > 0) {
-    const ms = multistartFit(model, variant.parameters, data, { ...options, starts, seed: options.seed ?? 1 });
+    const msOptions = { ...options, starts, seed: options.seed ?? 1 };
+    const ms = yield* multistartSteps(prepareFit(model, variant.parameters, data, msOptions), msOptions);
     return finishStudyFit(study, plan, ms.best, ms.minima, ms.runs);
   }
-  return finishStudyFit(study, plan, fitModel(model, variant.parameters, data, options));
+  return finishStudyFit(study, plan, yield* fitModelSteps(prepareFit(model, variant.parameters, data, options)));
 }
 
 /**

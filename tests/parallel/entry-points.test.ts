@@ -66,5 +66,7 @@ describe("the 'auto' worker rule", () => {
     expect(chooseWorkers(undefined, { starts: AUTO_RULE.starts - 1 }, 2)).toBe(1);
     expect(chooseWorkers(1, { draws: 1e6 }, 8)).toBe(1);
     expect(chooseWorkers(3, {}, 1)).toBe(3);
+    // a count that is not a whole number >= 1 is bad input with a stable code, never rounded silently
+    for (const bad of [0, -2, 1.5, Number.NaN]) expect(() => chooseWorkers(bad, {}, 2)).toThrow(expect.objectContaining({ code: 'E_VALUE' }));
   });
 });
