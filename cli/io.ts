@@ -9,7 +9,7 @@ import { commitOutputs, type OutputFile } from './output.js';
 
 // Reading input files is the library's (src/api/files.ts): one reader, one size limit
 // (RATELOOM_MAX_INPUT_MB), one set of refusals for the commands and for loadStudy(path) & co.
-export { maxInputBytes, readJson, readText } from '../src/index.js';
+export { readJson, readText } from '../src/index.js';
 
 export interface WriteOptions {
   /** Replace an existing file; default false. */
