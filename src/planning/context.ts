@@ -11,7 +11,7 @@ import type { PerRunSourceSpec } from '../data/spec.js';
 import { buildCandidates, studyOfRuns, type CandidateSet } from './candidates.js';
 import { runInformation, totalInformation, type InformationPoint } from './information.js';
 import { perRunSource, type LabLimits } from './limits.js';
-import type { ExcludedCandidates } from './types.js';
+import type { ExcludedCandidates } from '../report/types.js';
 
 export interface PlanContext {
   study: Study;

@@ -11,7 +11,7 @@ import { discriminationValue, type DiscriminationBlocks, type DiscriminationKind
 import { exchangeSearch, spacedApart, type ExchangeResult } from './exchange.js';
 import { expectedPosteriors } from './posterior.js';
 import { discriminationBlocks, setupRivals, type RivalSetup } from './rivals.js';
-import type { DiscriminationSummary } from './types.js';
+import type { DiscriminationSummary } from '../report/types.js';
 
 export interface DiscriminationOptions {
   /** Runs to plan. */

@@ -4,4 +4,4 @@ export { checkDistinctRivals } from './rivals.js';
 export { parseLimits, LIMITS_SCHEMA, type LabLimits } from './limits.js';
 export { greedyExchange, type ExchangeProblem, type ExchangeResult } from './exchange.js';
 export { criterionValue, type CriterionKind } from './criteria.js';
-export type { PlanResult, PlannedRun } from './types.js';
+export type { PlanResult, PlannedRun } from '../report/types.js';

@@ -18,7 +18,7 @@ import { planDiscrimination } from './discrimination.js';
 import { planPrecision, precisionAfter, type PrecisionPlan } from './precision.js';
 import { checkDistinctRivals, priorWeights } from './rivals.js';
 import { conditionsOf, factorSummary, oldRunPoints, plannedRows } from './rows.js';
-import type { DiscriminationCriterion, PlanMode, PlanResult, PlanStatus, PlannedRun } from './types.js';
+import type { DiscriminationCriterion, PlanMode, PlanResult, PlanStatus, PlannedRun } from '../report/types.js';
 import { checkArgs, is } from '../core/args.js';
 
 export const PLAN_STATUS: StatusTable<PlanStatus> = {

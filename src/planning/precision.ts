@@ -12,7 +12,7 @@ import { pointOfFit, studyInformation, type PlanContext } from './context.js';
 import { parameterDraws } from './draws.js';
 import { greedyExchange, type ExchangeResult } from './exchange.js';
 import { runInformation, type InformationPoint } from './information.js';
-import type { ParameterPrecision } from './types.js';
+import type { ParameterPrecision } from '../report/types.js';
 
 export interface PrecisionOptions {
   /** Runs to plan. */

@@ -8,7 +8,7 @@ import type { Study } from '../study/types.js';
 import { siUnit } from '../units/index.js';
 import { fieldValueSI, inputColumns, toColumnUnit, type PlannedRow } from './layout.js';
 import { FIELD_QUANTITY, type LabLimits } from './limits.js';
-import type { PlanResult, PlannedCondition } from './types.js';
+import type { PlanResult, PlannedCondition } from '../report/types.js';
 
 /** A run-id prefix not used by the study ('N', else 'N2', 'N3', ...). */
 export function freshPrefix(study: Study, prefix: string, count: number): string {

@@ -3,9 +3,8 @@
  * vega-lite) take about a second to load and use top-level await, so importing rateloom must not
  * load them; only rendering a report does.
  */
-import type { PlanResult } from '../planning/types.js';
 import type { PlanReportMeta } from './plan-report.js';
-import type { FitReportData, RenderedReport, SizingReportData } from './types.js';
+import type { FitReportData, PlanResult, RenderedReport, SizingReportData } from './types.js';
 import { checkArgs, is } from '../core/args.js';
 
 /** Render a fit report: self-contained HTML (charts as inline SVG) and Markdown. */

@@ -4,13 +4,12 @@
  * new runs in the condition space (charts/plan.ts). One self-contained HTML document and a
  * Markdown summary with the same numbers.
  */
-import type { PlanResult } from '../planning/types.js';
 import { planCharts } from './charts/plan.js';
 import { escapeMarkdown as md, formatNumber } from './format.js';
 import { chartGrid, headerBlock, htmlDocument, numCell, statusBlock, table, textCell, warningsBlock } from './html-parts.js';
 import { mdTable, q, statusLine, warningLines } from './markdown.js';
 import { renderCharts } from './svg.js';
-import type { RenderedChart, RenderedReport } from './types.js';
+import type { PlanResult, RenderedChart, RenderedReport } from './types.js';
 
 /** What the report says about where the plan came from. */
 export interface PlanReportMeta {

@@ -3,10 +3,9 @@
  * (the first two varied conditions in the study's own units, and every varied condition scaled to
  * its range side by side), and the interval widths now and after the planned runs.
  */
-import type { PlanResult } from '../../planning/types.js';
 import { axisTitle } from '../format.js';
 import { OKABE_ITO } from '../theme.js';
-import type { ChartSpec } from '../types.js';
+import type { ChartSpec, PlanResult } from '../types.js';
 import { topLevel } from './common.js';
 
 interface PointRow {
