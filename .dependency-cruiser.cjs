@@ -16,6 +16,7 @@ const LAYERS = [
   'pellets',
   'data',
   'study',
+  'onboard',
   'estimation',
   'report',
   'design',

@@ -3,6 +3,7 @@
  * cli/ imports only src/index.ts) hold for the code base, and they do fail on a deliberately
  * planted upward import (fixture in tests/house/fixtures/upward/).
  */
+import { readdirSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -28,6 +29,12 @@ async function violations(baseDir: string): Promise<{ rule: string; from: string
 describe('layer rules (dependency-cruiser)', () => {
   it('the code base has no violation', async () => {
     expect(await violations(ROOT)).toEqual([]);
+  });
+
+  it('every folder of src/ is a listed layer (a new folder must take its place in .dependency-cruiser.cjs)', () => {
+    const listed = (config.forbidden ?? []).map((r) => r.name ?? '').filter((n) => n.startsWith('no-upward-from-')).map((n) => n.slice('no-upward-from-'.length));
+    const folders = readdirSync(resolve(ROOT, 'src'), { withFileTypes: true }).filter((d) => d.isDirectory()).map((d) => d.name);
+    expect(folders.filter((f) => !listed.includes(f))).toEqual([]);
   });
 
   it('a planted upward import and a cli import past the public API are caught', async () => {
