@@ -6,7 +6,7 @@
  * Exit 0 ranked with a trustworthy best fit, 1 the best-ranked fit is not trustworthy (its verdict), 2 bad input.
  */
 import type { Command } from 'commander';
-import { compareStudyParallel, AUTO_RULE_TEXT, fitReportData, type Comparison, type WorkersSetting } from '../src/index.js';
+import { compareStudyParallel, AUTO_RULE_TEXT, fitReportData, type Comparison, type WorkersSetting, shownParameters, studyDisplay } from '../src/index.js';
 import { WORKERS_OPTION } from './fit.js';
 import { join } from 'node:path';
 import { writeFitReport } from './report-render.js';
@@ -86,7 +86,8 @@ export function registerCompare(program: Command): void {
             status: !comparison.ranking[0].converged ? 'best-not-converged' : best.fit.verdict.trustworthy ? 'ranked' : 'best-not-trustworthy',
             verdict: best.fit.verdict,
             comparison,
-            fits: fits.map((f) => ({ model: f.variant, status: f.fit.status, verdict: f.fit.verdict, parameters: f.fit.parameters, statistics: f.fit.statistics })),
+            displayUnits: studyDisplay(study).units,
+            fits: fits.map((f) => ({ model: f.variant, status: f.fit.status, verdict: f.fit.verdict, parameters: shownParameters(studyDisplay(study), f.fit.parameters), statistics: f.fit.statistics })),
             ...(reportPaths ? { outputs: reportPaths } : {}),
           },
           text: formatComparison(comparison),

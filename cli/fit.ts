@@ -8,7 +8,7 @@
 import { formatTransport } from './transport-text.js';
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study, crossCheckStudyFit } from '../src/index.js';
+import { DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study, crossCheckStudyFit, shownFitParts } from '../src/index.js';
 import { formatCrossCheck } from './cross-check-text.js';
 import { renderFitFiles } from './report-render.js';
 import { assertWritable, checkStem, writeAll } from './io.js';
@@ -161,6 +161,7 @@ export function registerFit(program: Command): void {
         const handoffPath = paths[0];
         const reportPaths = flags.report !== false ? { html: paths[1], markdown: paths[2] } : undefined;
         const trustworthy = sf.fit.verdict.trustworthy;
+        const shown = shownFitParts(study, sf.fit, sf.derived);
         return {
           trustworthy,
           json: {
@@ -169,9 +170,10 @@ export function registerFit(program: Command): void {
             message: sf.fit.message,
             verdict: sf.fit.verdict,
             model: sf.variant,
-            referenceTemperature: { value: study.referenceTemperature, unit: 'K' },
-            fit: sf.fit,
-            derived: sf.derived,
+            displayUnits: shown.displayUnits,
+            referenceTemperature: shown.referenceTemperature,
+            fit: { ...sf.fit, parameters: shown.parameters, observations: shown.observations },
+            derived: shown.derived,
             ...(sf.minima ? { minima: sf.minima } : {}),
             ...(sf.starts ? { starts: sf.starts } : {}),
             ...(sf.startValues ? { startValues: { estimated: sf.startValues.estimated, points: sf.startValues.points, notes: sf.startValues.notes } } : {}),

@@ -13,7 +13,8 @@ export { exitCodeOf, verdictFrom, EXIT_TRUSTWORTHY, EXIT_UNTRUSTWORTHY, EXIT_BAD
 export { makeParameter, toInternal, toExternal, type Parameter, type Transform } from './core/parameter.js';
 
 // Units at the edges.
-export { toSI, fromSI, unitFor, acceptedUnits, siUnit, compoundToSI } from './units/index.js';
+export { toSI, fromSI, unitFor, acceptedUnits, siUnit, compoundToSI, checkDisplayUnits, displayUnitFor, displayConversion, shownValue, shownDifference, unitDims, type DisplayUnits, type DisplayConversion } from './units/index.js';
+export { studyDisplay, type StudyDisplay, type StudyDisplaySpec } from './study/display.js';
 
 // Chemistry and kinetics.
 export type { SpeciesSpec, ReactionEquationSpec } from './chemistry/spec.js';
@@ -63,6 +64,7 @@ export { estimateStartValues } from './workflow/start-values.js';
 export { derivedQuantities, type DerivedQuantity } from './workflow/derived.js';
 export { driftCheck, type DriftCheck, type ReferenceSeries } from './workflow/drift.js';
 export { fitReportData } from './workflow/fit-report-data.js';
+export { shownFitParts, shownParameters, shownDerived, shownObservations, shownQuantity, type ShownQuantity, type ShownParameter, type ShownDerived, type ShownObservation } from './workflow/shown-results.js';
 export { crossCheckStudyFit, crossCheckIntegration, CROSS_CHECK_TOLERANCES, type StudyCrossCheck, type IntegrationCrossCheck } from './workflow/cross-check-study.js';
 export { crossCheckOptimum, sharedDigits, weightedSsr, type OptimumCrossCheck, type EstimateAgreement } from './estimation/cross-check.js';
 export { sizingReportData } from './workflow/sizing-report-data.js';

@@ -11,7 +11,7 @@ import { RateloomError, isRateloomError } from '../core/errors.js';
 import { parseJsonText } from '../core/json-text.js';
 import type { RateLawSpec } from '../kinetics/spec.js';
 import type { ReactorSpec } from '../reactors/types.js';
-import { unitFor } from '../units/index.js';
+import { checkDisplayUnits, unitFor } from '../units/index.js';
 import type { CsvTable } from '../data/csv.js';
 import { mapLongSource, mapPerRunSource, type MappingContext, type MappedObservation, type MappedRun, type MappedSource, type RowLocation } from '../data/mapping.js';
 import { DEFAULT_CHECKS, type CheckSettings, type PureError } from '../data/report.js';
@@ -25,6 +25,7 @@ import { loadTransport } from './transport.js';
 import { locatePath } from './locate.js';
 import { readSources, type SourcePathOptions } from './sources.js';
 import { checkHostileNames, checkOrderSpecies, checkPressureDrop } from './guards.js';
+import type { StudyDisplaySpec } from './display.js';
 import { buildParameters, parameterRoles, referencedNames, type ParameterSpec } from './parameters.js';
 import { ratesOnlyRuns } from './rate-runs.js';
 import { parameterStartFor, runParameterNames } from './run-parameters.js';
@@ -49,6 +50,7 @@ interface RawStudy {
     membrane?: { permeation: Record<string, MeasureSpec>; sweep?: Record<string, MeasureSpec> };
   };
   referenceTemperature?: number | MeasureSpec;
+  displayUnits?: unknown;
   data: AnySourceSpec[];
   parameters: ParameterSpec[];
   errorModels?: Record<string, { absolute?: MeasureSpec; relative?: number; replicates?: true; size?: 'known' | 'weights' }>;
@@ -268,6 +270,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
     replicateGroups,
     ...(raw.transport !== undefined ? { transport: loadTransport(raw.transport, speciesNames, raw.reactions.map((r) => r.id)) } : {}),
     sources: raw.data,
+    display: displaySpec(raw),
   };
   study.referenceTemperatureApplies = referenceTemperatureMatters(study);
   const notes = data.perRun.flatMap((m) => m.rateNotes ?? []);
@@ -277,6 +280,14 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
 }
 
 /** The study's data checks: the defaults with the values the study gives. */
+/** What the study wrote about units, for display: its displayUnits (checked) and each parameter's unit. */
+function displaySpec(raw: RawStudy): StudyDisplaySpec {
+  const parameterUnits: Record<string, string> = {};
+  for (const p of [...raw.parameters, ...(raw.candidates ?? []).flatMap((c) => c.parameters ?? [])]) if (p.unit !== undefined && !(p.name in parameterUnits)) parameterUnits[p.name] = p.unit;
+  const t = raw.referenceTemperature;
+  return { units: checkDisplayUnits(raw.displayUnits, ['displayUnits']), parameterUnits, ...(typeof t === 'object' && t !== null ? { referenceTemperatureUnit: t.unit } : {}) };
+}
+
 function checkSettings(checks: RawStudy['checks']): CheckSettings {
   return {
     ...DEFAULT_CHECKS,

@@ -13,6 +13,7 @@ import type { RunParameterRef } from '../data/run-parameters.js';
 import type { PelletSpec } from '../pellets/types.js';
 import type { PelletFluid } from '../pellets/load.js';
 import type { Activity, LabData, LabResponseKind, LabTerms } from './lab-types.js';
+import type { StudyDisplaySpec } from './display.js';
 
 export type { ResponseKind } from '../data/spec.js';
 
@@ -176,6 +177,8 @@ export interface Study {
   /** The data sources as written in the study file (column mapping and units), for writers that
    * produce CSV in the study's own layout (the run planner). */
   sources?: AnySourceSpec[];
+  /** The study's displayUnits and the units it wrote, for showing numbers (src/study/display.ts). */
+  display?: StudyDisplaySpec;
 }
 
 export interface LoadedStudy {

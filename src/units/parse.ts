@@ -18,6 +18,8 @@ export interface ParsedUnit {
   dims: Dims;
   /** True when every atom's factor is exact by definition. */
   exact: boolean;
+  /** The atoms as written (canonical names, aliases resolved) with their summed exponents, in order of appearance. */
+  terms: ReadonlyArray<readonly [string, number]>;
 }
 
 /** Why a unit text could not be parsed: the message names the offending piece. */
@@ -34,7 +36,14 @@ function lookupAtom(name: string): ParsedUnit | undefined {
   // Own properties only: 'constructor' or '__proto__' are not units.
   const key = Object.hasOwn(ATOMS, name) ? name : Object.hasOwn(ALIASES, name) ? ALIASES[name] : undefined;
   const a = key !== undefined && Object.hasOwn(ATOMS, key) ? ATOMS[key] : undefined;
-  return a ? { factor: a.factor, dims: a.dims, exact: a.exact } : undefined;
+  return a && key !== undefined ? { factor: a.factor, dims: a.dims, exact: a.exact, terms: key === '1' ? [] : [[key, 1]] } : undefined;
+}
+
+/** Exponents of two term lists added (b scaled by `sign`), atoms in order of first appearance, zeros dropped. */
+function addTerms(a: ParsedUnit['terms'], b: ParsedUnit['terms'], sign: number): ParsedUnit['terms'] {
+  const out = new Map<string, number>(a);
+  for (const [k, e] of b) out.set(k, (out.get(k) ?? 0) + sign * e);
+  return [...out].filter(([, e]) => Math.abs(e) > 1e-12);
 }
 
 function mul(a: ParsedUnit, b: ParsedUnit, sign: 1 | -1): ParsedUnit {
@@ -42,11 +51,12 @@ function mul(a: ParsedUnit, b: ParsedUnit, sign: 1 | -1): ParsedUnit {
     factor: sign === 1 ? a.factor * b.factor : a.factor / b.factor,
     dims: a.dims.map((d, i) => d + sign * b.dims[i]) as unknown as Dims,
     exact: a.exact && b.exact,
+    terms: addTerms(a.terms, b.terms, sign),
   };
 }
 
 function pow(a: ParsedUnit, e: number): ParsedUnit {
-  return { factor: Math.pow(a.factor, e), dims: a.dims.map((d) => d * e) as unknown as Dims, exact: a.exact && Number.isInteger(e) };
+  return { factor: Math.pow(a.factor, e), dims: a.dims.map((d) => d * e) as unknown as Dims, exact: a.exact && Number.isInteger(e), terms: addTerms([], a.terms, e) };
 }
 
 class Parser {
@@ -118,7 +128,7 @@ class Parser {
       } else {
         const n = /^1(?![\d.])/.exec(this.s.slice(this.pos));
         if (!n) throw new UnitSyntaxError(`unexpected '${this.s.slice(this.pos) || 'end of unit'}'`);
-        base = { factor: 1, dims: [0, 0, 0, 0, 0], exact: true };
+        base = { factor: 1, dims: [0, 0, 0, 0, 0], exact: true, terms: [] };
         this.pos += 1;
       }
     }
