@@ -75,11 +75,6 @@ export function checkDisplayUnits(raw: unknown, path: FieldPath): DisplayUnits {
   return out;
 }
 
-/** Both display-unit sets merged, the case's (`over`) winning. */
-export function mergeDisplayUnits(base: DisplayUnits | undefined, over: DisplayUnits | undefined): DisplayUnits {
-  return { ...(base ?? {}), ...(over ?? {}) };
-}
-
 function temperatureKey(unit: string): string | undefined {
   const u = unit.trim();
   return AFFINE_TEMPERATURE[u] ? u : TEMPERATURE_ALIASES[u];
