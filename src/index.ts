@@ -47,6 +47,7 @@ export type { ValidationReport, Rejection } from './data/index.js';
 export { STUDY_SCHEMA, type LoadOptions } from './study/index.js';
 export { summarizeStudy, type StudySummary, type Range } from './study/summary.js';
 export { applyParameterValues, simulateStudy, type SimulationResult, type SimulatedRun, type SimulateOptions } from './study/simulate.js';
+export type { SimulatedHeat } from './study/simulate-heat.js';
 export type { Study, LoadedStudy, Observation, StudyRun, ErrorModel, CandidateSet } from './study/index.js';
 export type { LabData, LabRunDerived, LabSkipped, LabDataSpec, ActivitySpec, Activity, LabResponseKind } from './study/lab-types.js';
 export { wetToDry, fractionsFromFlows, flowFromStandard, conversionFromStandard, selectivity, yieldOf, elementClosure } from './data/lab-arithmetic.js';

@@ -80,7 +80,9 @@ export interface SimulateStudyOptions extends SimulateOptions {
  *
  * @param source - Study file path, LoadedStudy or Study.
  * @param options - `parameters` (see SimulateStudyOptions), `profile` (default false),
- *   `candidate` (a rival rate-law set; default the study's own).
+ *   `candidate` (a rival rate-law set; default the study's own), `heat` (heat inputs: a path to a
+ *   heat file or its parsed JSON, `{ "heat": {...case-file heat block...}, "tubes": {...} }`; every
+ *   run is then solved with its energy balance; default none).
  */
 export function simulate(source: StudySource, options: SimulateStudyOptions = {}): SimulationResult {
   checkArgs('simulate', [source, options], [{ name: 'source', check: is.studySource }, optionsArg('options')]);
@@ -89,6 +91,10 @@ export function simulate(source: StudySource, options: SimulateStudyOptions = {}
   let params = study.parameters;
   if (typeof parameters === 'string') params = applyParameterValues(params, readJson(parameters, 'parameter file'), parameters);
   else if (parameters !== undefined) params = applyParameterValues(params, parameters, 'parameters');
+  if (typeof rest.heat === 'string') {
+    const file = rest.heat;
+    return simulateStudy(study, params, { ...rest, heat: readJson(file, 'heat file'), heatFile: file });
+  }
   return simulateStudy(study, params, rest);
 }
 

@@ -28,7 +28,7 @@ import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import { OPTION_RANGES } from '../core/option-ranges.js';
 import { quantityToSI, SI_UNIT, type QuantityKind } from './case-units.js';
 import { cpAt } from '../reactors/thermal/heat-capacity.js';
-import { loadThermalCase, THERMAL_FIELDS, type ThermalCase } from './heat-case.js';
+import { loadReactionEnthalpies, loadThermalCase, THERMAL_FIELDS, type ThermalCase } from './heat-case.js';
 import { GAS_CONSTANT } from '../core/constants.js';
 import { checkArgs, is } from '../core/args.js';
 
@@ -462,18 +462,8 @@ function wholeNumber(raw: unknown, key: 'draws' | 'seed', max: number): number {
 function loadHeat(h: Obj, kase: DesignCase, reactionIds: readonly string[]): NonNullable<DesignCase['heat']> {
   checkFields(h, ['reactionEnthalpy', 'heatCapacity', 'warnAbove', ...THERMAL_FIELDS], ['heat']);
   const thermal = h.mode !== undefined && h.mode !== 'isothermal' ? loadThermalCase(h, kase.species) : undefined;
-  const reactionEnthalpy: Record<string, number> = {};
   const re = h.reactionEnthalpy === undefined && thermal ? {} : obj(need(h, 'reactionEnthalpy', ['heat'], 'Add "reactionEnthalpy": { "r1": "-90 kJ/mol" }.'), ['heat', 'reactionEnthalpy'], 'reactionEnthalpy');
-  for (const [id, q] of Object.entries(re)) {
-    if (!reactionIds.includes(id)) {
-      const near = closestName(id, reactionIds);
-      throw new RateloomError('E_VALUE', `reaction '${id}' is not in the fitted kinetics`, {
-        path: ['heat', 'reactionEnthalpy', id],
-        fix: near ? `Did you mean '${near}'?` : `Use one of: ${reactionIds.join(', ')}.`,
-      });
-    }
-    reactionEnthalpy[id] = quantityToSI(q, 'molarEnergy', ['heat', 'reactionEnthalpy', id]);
-  }
+  const reactionEnthalpy = loadReactionEnthalpies(re, reactionIds);
   const heatCapacity = h.heatCapacity === undefined && thermal
     ? meanHeatCapacity(kase, thermal)
     : positive(need(h, 'heatCapacity', ['heat'], 'Add "heatCapacity": "35 J/(mol K)".'), 'molarHeatCapacity', ['heat', 'heatCapacity'], 'heat capacity');

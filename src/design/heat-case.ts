@@ -169,6 +169,25 @@ function readExchange(h: Obj, out: ThermalCase): void {
   }
 }
 
+/**
+ * Reaction enthalpies of `heat.reactionEnthalpy` (J/mol, keyed by reaction id); an id that is not a
+ * reaction of the kinetics is refused with the closest id.
+ */
+export function loadReactionEnthalpies(re: Obj, reactionIds: readonly string[]): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const [id, q] of Object.entries(re)) {
+    if (!reactionIds.includes(id)) {
+      const near = closestName(id, reactionIds);
+      throw new RateloomError('E_VALUE', `reaction '${id}' is not in the fitted kinetics`, {
+        path: ['heat', 'reactionEnthalpy', id],
+        fix: near ? `Did you mean '${near}'?` : `Use one of: ${reactionIds.join(', ')}.`,
+      });
+    }
+    out[id] = quantityToSI(q, 'molarEnergy', ['heat', 'reactionEnthalpy', id]);
+  }
+  return out;
+}
+
 function missing(path: FieldPath, fix: string): never {
   throw new RateloomError('E_MISSING_FIELD', `missing field '${String(path[path.length - 1])}'`, { path, fix });
 }

@@ -16,11 +16,14 @@ import { runParameterNames } from './parameters.js';
 import { measuredConversions } from './summary.js';
 import type { Study, StudyRun } from './types.js';
 import { checkArgs, is } from '../core/args.js';
+import { loadSimulationHeat, type SimulationHeat } from './simulate-heat-input.js';
+import { solveRunWithHeat, type HeatRunSolution, type SimulatedHeat } from './simulate-heat.js';
 
 export interface SimulatedRun {
   runId: string;
   group?: string;
-  status: ReactorStatus;
+  /** Reactor status; with heat inputs the non-isothermal solve's status (thermal-tube.ts, stirred-tank-heat.ts). */
+  status: ReactorStatus | HeatRunSolution['status'];
   success: boolean;
   message: string;
   /** Outlet molar flows (mol/s, flow reactors) or final moles (mol, batch and semibatch), per species. */
@@ -40,6 +43,8 @@ export interface SimulatedRun {
    * mol/m3), its stability and whether it is the one reported above.
    */
   steadyStates?: { outlet: Record<string, number>; concentrations: Record<string, number>; stability: string; reported: boolean }[];
+  /** With heat inputs: temperatures, hot spot, coolant, steady states with stability (simulate-heat.ts). */
+  heat?: SimulatedHeat;
   warnings: string[];
 }
 
@@ -61,6 +66,14 @@ export interface SimulateOptions {
   profile?: boolean;
   /** Rate laws and parameters of a candidate set instead of the base model; default none. */
   candidate?: string;
+  /**
+   * Heat inputs: the parsed JSON of a heat file ({ "heat": {...case-file heat block...}, "tubes":
+   * { "innerDiameter": ... } }, simulate-heat-input.ts); every run is then solved with its energy
+   * balance. Default none (isothermal runs at their temperatures).
+   */
+  heat?: unknown;
+  /** File name of the heat inputs, for error messages; default 'heat'. */
+  heatFile?: string;
 }
 
 /**
@@ -120,6 +133,7 @@ export function simulateStudy(study: Study, parameters: readonly Parameter[] = s
   const kinetics = compileKinetics({ chemistry: study.chemistry, rates: reactions.map((r) => r.rate), parameterNames: baseNames, referenceTemperature: study.referenceTemperature });
   const byName = new Map(parameters.map((p) => [p.name, p.value]));
   const measured = measuredConversions(study);
+  const heat: SimulationHeat | undefined = options.heat !== undefined ? loadSimulationHeat(options.heat, study, options.heatFile ?? 'heat') : undefined;
   const runs: SimulatedRun[] = study.runs.map((run) => {
     const runNames = runParameterNames(baseNames, scopes, run.group);
     const theta = Float64Array.from(runNames.map((n) => {
@@ -130,6 +144,7 @@ export function simulateStudy(study: Study, parameters: readonly Parameter[] = s
     const withValues = withRunValues(run, byName);
     const a = study.activity ? activityOf(study.activity, run, study.activity.parameters.map((n) => byName.get(n) ?? NaN)) : 1;
     const solved = a === 1 ? withValues : { ...withValues, size: a * withValues.size };
+    if (heat) return heatRun(study, withValues, solveRunWithHeat(solved, { reactor: study.reactor, kinetics, theta, heat, species: study.chemistry.speciesNames, keyIndex: study.keyReactantIndex, profile: options.profile === true }), measured.get(run.id));
     const sol = solveReactor(study.reactor, solved, kinetics, theta, options.profile ? { profile: true } : {});
     return simulatedRun(study, withValues, sol, measured.get(run.id));
   });
@@ -204,4 +219,15 @@ function simulatedRun(study: Study, run: StudyRun, sol: ReactorSolution, measure
     ...(states && states.length ? { steadyStates: states } : {}),
     warnings,
   };
+}
+
+/** A run solved with its energy balance, in the shape of the isothermal result plus `heat`. */
+function heatRun(study: Study, run: StudyRun, h: HeatRunSolution, measuredConversion: number | undefined): SimulatedRun {
+  const sol: ReactorSolution = {
+    runId: run.id, status: 'success', success: h.success, message: h.message, warnings: [],
+    outletAmounts: h.amounts, outletConcentrations: h.concentrations, pressureRatio: h.pressureRatio,
+    stats: { rhsEvaluations: 0, jacobianEvaluations: 0, steps: 0, method: 'energy balance' },
+  };
+  const base = simulatedRun(study, run, sol, measuredConversion);
+  return { ...base, status: h.status, warnings: [...h.warnings, ...base.warnings], heat: h.heat };
 }

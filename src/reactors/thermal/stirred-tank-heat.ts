@@ -24,7 +24,7 @@ import type { CompiledKinetics } from '../../kinetics/compiled.js';
 import { findAllRoots } from '../../numerics/roots.js';
 import { newton } from '../../numerics/newton.js';
 import type { ReactionEnthalpy } from './enthalpy.js';
-import { cpIntegral, type HeatCapacity } from './heat-capacity.js';
+import { cpAt, cpIntegral, type HeatCapacity } from './heat-capacity.js';
 import { GAS_CONSTANT } from '../../core/constants.js';
 
 /** A stirred tank with heat exchange, SI. */
@@ -84,7 +84,12 @@ export interface StirredTankHeatResult extends Outcome<StirredHeatStatus> {
 
 /** Options of the steady-state search. */
 export interface StirredHeatOptions {
-  /** Scanned range, K; default [min(T0, Ta) - 1, max(T0, Ta) + 800]. */
+  /**
+   * Scanned range, K; default the temperatures the tank can reach: [min(T0, Ta) - 1.2 dT_ad - 1,
+   * max(T0, Ta) + 1.2 dT_ad + 20] with dT_ad = sum_i |dH_i(T0)| xi_max,i / sum_j F_j0 Cp_j(T0) the
+   * adiabatic change at complete reaction (xi_max,i from the fed reactant that runs out first), and
+   * at least 1 K.
+   */
   range?: [number, number];
   /** Scan intervals; default 400. */
   intervals?: number;
@@ -188,8 +193,7 @@ export function stirredTankSteadyStates(
 ): StirredTankHeatResult {
   const bal = new FixedTemperatureBalance(spec, kinetics, theta);
   const dH = new Float64Array(kinetics.reactionIds.length);
-  const lo0 = Math.min(spec.T0, spec.UA > 0 ? spec.Ta : spec.T0) - 1;
-  const range = options.range ?? [Math.max(lo0, 1), Math.max(spec.T0, spec.UA > 0 ? spec.Ta : spec.T0) + 800];
+  const range = options.range ?? reachableRange(spec, kinetics);
   let bad = 0;
   const h = (T: number): number => {
     const F = bal.solve(T);
@@ -208,6 +212,31 @@ export function stirredTankSteadyStates(
     range,
     stabilityCriterion: 'slope condition dR/dT > dG/dT (van Heerden, Ind. Eng. Chem. 45 (1953) 1242); necessary, oscillatory instability not examined',
   };
+}
+
+/** The default scan range (see StirredHeatOptions.range). */
+export function reachableRange(spec: StirredTankHeatSpec, kinetics: CompiledKinetics): [number, number] {
+  const nS = kinetics.speciesNames.length;
+  const dH = new Float64Array(kinetics.reactionIds.length);
+  spec.enthalpy.at(spec.T0, dH);
+  let FT = 0;
+  let cpF = 0;
+  spec.cp.forEach((h, j) => {
+    FT += spec.F0[j];
+    if (h && spec.F0[j] > 0) cpF += spec.F0[j] * cpAt(h, spec.T0);
+  });
+  let q = 0;
+  for (let i = 0; i < dH.length; i++) {
+    let xi = Infinity;
+    for (let j = 0; j < nS; j++) {
+      const nu = kinetics.stoich[i * nS + j];
+      if (nu < 0 && spec.F0[j] > 0) xi = Math.min(xi, spec.F0[j] / -nu);
+    }
+    q += Math.abs(dH[i]) * (Number.isFinite(xi) ? xi : FT);
+  }
+  const rise = cpF > 0 ? q / cpF : 800;
+  const Ta = spec.UA > 0 ? spec.Ta : spec.T0;
+  return [Math.max(Math.min(spec.T0, Ta) - 1.2 * rise - 1, 1), Math.max(spec.T0, Ta) + 1.2 * rise + 20];
 }
 
 function describeState(spec: StirredTankHeatSpec, bal: FixedTemperatureBalance, dH: Float64Array, T: number): SteadyState {

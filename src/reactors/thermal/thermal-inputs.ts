@@ -5,6 +5,7 @@
  */
 import { RateloomError } from '../../core/errors.js';
 import type { ThermalTubeSpec } from './tube-balances.js';
+import type { HeatCapacity } from './heat-capacity.js';
 
 /** Refuse a spec the balances cannot use; species names for the messages. */
 export function checkThermalSpec(spec: ThermalTubeSpec, species: readonly string[]): void {
@@ -12,14 +13,7 @@ export function checkThermalSpec(spec: ThermalTubeSpec, species: readonly string
   if (!(Number.isFinite(spec.T0) && spec.T0 > 0)) {
     throw new RateloomError('E_VALUE', `inlet temperature ${spec.T0} K is not positive`, { path: ['temperature'], fix: 'Give the inlet temperature in K or degC.' });
   }
-  species.forEach((name, j) => {
-    if (spec.F0[j] > 0 && !spec.cp[j]) {
-      throw new RateloomError('E_MISSING_FIELD', `species '${name}' flows but has no heat capacity`, {
-        path: ['heat', 'heatCapacities', name],
-        fix: `Add "${name}": "35 J/(mol K)" (or a Shomate form) to heat.heatCapacities; every species that flows needs one for the energy balance.`,
-      });
-    }
-  });
+  checkHeatCapacities(spec.F0, spec.cp, species);
   for (let i = 0; i < spec.enthalpy.nR; i++) {
     if (!Number.isFinite(spec.enthalpy.atReference[i])) {
       throw new RateloomError('E_VALUE', `reaction ${i + 1} has no finite reaction enthalpy`, {
@@ -45,4 +39,16 @@ export function checkThermalSpec(spec: ThermalTubeSpec, species: readonly string
       fix: 'Give positive heat.coolant.flow (kg/s) and heat.coolant.heatCapacity (J/(kg K)), or use "mode": "constant-coolant".',
     });
   }
+}
+
+/** Refuse a species that is present (fed or charged) without a heat capacity. */
+export function checkHeatCapacities(amounts: ArrayLike<number>, cp: readonly (HeatCapacity | undefined)[], species: readonly string[]): void {
+  species.forEach((name, j) => {
+    if (amounts[j] > 0 && !cp[j]) {
+      throw new RateloomError('E_MISSING_FIELD', `species '${name}' flows but has no heat capacity`, {
+        path: ['heat', 'heatCapacities', name],
+        fix: `Add "${name}": "35 J/(mol K)" (or a Shomate form) to heat.heatCapacities; every species that flows needs one for the energy balance.`,
+      });
+    }
+  });
 }
