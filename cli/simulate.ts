@@ -6,7 +6,7 @@
  * Exit 0 all runs solved, 1 some run failed numerically, 2 bad input.
  */
 import type { Command } from 'commander';
-import { loadStudy, applyParameterValues, simulateStudy, type SimulationResult, type SimulatedHeat } from '../src/index.js';
+import { loadStudy, applyParameterValues, simulateStudy, type SimulationResult, type SimulatedHeat, simulateWithHeat, CELSIUS_ZERO } from '../src/index.js';
 import { readJson, readText } from './io.js';
 import { runCommand } from './run.js';
 import { studyLoadOptions } from './study-input.js';
@@ -83,14 +83,16 @@ export function registerSimulate(program: Command): void {
           if (c) params = c.parameters;
         }
         if (flags.params) params = applyParameterValues(params, readJson(flags.params, 'parameter file'), flags.params);
-        const heat = flags.heat !== undefined ? { heat: readJson(flags.heat, 'heat file'), heatFile: flags.heat } : {};
-        const result = simulateStudy(study, params, { profile: flags.profile === true, ...(flags.candidate !== undefined ? { candidate: flags.candidate } : {}), ...heat });
+        const opts = { profile: flags.profile === true, ...(flags.candidate !== undefined ? { candidate: flags.candidate } : {}) };
+        const result = flags.heat !== undefined
+          ? simulateWithHeat(study, params, readJson(flags.heat, 'heat file'), { ...opts, heatFile: flags.heat })
+          : simulateStudy(study, params, opts);
         return { json: { status: result.success ? 'ok' : 'run-failed', ...result }, text: formatSimulation(result, flags.profile === true), trustworthy: result.success };
       });
     });
 }
 
-const K = (T: number | null): string => (T === null ? 'n/a' : `${g(T, 6)} K (${g(T - 273.15, 5)} degC)`);
+const K = (T: number | null): string => (T === null ? 'n/a' : `${g(T, 6)} K (${g(T - CELSIUS_ZERO, 5)} degC)`);
 
 /** The energy-balance lines of one run: temperatures, hot spot, coolant, steady states, profile. */
 function heatLines(h: SimulatedHeat, profile: boolean): string[] {

@@ -9,6 +9,7 @@ import { fitStudy as fitLoaded, type StudyFit, type StudyFitOptions } from '../w
 import { compareStudy, type StudyCompareOptions, type StudyComparison } from '../workflow/compare-study.js';
 import { applyParameterValues, simulateStudy, type SimulateOptions, type SimulationResult } from '../study/simulate.js';
 import { readJson, readText } from './files.js';
+import { simulateWithHeat } from '../design/simulate-heat.js';
 import { FIT_OPTIONS, checkArgs, is, options as optionsArg } from '../core/args.js';
 
 /** A study given to an entry point: a study-file path, the result of loadStudy, or a Study. */
@@ -73,6 +74,12 @@ export interface SimulateStudyOptions extends SimulateOptions {
    * path to a JSON file holding one of these; default none (the study's values).
    */
   parameters?: unknown;
+  /**
+   * Heat inputs: a path to a heat file or its parsed JSON, { "heat": {...case-file heat block...},
+   * "tubes": { "innerDiameter": ... } }; every run is then solved with its energy balance
+   * (design/simulate-heat.ts). Default none (isothermal runs at their temperatures).
+   */
+  heat?: unknown;
 }
 
 /**
@@ -91,11 +98,10 @@ export function simulate(source: StudySource, options: SimulateStudyOptions = {}
   let params = study.parameters;
   if (typeof parameters === 'string') params = applyParameterValues(params, readJson(parameters, 'parameter file'), parameters);
   else if (parameters !== undefined) params = applyParameterValues(params, parameters, 'parameters');
-  if (typeof rest.heat === 'string') {
-    const file = rest.heat;
-    return simulateStudy(study, params, { ...rest, heat: readJson(file, 'heat file'), heatFile: file });
-  }
-  return simulateStudy(study, params, rest);
+  const { heat, ...plain } = rest;
+  if (typeof heat === 'string') return simulateWithHeat(study, params, readJson(heat, 'heat file'), { ...plain, heatFile: heat });
+  if (heat !== undefined) return simulateWithHeat(study, params, heat, plain);
+  return simulateStudy(study, params, plain);
 }
 
 /**

@@ -16,14 +16,14 @@ import { runParameterNames } from './parameters.js';
 import { measuredConversions } from './summary.js';
 import type { Study, StudyRun } from './types.js';
 import { checkArgs, is } from '../core/args.js';
-import { loadSimulationHeat, type SimulationHeat } from './simulate-heat-input.js';
-import { solveRunWithHeat, type HeatRunSolution, type SimulatedHeat } from './simulate-heat.js';
+import type { SimulatedHeat } from './simulate-heat-types.js';
+import type { CompiledKinetics } from '../kinetics/compiled.js';
 
 export interface SimulatedRun {
   runId: string;
   group?: string;
-  /** Reactor status; with heat inputs the non-isothermal solve's status (thermal-tube.ts, stirred-tank-heat.ts). */
-  status: ReactorStatus | HeatRunSolution['status'];
+  /** Reactor status; with heat inputs the non-isothermal solve's status (reactors/thermal). */
+  status: ReactorStatus | 'target-reached' | 'runaway' | 'bvp-not-converged' | 'ok' | 'incomplete' | 'no-steady-state';
   success: boolean;
   message: string;
   /** Outlet molar flows (mol/s, flow reactors) or final moles (mol, batch and semibatch), per species. */
@@ -43,7 +43,7 @@ export interface SimulatedRun {
    * mol/m3), its stability and whether it is the one reported above.
    */
   steadyStates?: { outlet: Record<string, number>; concentrations: Record<string, number>; stability: string; reported: boolean }[];
-  /** With heat inputs: temperatures, hot spot, coolant, steady states with stability (simulate-heat.ts). */
+  /** With heat inputs: temperatures, hot spot, coolant, steady states with stability (design/simulate-heat.ts). */
   heat?: SimulatedHeat;
   warnings: string[];
 }
@@ -66,15 +66,13 @@ export interface SimulateOptions {
   profile?: boolean;
   /** Rate laws and parameters of a candidate set instead of the base model; default none. */
   candidate?: string;
-  /**
-   * Heat inputs: the parsed JSON of a heat file ({ "heat": {...case-file heat block...}, "tubes":
-   * { "innerDiameter": ... } }, simulate-heat-input.ts); every run is then solved with its energy
-   * balance. Default none (isothermal runs at their temperatures).
-   */
-  heat?: unknown;
-  /** File name of the heat inputs, for error messages; default 'heat'. */
-  heatFile?: string;
 }
+
+/**
+ * Solves one run in place of the isothermal lab reactor (design/simulate-heat.ts with heat inputs):
+ * `solved` carries the activity-scaled size, `run` the run as shown.
+ */
+export type RunSolver = (study: Study, run: StudyRun, solved: StudyRun, kinetics: CompiledKinetics, theta: Float64Array, measuredConversion: number | undefined) => SimulatedRun;
 
 /**
  * Parameter values from a document: { "k1": 0.3 } (SI), { "k1": { "value": 3, "unit": "L/(mol s)" } },
@@ -119,7 +117,7 @@ export function applyParameterValues(params: readonly Parameter[], doc: unknown,
 }
 
 /** Solve every run of the study at the parameter values given (default: the study's). */
-export function simulateStudy(study: Study, parameters: readonly Parameter[] = study?.parameters, options: SimulateOptions = {}): SimulationResult {
+export function simulateStudy(study: Study, parameters: readonly Parameter[] = study?.parameters, options: SimulateOptions = {}, solver?: RunSolver): SimulationResult {
   checkArgs('simulateStudy', [study, parameters, options], [{ name: 'study', check: is.study }, { name: 'parameters', check: is.list(is.object) }, { name: 'options', check: is.optional(is.object) }]);
   let reactions = study.reactions;
   let scopes = study.scopes;
@@ -133,7 +131,6 @@ export function simulateStudy(study: Study, parameters: readonly Parameter[] = s
   const kinetics = compileKinetics({ chemistry: study.chemistry, rates: reactions.map((r) => r.rate), parameterNames: baseNames, referenceTemperature: study.referenceTemperature });
   const byName = new Map(parameters.map((p) => [p.name, p.value]));
   const measured = measuredConversions(study);
-  const heat: SimulationHeat | undefined = options.heat !== undefined ? loadSimulationHeat(options.heat, study, options.heatFile ?? 'heat') : undefined;
   const runs: SimulatedRun[] = study.runs.map((run) => {
     const runNames = runParameterNames(baseNames, scopes, run.group);
     const theta = Float64Array.from(runNames.map((n) => {
@@ -144,7 +141,7 @@ export function simulateStudy(study: Study, parameters: readonly Parameter[] = s
     const withValues = withRunValues(run, byName);
     const a = study.activity ? activityOf(study.activity, run, study.activity.parameters.map((n) => byName.get(n) ?? NaN)) : 1;
     const solved = a === 1 ? withValues : { ...withValues, size: a * withValues.size };
-    if (heat) return heatRun(study, withValues, solveRunWithHeat(solved, { reactor: study.reactor, kinetics, theta, heat, species: study.chemistry.speciesNames, keyIndex: study.keyReactantIndex, profile: options.profile === true }), measured.get(run.id));
+    if (solver) return solver(study, withValues, solved, kinetics, theta, measured.get(run.id));
     const sol = solveReactor(study.reactor, solved, kinetics, theta, options.profile ? { profile: true } : {});
     return simulatedRun(study, withValues, sol, measured.get(run.id));
   });
@@ -187,7 +184,7 @@ export function amountsIn(study: Study, run: StudyRun): Float64Array {
 }
 
 /** One run's simulation result: amounts as shown (round-off), conversion, steady states. */
-function simulatedRun(study: Study, run: StudyRun, sol: ReactorSolution, measuredConversion: number | undefined): SimulatedRun {
+export function simulatedRun(study: Study, run: StudyRun, sol: ReactorSolution, measuredConversion: number | undefined): SimulatedRun {
   const names = study.chemistry.speciesNames;
   const j = study.keyReactantIndex;
   const flow = study.reactor.kind !== 'batch' && study.reactor.kind !== 'semibatch';
@@ -219,15 +216,4 @@ function simulatedRun(study: Study, run: StudyRun, sol: ReactorSolution, measure
     ...(states && states.length ? { steadyStates: states } : {}),
     warnings,
   };
-}
-
-/** A run solved with its energy balance, in the shape of the isothermal result plus `heat`. */
-function heatRun(study: Study, run: StudyRun, h: HeatRunSolution, measuredConversion: number | undefined): SimulatedRun {
-  const sol: ReactorSolution = {
-    runId: run.id, status: 'success', success: h.success, message: h.message, warnings: [],
-    outletAmounts: h.amounts, outletConcentrations: h.concentrations, pressureRatio: h.pressureRatio,
-    stats: { rhsEvaluations: 0, jacobianEvaluations: 0, steps: 0, method: 'energy balance' },
-  };
-  const base = simulatedRun(study, run, sol, measuredConversion);
-  return { ...base, status: h.status, warnings: [...h.warnings, ...base.warnings], heat: h.heat };
 }

@@ -7,7 +7,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { loadStudy } from '../../src/study/load';
-import { simulateStudy } from '../../src/study/simulate';
+import { simulateWithHeat } from '../../src/design/simulate-heat';
 import { simulate } from '../../src/api/study';
 import { RateloomError } from '../../src/core/errors';
 
@@ -60,7 +60,7 @@ describe('simulate --heat: cooled plug flow against SciPy solve_ivp', () => {
   const s = pfrStudy();
   it('constant coolant: outlet flow and temperature, hot spot position and value, profile', () => {
     const doc = { heat: { ...heatBase, mode: 'constant-coolant', coolant: { temperature: `${t.Ta} K` } }, tubes: { innerDiameter: `${t.D} m` } };
-    const r = simulateStudy(s, s.parameters, { heat: doc, profile: true });
+    const r = simulateWithHeat(s, s.parameters, doc, { profile: true });
     const run = r.runs[0];
     expect(run.success).toBe(true);
     const h = run.heat!;
@@ -79,7 +79,7 @@ describe('simulate --heat: cooled plug flow against SciPy solve_ivp', () => {
   });
   it('co-current coolant: outlet temperatures of gas and coolant, hot spot', () => {
     const doc = { heat: { ...heatBase, mode: 'co-current', coolant: { temperature: `${t.Ta} K`, flow: `${t.mc} kg/s`, heatCapacity: `${t.cpc} J/(kg K)` } }, tubes: { innerDiameter: `${t.D} m` } };
-    const h = simulateStudy(s, s.parameters, { heat: doc }).runs[0].heat!;
+    const h = simulateWithHeat(s, s.parameters, doc).runs[0].heat!;
     const c = ref.co_current;
     // Source: SciPy solve_ivp (Radau, rtol 1e-11), simulate_heat.py
     expect(rel(h.outletTemperature, c.T_out)).toBeLessThan(1e-6);
@@ -89,12 +89,12 @@ describe('simulate --heat: cooled plug flow against SciPy solve_ivp', () => {
   });
   it('maxTemperature below the hot spot is reported as exceeded with a warning', () => {
     const doc = { heat: { ...heatBase, mode: 'constant-coolant', coolant: { temperature: `${t.Ta} K` }, maxTemperature: '330 K' }, tubes: { innerDiameter: `${t.D} m` } };
-    const run = simulateStudy(s, s.parameters, { heat: doc }).runs[0];
+    const run = simulateWithHeat(s, s.parameters, doc).runs[0];
     expect(run.heat!.limit).toEqual({ maxTemperature: 330, exceeded: true });
     expect(run.warnings.join(' ')).toMatch(/exceeds heat.maxTemperature/);
   });
   it('refuses missing inputs with the field and the fix; never isothermal', () => {
-    const bad = (doc: unknown) => () => simulateStudy(s, s.parameters, { heat: doc, heatFile: 'h.json' });
+    const bad = (doc: unknown) => () => simulateWithHeat(s, s.parameters, doc, { heatFile: 'h.json' });
     expect(bad({ heat: { ...heatBase, mode: 'constant-coolant', coolant: { temperature: '320 K' } } })).toThrow(/tubes\.innerDiameter|innerDiameter/);
     const { B: _b, ...noB } = cps;
     expect(bad({ heat: { ...heatBase, heatCapacities: noB, mode: 'adiabatic' } })).toThrow(/species 'B'.*no heat capacity/);
@@ -123,7 +123,7 @@ describe('simulate --heat: stirred tank and batch', () => {
         overallCoefficient: '1000 W/(m2 K)', exchangeArea: `${p.UA / 1000} m2`, coolant: { temperature: `${p.Ta} K` },
       },
     };
-    const run = simulateStudy(st, st.parameters, { heat }).runs[0];
+    const run = simulateWithHeat(st, st.parameters, heat).runs[0];
     const states = run.heat!.steadyStates!;
     expect(states).toHaveLength(3);
     states.forEach((x, i) => {
@@ -160,7 +160,7 @@ describe('simulate --heat: stirred tank and batch', () => {
     const p = cstr.params;
     const { kind: _k, ...d } = flowData('tank', p.T0, p.V, p.v0, p.FA0 / p.v0, p.FS0 / p.v0);
     const st = loadStudy(JSON.stringify(study('stirred-tank', [d])), '/v/cstr.json', () => 'run,CA\nc1,500\n').study;
-    expect(() => simulateStudy(st, st.parameters, { heat: { heat: { ...heatBase, mode: 'co-current', coolant: { temperature: '300 K', flow: '1 kg/s', heatCapacity: '4 kJ/(kg K)' } } } })).toThrow(/jacket at one temperature/);
+    expect(() => simulateWithHeat(st, st.parameters, { heat: { ...heatBase, mode: 'co-current', coolant: { temperature: '300 K', flow: '1 kg/s', heatCapacity: '4 kJ/(kg K)' } } })).toThrow(/jacket at one temperature/);
   });
 });
 

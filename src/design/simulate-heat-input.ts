@@ -14,9 +14,9 @@
  */
 import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import { isObj, type Obj } from '../core/record.js';
-import { quantityToSI } from '../design/case-units.js';
-import { loadReactionEnthalpies, loadThermalCase, THERMAL_FIELDS, type ThermalCase } from '../design/heat-case.js';
-import type { Study } from './types.js';
+import { quantityToSI } from './case-units.js';
+import { loadReactionEnthalpies, loadThermalCase, THERMAL_FIELDS, type ThermalCase } from './heat-case.js';
+import type { Study } from '../study/types.js';
 
 /** Heat inputs of a simulation, SI. */
 export interface SimulationHeat {

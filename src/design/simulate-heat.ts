@@ -10,7 +10,8 @@
  *   (stirred-tank-heat.ts); the run reports the coolest stable state (the one a start-up from a
  *   cold feed normally reaches; the list shows the others).
  * - Batch and semibatch: the jacketed vessel in time (batch-heat.ts), UA = U times heat.exchangeArea.
- * The run's outlet, conversion and concentrations are those of the non-isothermal solution.
+ * The run's outlet, conversion and concentrations are those of the non-isothermal solution. This
+ * lives in design/ because the heat inputs are read by the case file's loader (design/heat-case.ts).
  */
 import { RateloomError } from '../core/errors.js';
 import { GAS_CONSTANT } from '../core/constants.js';
@@ -19,38 +20,20 @@ import { DEFAULT_BATCH_VOLUME } from '../reactors/batch.js';
 import { basisWeights } from '../reactors/checks.js';
 import { prepareFlowTube } from '../reactors/flow-tube.js';
 import type { ReactorSpec } from '../reactors/types.js';
+
 import { solveBatchHeat } from '../reactors/thermal/batch-heat.js';
-import type { ShootingReport } from '../reactors/thermal/counter-current.js';
 import { ReactionEnthalpy } from '../reactors/thermal/enthalpy.js';
 import { stirredTankSteadyStates, type StirredHeatStatus } from '../reactors/thermal/stirred-tank-heat.js';
 import { checkHeatCapacities, checkThermalSpec } from '../reactors/thermal/thermal-inputs.js';
 import { ThermalTube, type ThermalStatus } from '../reactors/thermal/thermal-tube.js';
 import type { ThermalTubeSpec } from '../reactors/thermal/tube-balances.js';
-import type { SimulationHeat } from './simulate-heat-input.js';
-import type { StudyRun } from './types.js';
-
-/** The energy-balance part of a simulated run (SI: K, kg, m3, s). */
-export interface SimulatedHeat {
-  mode: SimulationHeat['thermal']['mode'];
-  model: string;
-  /** Feed (inlet, initial) temperature: the run's temperature, K. */
-  feedTemperature: number;
-  /** Outlet (final, tank) temperature, K. */
-  outletTemperature: number;
-  /** Highest temperature and where (kg, m3 or s); position null in a stirred tank (uniform). */
-  hotSpot: { temperature: number; position: number | null; unit: 'kg' | 'm3' | 's' };
-  /** Coolant (jacket) temperature given, and for a tube at its gas inlet and outlet, K; null adiabatic. */
-  coolant: { temperature: number | null; atInlet: number | null; atOutlet: number | null };
-  /** heat.maxTemperature and whether the hot spot passes it. */
-  limit?: { maxTemperature: number; exceeded: boolean };
-  /** Temperature (and coolant temperature) along the reactor or in time. */
-  profile?: { x: number[]; unit: 'kg' | 'm3' | 's'; T: number[]; Ta: (number | null)[] };
-  /** Stirred tank: every steady state, with conversion of the key reactant and stability. */
-  steadyStates?: { temperature: number; conversion: number | null; stable: boolean; reported: boolean; outlet: number[] }[];
-  stabilityCriterion?: string;
-  /** Counter-current coolant: how the boundary-value problem converged. */
-  bvp?: ShootingReport;
-}
+import { loadSimulationHeat, type SimulationHeat } from './simulate-heat-input.js';
+import type { Parameter } from '../core/parameter.js';
+import type { ReactorSolution } from '../reactors/types.js';
+import { simulatedRun, simulateStudy, type RunSolver, type SimulateOptions, type SimulationResult } from '../study/simulate.js';
+import type { Study } from '../study/types.js';
+import type { StudyRun } from '../study/types.js';
+import type { SimulatedHeat } from '../study/simulate-heat-types.js';
 
 /** What the non-isothermal solve of one run gives simulate.ts. */
 export interface HeatRunSolution {
@@ -238,4 +221,31 @@ function vesselRun(run: StudyRun, ctx: HeatRunContext): HeatRunSolution {
   };
   const amounts = Float64Array.from(res.moles);
   return finish({ status: res.status, success: res.success, message: res.message, warnings: res.warnings.map((w) => w.message), amounts, concentrations: amounts.map((n) => n / Vend), pressureRatio: 1, heat }, ctx);
+}
+
+/** Options of simulateWithHeat: those of simulateStudy plus the heat file's name for messages. */
+export interface SimulateHeatOptions extends SimulateOptions {
+  /** File name of the heat inputs, for error messages; default 'heat'. */
+  heatFile?: string;
+}
+
+/**
+ * Solve every run of a study with its mole and energy balances: `heat` is the parsed JSON of a heat
+ * file ({ "heat": {...case-file heat block...}, "tubes": { "innerDiameter": ... } },
+ * simulate-heat-input.ts); the rest as simulateStudy.
+ */
+export function simulateWithHeat(study: Study, parameters: readonly Parameter[], heatDoc: unknown, options: SimulateHeatOptions = {}): SimulationResult {
+  const { heatFile, ...rest } = options;
+  const heat = loadSimulationHeat(heatDoc, study, heatFile ?? 'heat');
+  const solver: RunSolver = (st, run, solved, kinetics, theta, measured) => {
+    const h = solveRunWithHeat(solved, { reactor: st.reactor, kinetics, theta, heat, species: st.chemistry.speciesNames, keyIndex: st.keyReactantIndex, profile: rest.profile === true });
+    const sol: ReactorSolution = {
+      runId: run.id, status: 'success', success: h.success, message: h.message, warnings: [],
+      outletAmounts: h.amounts, outletConcentrations: h.concentrations, pressureRatio: h.pressureRatio,
+      stats: { rhsEvaluations: 0, jacobianEvaluations: 0, steps: 0, method: 'energy balance' },
+    };
+    const base = simulatedRun(st, run, sol, measured);
+    return { ...base, status: h.status, warnings: [...h.warnings, ...base.warnings], heat: h.heat };
+  };
+  return simulateStudy(study, parameters, rest, solver);
 }
