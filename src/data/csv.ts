@@ -28,7 +28,15 @@ export interface CsvTable {
   delimiter: CsvDelimiter;
   /** 1-based line of the header. */
   headerLine: number;
+  /** The rows after the header (for plain text made on first use from rowAt). */
   rows: CsvRow[];
+  /** Number of rows after the header (without making `rows`). */
+  rowCount: number;
+  /**
+   * Row i after the header. For plain text a fresh row is split from the file text on each call
+   * (nothing kept per row but offsets); otherwise rows[i].
+   */
+  rowAt(i: number): CsvRow;
 }
 
 type ParsedRecord = { record: string[]; info: { lines: number } };
@@ -77,15 +85,46 @@ function isLeftTrim(c: number): boolean {
 }
 
 /**
- * The records csv-parse returns for plain text (see isPlain) with the options of readCsv: a
- * leading BOM dropped; a line that is blank after left-trimming or whose first such character is
- * '#' skipped; cells split at ',', left-trimmed of space/tab/form feed and right-trimmed of white
- * space (String.prototype.trimEnd); a record whose cells are all white space skipped; `lines` is
- * the 1-based line of the record.
+ * Where the records of plain text (see isPlain) are, as csv-parse finds them with the options of
+ * readCsv: a leading BOM dropped; a line that is blank after left-trimming or whose first such
+ * character is '#' skipped; a record whose cells are all white space skipped. Per record: the
+ * offset of its first character after left-trimming, of its line end, and its 1-based line.
+ * Offsets only: the cells are split by plainCells when a record is read.
  */
-function parsePlain(text: string, file: string): ParsedRecord[] {
-  const out: ParsedRecord[] = [];
+interface PlainIndex {
+  starts: Int32Array;
+  ends: Int32Array;
+  lines: Int32Array;
+  count: number;
+}
+
+/** True for a character String.prototype.trim removes (WhiteSpace or LineTerminator). */
+function isTrimmed(c: number): boolean {
+  if (c < 128) return c === 32 || (c >= 9 && c <= 13);
+  return /\s/.test(String.fromCharCode(c));
+}
+
+/** True when text[p, end) holds nothing but delimiters and white space (every cell blank). */
+function allBlank(text: string, p: number, end: number): boolean {
+  for (let k = p; k < end; k++) {
+    const c = text.charCodeAt(k);
+    if (c !== 44 && !isTrimmed(c)) return false;
+  }
+  return true;
+}
+
+/** Grow a record index to hold at least `n` records. */
+function grown(a: Int32Array, n: number): Int32Array {
+  if (n <= a.length) return a;
+  const b = new Int32Array(Math.max(n, 2 * a.length));
+  b.set(a);
+  return b;
+}
+
+function indexPlain(text: string, file: string): PlainIndex {
   const n = text.length;
+  const guess = 16 + (n >>> 5);
+  const ix: PlainIndex = { starts: new Int32Array(guess), ends: new Int32Array(guess), lines: new Int32Array(guess), count: 0 };
   let start = text.charCodeAt(0) === 0xfeff ? 1 : 0;
   let line = 1;
   while (start <= n) {
@@ -94,26 +133,40 @@ function parsePlain(text: string, file: string): ParsedRecord[] {
     if (end - start > MAX_RECORD_CHARS) throw tooLong(file, line);
     let p = start;
     while (p < end && isLeftTrim(text.charCodeAt(p))) p++;
-    if (p < end && text.charCodeAt(p) !== 35) {
-      const record: string[] = [];
-      let empty = true;
-      let a = p;
-      for (;;) {
-        let b = text.indexOf(',', a);
-        if (b < 0 || b > end) b = end;
-        while (a < b && isLeftTrim(text.charCodeAt(a))) a++;
-        const cell = text.slice(a, b).trimEnd();
-        if (empty && cell.trim() !== '') empty = false;
-        record.push(cell);
-        if (b === end) break;
-        a = b + 1;
+    if (p < end && text.charCodeAt(p) !== 35 && !allBlank(text, p, end)) {
+      const k = ix.count++;
+      if (k === ix.starts.length) {
+        ix.starts = grown(ix.starts, k + 1);
+        ix.ends = grown(ix.ends, k + 1);
+        ix.lines = grown(ix.lines, k + 1);
       }
-      if (!empty) out.push({ record, info: { lines: line } });
+      ix.starts[k] = p;
+      ix.ends[k] = end;
+      ix.lines[k] = line;
     }
     line++;
     start = end + 1;
   }
-  return out;
+  // Give back what the first guess of the record count over-allocated.
+  return { starts: ix.starts.slice(0, ix.count), ends: ix.ends.slice(0, ix.count), lines: ix.lines.slice(0, ix.count), count: ix.count };
+}
+
+/**
+ * The cells of the plain record text[p, end): split at ',', each left-trimmed of space, tab and
+ * form feed and right-trimmed of white space (String.prototype.trimEnd), as csv-parse does.
+ */
+function plainCells(text: string, p: number, end: number): string[] {
+  const record: string[] = [];
+  let a = p;
+  for (;;) {
+    let b = text.indexOf(',', a);
+    if (b < 0 || b > end) b = end;
+    while (a < b && isLeftTrim(text.charCodeAt(a))) a++;
+    record.push(text.slice(a, b).trimEnd());
+    if (b === end) break;
+    a = b + 1;
+  }
+  return record;
 }
 
 function tooLong(file: string, line: number): RateloomError {
@@ -159,29 +212,67 @@ export function readCsv(text: string, file: string): CsvTable {
     });
   }
   const delimiter = detectDelimiter(text);
-  const records = delimiter === ',' && isPlain(text) ? parsePlain(text, file) : parseQuoted(text, file, delimiter);
-  if (records.length === 0) {
-    throw new RateloomError('E_CSV', 'the CSV file has no header row', { location: { file }, fix: 'Add a header row naming the columns.' });
-  }
-  const head = records[0];
-  const header = head.record.map((h) => h.trim());
+  return delimiter === ',' && isPlain(text) ? plainTable(text, file) : quotedTable(text, file, delimiter);
+}
+
+function noHeader(file: string): RateloomError {
+  return new RateloomError('E_CSV', 'the CSV file has no header row', { location: { file }, fix: 'Add a header row naming the columns.' });
+}
+
+/** The header cells trimmed; an empty or repeated name is E_CSV at `line`. */
+function checkedHeader(cells: readonly string[], file: string, line: number): string[] {
+  const header = cells.map((h) => h.trim());
   const seen = new Set<string>();
   header.forEach((h, i) => {
     if (h === '') {
-      throw new RateloomError('E_CSV', `header cell ${i + 1} is empty`, { location: { file, line: head.info.lines, column: i + 1 }, fix: 'Name every column in the header row.' });
+      throw new RateloomError('E_CSV', `header cell ${i + 1} is empty`, { location: { file, line, column: i + 1 }, fix: 'Name every column in the header row.' });
     }
     if (seen.has(h)) {
-      throw new RateloomError('E_CSV', `column '${h}' appears twice in the header`, { location: { file, line: head.info.lines, column: h }, fix: 'Give each column a unique name.' });
+      throw new RateloomError('E_CSV', `column '${h}' appears twice in the header`, { location: { file, line, column: h }, fix: 'Give each column a unique name.' });
     }
     seen.add(h);
   });
+  return header;
+}
+
+/**
+ * A table of plain text kept as the text and the offsets of its records: a row's cells are split
+ * when it is read (rowAt), so a million-row file holds no string per cell; `rows` is made on first
+ * use for the readers that want them all.
+ */
+function plainTable(text: string, file: string): CsvTable {
+  const ix = indexPlain(text, file);
+  if (ix.count === 0) throw noHeader(file);
+  const header = checkedHeader(plainCells(text, ix.starts[0], ix.ends[0]), file, ix.lines[0]);
+  const { starts, ends, lines } = ix;
+  const rowCount = ix.count - 1;
+  const rowAt = (i: number): CsvRow => ({ line: lines[i + 1], cells: plainCells(text, starts[i + 1], ends[i + 1]) });
+  let rows: CsvRow[] | undefined;
   return {
     file,
     header,
-    delimiter,
-    headerLine: startLine(head),
-    rows: rowsOf(records),
+    delimiter: ',',
+    headerLine: lines[0],
+    get rows(): CsvRow[] {
+      if (!rows) {
+        rows = new Array(rowCount);
+        for (let i = 0; i < rowCount; i++) rows[i] = rowAt(i);
+      }
+      return rows;
+    },
+    rowCount,
+    rowAt,
   };
+}
+
+/** A table read through csv-parse (quotes, carriage returns, other delimiters). */
+function quotedTable(text: string, file: string, delimiter: CsvDelimiter): CsvTable {
+  const records = parseQuoted(text, file, delimiter);
+  if (records.length === 0) throw noHeader(file);
+  const head = records[0];
+  const header = checkedHeader(head.record, file, head.info.lines);
+  const rows = rowsOf(records);
+  return { file, header, delimiter, headerLine: startLine(head), rows, rowCount: rows.length, rowAt: (i) => rows[i] };
 }
 
 /** The records after the header as rows (a record's start line steps back over quoted newlines). */

@@ -18,6 +18,7 @@ import type { FieldSpec, LongSourceSpec, MeasureSpec, MeasuredSpec, PerRunColumn
 import type { RunParameterRef } from './run-parameters.js';
 import { prepareBalanceRates, prepareRateComposition, readBalanceRate, readRateComposition, type MappingTools, type PreparedBalanceRate, type PreparedComposition } from './rate-composition.js';
 import { GAS_CONSTANT } from '../core/constants.js';
+import { VectorPool } from './vector-pool.js';
 
 export interface MappingContext {
   speciesNames: readonly string[];
@@ -313,6 +314,8 @@ interface PerRunPlan {
   isSemi: boolean;
   needPressure: boolean;
   needFlow: boolean;
+  /** Feed and initial-concentration vectors of the rows (views of shared blocks). */
+  vectors: VectorPool;
 }
 
 /** True when a source measures only rates and gives the composition they were measured at. */
@@ -420,6 +423,7 @@ function preparePerRun(table: CsvTable, spec: PerRunSourceSpec, ctx: MappingCont
     isSemi: ctx.kind === 'semibatch',
     needPressure: ctx.phase === 'gas' && !atComposition,
     needFlow: ctx.phase === 'liquid' && !isBatch && !atComposition,
+    vectors: new VectorPool(ctx.speciesNames.length),
   };
   for (const b of plan.balance) checkErrorModel(ctx, b.spec.errorModel, [...path, 'balanceRates', plan.balance.indexOf(b), 'errorModel']);
   checkPerRunMapping(plan, ctx, path);
@@ -430,9 +434,9 @@ function preparePerRun(table: CsvTable, spec: PerRunSourceSpec, ctx: MappingCont
 
 /** Feed molar flows of the current row (mol/s), from whichever feed description the source uses. */
 function readFeed(plan: PerRunPlan, r: RowReader, ctx: MappingContext, temperature?: number, pressure?: number, volumetricFlow?: number): Float64Array | undefined {
-  const { feed, fractions, total, cin, nS } = plan;
+  const { feed, fractions, total, cin } = plan;
   if (feed) {
-    const out = new Float64Array(nS);
+    const out = plan.vectors.take();
     for (let k = 0; k < feed.length; k++) out[feed[k].j] = r.num(feed[k].p, true, 'nonneg') ?? 0;
     return out;
   }
@@ -440,7 +444,7 @@ function readFeed(plan: PerRunPlan, r: RowReader, ctx: MappingContext, temperatu
     let FT: number | undefined;
     if (total) FT = r.num(total, true, 'nonneg');
     else if (volumetricFlow !== undefined && pressure !== undefined && temperature !== undefined) FT = (pressure * volumetricFlow) / (GAS_CONSTANT * temperature);
-    const out = new Float64Array(nS);
+    const out = plan.vectors.take();
     for (const { j, p } of fractions) {
       const y = r.num(p, true, 'nonneg');
       if (y !== undefined && y > 1 + 1e-9) r.reject('out-of-range', `feed fraction of ${ctx.speciesNames[j]} is above 1 (${y})`, p.header);
@@ -449,7 +453,7 @@ function readFeed(plan: PerRunPlan, r: RowReader, ctx: MappingContext, temperatu
     return out;
   }
   if (cin && volumetricFlow !== undefined) {
-    const out = new Float64Array(nS);
+    const out = plan.vectors.take();
     for (const { j, p } of cin) out[j] = (r.num(p, true, 'nonneg') ?? 0) * volumetricFlow;
     return out;
   }
@@ -458,14 +462,14 @@ function readFeed(plan: PerRunPlan, r: RowReader, ctx: MappingContext, temperatu
 
 /** Initial concentrations of the current row (batch, semibatch), mol/m3. */
 function readInitial(plan: PerRunPlan, r: RowReader, temperature?: number, pressure?: number): Float64Array | undefined {
-  const { c0, fractions, nS } = plan;
+  const { c0, fractions } = plan;
   if (c0) {
-    const out = new Float64Array(nS);
+    const out = plan.vectors.take();
     for (const { j, p } of c0) out[j] = r.num(p, true, 'nonneg') ?? 0;
     return out;
   }
   if (plan.isBatch && fractions && pressure !== undefined && temperature !== undefined) {
-    const out = new Float64Array(nS);
+    const out = plan.vectors.take();
     const CT = pressure / (GAS_CONSTANT * temperature);
     for (const { j, p } of fractions) out[j] = (r.num(p, true, 'nonneg') ?? 0) * CT;
     return out;
@@ -552,14 +556,14 @@ export function mapPerRunSource(table: CsvTable, spec: PerRunSourceSpec, ctx: Ma
   const r = new RowReader(table);
   const plan = preparePerRun(table, spec, ctx, r);
   const tools = mappingTools(table, ctx, r, ambientSI(spec.ambientPressure, ctx.path));
-  const out: MappedSource = { file: table.file, layout: 'per-run', rowsIn: table.rows.length, runs: [], observations: [], rejections: [], rejectedLines: new Set() };
+  const out: MappedSource = { file: table.file, layout: 'per-run', rowsIn: table.rowCount, runs: [], observations: [], rejections: [], rejectedLines: new Set() };
   const notes = rateNotes(plan, table.file);
   if (notes.length) out.rateNotes = notes;
   const nCols = table.header.length;
   const obs: MappedObservation[] = [];
-  const rows = table.rows;
-  for (let i = 0; i < rows.length; i++) {
-    const row = rows[i];
+  // Rows one at a time (rowAt): a plain-text table makes each row's cells only here, for this row.
+  for (let i = 0; i < table.rowCount; i++) {
+    const row = table.rowAt(i);
     r.reset(row);
     if (row.cells.length !== nCols) {
       r.reject('column-count', columnCountMessage(row.cells.length, nCols, table.delimiter));
@@ -598,9 +602,10 @@ export function mapLongSource(
   const pos = cols.position ? prepare(table, 'position', cols.position, sizeQuantity, [...path, 'position']) : undefined;
   const val = prepare(table, spec.response, { column: cols.value, unit: spec.unit }, RESPONSE_QUANTITY[spec.response], [...path, 'value']);
   const sig = cols.sigma !== undefined ? { ...val, name: 'sigma', column: columnIndex(table, cols.sigma, [...path, 'sigma']), header: cols.sigma, conv: { ...val.conv, toSI: (x: number) => x * val.conv.factor } } : undefined;
-  const out: MappedSource = { file: table.file, layout: 'long', rowsIn: table.rows.length, runs: [], observations: [], rejections: [], rejectedLines: new Set() };
+  const out: MappedSource = { file: table.file, layout: 'long', rowsIn: table.rowCount, runs: [], observations: [], rejections: [], rejectedLines: new Set() };
   const r = new RowReader(table);
-  for (const row of table.rows) {
+  for (let i = 0; i < table.rowCount; i++) {
+    const row = table.rowAt(i);
     r.reset(row);
     if (row.cells.length !== table.header.length) {
       r.reject('column-count', columnCountMessage(row.cells.length, table.header.length, table.delimiter));

@@ -286,29 +286,79 @@ function leaves(keys: readonly Float64Array[], nan: readonly boolean[], order: I
   leaves(keys, nan, order, tmp, start, hi, k + 1, tol, out);
 }
 
-/** The exact conditions of a run as one string (hash key): equal keys mean equal conditions. */
-function conditionKey(r: MappedRun): string {
-  const vec = (v: Float64Array | undefined) => (v ? Array.prototype.join.call(v, ',') : '-');
-  return `${r.group ?? '\u0000'}\u0001${r.temperature}\u0001${r.pressure}\u0001${r.size}\u0001${r.catalystMass}\u0001${r.volumetricFlow}\u0001${r.initialVolume}\u0001${vec(r.feed)}\u0001${vec(r.initialConcentrations)}`;
+/** Equal numbers as the former string key saw them: 0 equals -0, NaN equals NaN. */
+function sameNumber(a: number | undefined, b: number | undefined): boolean {
+  return a === b || (a !== a && b !== b);
+}
+
+function sameVector(a: Float64Array | undefined, b: Float64Array | undefined): boolean {
+  if (!a || !b) return a === b;
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (!sameNumber(a[i], b[i])) return false;
+  return true;
+}
+
+/** Exactly the same conditions (group, temperature, pressure, sizes, flows, feed, initial concentrations). */
+function exactlySame(a: MappedRun, b: MappedRun): boolean {
+  return (
+    a.group === b.group &&
+    sameNumber(a.temperature, b.temperature) &&
+    sameNumber(a.pressure, b.pressure) &&
+    sameNumber(a.size, b.size) &&
+    sameNumber(a.catalystMass, b.catalystMass) &&
+    sameNumber(a.volumetricFlow, b.volumetricFlow) &&
+    sameNumber(a.initialVolume, b.initialVolume) &&
+    sameVector(a.feed, b.feed) &&
+    sameVector(a.initialConcentrations, b.initialConcentrations)
+  );
+}
+
+const hashWord = new Float64Array(1);
+const hashHalves = new Uint32Array(hashWord.buffer);
+
+/** Mix one number into hash h (0 and -0 alike, every NaN alike; undefined as NaN). */
+function mixNumber(h: number, x: number | undefined): number {
+  hashWord[0] = x === undefined || x !== x ? Number.NaN : x + 0;
+  h = Math.imul(h ^ hashHalves[0], 0x85ebca6b);
+  return Math.imul(h ^ hashHalves[1], 0xc2b2ae35);
 }
 
 /**
- * One run per distinct exact condition key of a leaf; the others are joined to it at once (equal
+ * A 32-bit hash of the conditions that differ most between runs (temperature, size, pressure, the
+ * feed): runs with equal conditions (exactlySame) get equal hashes.
+ */
+function conditionHash(r: MappedRun): number {
+  let h = mixNumber(mixNumber(mixNumber(17, r.temperature), r.size), r.pressure);
+  const feed = r.feed;
+  if (feed) for (let i = 0; i < feed.length; i++) h = mixNumber(h, feed[i]);
+  return h;
+}
+
+/**
+ * One run per distinct exact condition of a leaf; the others are joined to it at once (equal
  * conditions are replicates under any tolerance). The pairwise tolerance comparison then runs
  * over the distinct conditions only, so a leaf of n repeated runs costs O(n) (hashing) instead of
- * O(n^2). Small leaves skip the hashing.
+ * O(n^2). Small leaves skip the hashing. Runs are bucketed by a numeric hash of their conditions
+ * and compared exactly within a bucket (no key string per run).
  */
 function exactRepresentatives(leaf: readonly number[], runs: readonly MappedRun[], union: (a: number, b: number) => void): readonly number[] {
   if (leaf.length <= 32) return leaf;
-  const firstOf = new Map<string, number>();
+  const buckets = new Map<number, number | number[]>();
   const reps: number[] = [];
   for (const i of leaf) {
-    const key = conditionKey(runs[i]);
-    const first = firstOf.get(key);
-    if (first === undefined) {
-      firstOf.set(key, i);
+    const h = conditionHash(runs[i]);
+    const found = buckets.get(h);
+    const list = found === undefined ? undefined : typeof found === 'number' ? [found] : found;
+    const first = list?.find((k) => exactlySame(runs[k], runs[i]));
+    if (first !== undefined) union(first, i);
+    else {
       reps.push(i);
-    } else union(first, i);
+      if (!list) buckets.set(h, i);
+      else {
+        list.push(i);
+        if (typeof found === 'number') buckets.set(h, list);
+      }
+    }
   }
   return reps;
 }
@@ -364,6 +414,23 @@ export function findReplicates(runs: readonly MappedRun[], tol: number): Replica
   return out;
 }
 
+/** Index of the observation's (response, species) in `keys` ('response|species'), added when new. */
+function responseIndex(index: Map<string, Map<string, number>>, keys: string[], o: MappedObservation): number {
+  const sp = o.species ?? '';
+  let bySpecies = index.get(o.response);
+  if (!bySpecies) {
+    bySpecies = new Map();
+    index.set(o.response, bySpecies);
+  }
+  let ri = bySpecies.get(sp);
+  if (ri === undefined) {
+    ri = keys.length;
+    keys.push(`${o.response}|${sp}`);
+    bySpecies.set(sp, ri);
+  }
+  return ri;
+}
+
 /**
  * Pooled pure error per response (and species): observations of the same response at the same
  * position in runs of one replicate group (or repeated rows of one run) are replicates.
@@ -373,58 +440,57 @@ export function pureErrors(observations: readonly MappedObservation[], groups: r
   for (const g of groups) for (const id of g.runIds) groupOf.set(id, g.id);
   // A cell is (group or 'run:<id>', response, species, position). Species names hold no '|'
   // (schema pattern), so these keys match the former flat key `${group}|${response}|${species}|${position}`
-  // exactly; cells keep their order of first use (which fixes the order of the sums).
-  // A cell holds its first value inline and makes a list only for a second one.
-  type Cell = { key: string; o: MappedObservation; first: number; values: number[] | undefined };
-  const cellList: Cell[] = [];
+  // exactly; cells are pooled in their order of first use (which fixes the order of the sums).
+  // A cell seen once is only the index of its observation (no object per cell); a second value
+  // makes it a Cell, remembering that index as its order of first use.
+  type Cell = { key: string; o: MappedObservation; order: number; values: number[] };
+  type Slot = number | Cell | undefined;
+  const repeated: Cell[] = [];
   const respIndex = new Map<string, Map<string, number>>(); // response -> species -> index
   const respKeys: string[] = [];
-  const outlet = new Map<string, (Cell | undefined)[]>(); // group -> cells (no position) by response index
-  const profile = new Map<string, Cell>(); // `${group}|${respKey}|${position}` -> cell
+  // Cells (no position) by response index, of each replicate group and of each run in none (two
+  // maps: no 'run:<id>' string is made per run).
+  const outletOfGroup = new Map<string, Slot[]>();
+  const outletOfRun = new Map<string, Slot[]>();
+  const profile = new Map<string, Slot>(); // `${group}|${respKey}|${position}` -> cell
   // Neighbouring observations usually share a run: its group and cells are looked up once.
   let lastRun: string | undefined;
-  let g = '';
-  let slots: (Cell | undefined)[] = [];
-  for (const o of observations) {
+  let group: string | undefined;
+  let slots: Slot[] = [];
+  for (let k = 0; k < observations.length; k++) {
+    const o = observations[k];
     if (o.runId !== lastRun) {
       lastRun = o.runId;
-      g = groupOf.get(o.runId) ?? `run:${o.runId}`;
-      const found = outlet.get(g);
+      group = groupOf.get(o.runId);
+      const outlet = group === undefined ? outletOfRun : outletOfGroup;
+      const found = outlet.get(group ?? o.runId);
       if (found) slots = found;
-      else outlet.set(g, (slots = []));
+      else outlet.set(group ?? o.runId, (slots = []));
     }
-    const sp = o.species ?? '';
-    let bySpecies = respIndex.get(o.response);
-    if (!bySpecies) {
-      bySpecies = new Map();
-      respIndex.set(o.response, bySpecies);
-    }
-    let ri = bySpecies.get(sp);
-    if (ri === undefined) {
-      ri = respKeys.length;
-      respKeys.push(`${o.response}|${sp}`);
-      bySpecies.set(sp, ri);
-    }
+    const ri = responseIndex(respIndex, respKeys, o);
     let profileKey = '';
-    let c: Cell | undefined;
+    let c: Slot;
     if (o.position === undefined) c = slots[ri];
     else {
-      profileKey = `${g}|${respKeys[ri]}|${o.position.toPrecision(9)}`;
+      profileKey = `${group ?? `run:${o.runId}`}|${respKeys[ri]}|${o.position.toPrecision(9)}`;
       c = profile.get(profileKey);
     }
-    if (!c) {
-      c = { key: respKeys[ri], o, first: o.value, values: undefined };
-      if (o.position === undefined) {
+    if (c === undefined) {
+      if (o.position !== undefined) profile.set(profileKey, k);
+      else {
         while (slots.length < ri) slots.push(undefined);
-        slots[ri] = c;
-      } else profile.set(profileKey, c);
-      cellList.push(c);
-    } else if (c.values) c.values.push(o.value);
-    else c.values = [c.first, o.value];
+        slots[ri] = k;
+      }
+    } else if (typeof c === 'number') {
+      const cell: Cell = { key: respKeys[ri], o: observations[c], order: c, values: [observations[c].value, o.value] };
+      repeated.push(cell);
+      if (o.position === undefined) slots[ri] = cell;
+      else profile.set(profileKey, cell);
+    } else c.values.push(o.value);
   }
+  repeated.sort((a, b) => a.order - b.order);
   const pooled = new Map<string, PureError>();
-  for (const c of cellList) {
-    if (!c.values) continue;
+  for (const c of repeated) {
     // sum of squared deviations from the replicate mean (simple-statistics; compensated mean)
     const ss = sumNthPowerDeviations(c.values, 2);
     const p = pooled.get(c.key) ?? { response: c.o.response, ...(c.o.species !== undefined ? { species: c.o.species } : {}), unit: c.o.unit, sumSquares: 0, dof: 0, sigma: 0 };

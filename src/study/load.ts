@@ -84,11 +84,12 @@ function withFile<T>(file: string, text: string, f: () => T): T {
 }
 
 /**
- * Observations grouped by source row (file and line), groups in order of first appearance. The
- * mapping emits a row's observations together, so with distinct per-run file names a group is a
- * run of neighbours with the same line; otherwise rows are matched by file and line through a map.
+ * Visit the observations grouped by source row (file and line), groups in order of first
+ * appearance. The mapping emits a row's observations together, so with distinct per-run file names
+ * a group is a run of neighbours with the same line (visited as one reused list, valid only during
+ * the visit); otherwise rows are matched by file and line through a map.
  */
-function rowGroups(observations: readonly MappedObservation[], distinctFiles: boolean): MappedObservation[][] {
+function forEachRowGroup(observations: readonly MappedObservation[], distinctFiles: boolean, visit: (list: readonly MappedObservation[]) => void): void {
   if (!distinctFiles) {
     const byRow = new Map<string, MappedObservation[]>();
     for (const o of observations) {
@@ -97,19 +98,19 @@ function rowGroups(observations: readonly MappedObservation[], distinctFiles: bo
       list.push(o);
       byRow.set(key, list);
     }
-    return [...byRow.values()];
+    for (const list of byRow.values()) visit(list);
+    return;
   }
-  const out: MappedObservation[][] = [];
-  let list: MappedObservation[] | undefined;
+  const list: MappedObservation[] = [];
   for (const o of observations) {
-    const at = list?.[0].location;
-    if (list && at && at.line === o.location.line && at.file === o.location.file) list.push(o);
-    else {
-      list = [o];
-      out.push(list);
+    const at = list.length ? list[0].location : undefined;
+    if (at && (at.line !== o.location.line || at.file !== o.location.file)) {
+      visit(list);
+      list.length = 0;
     }
+    list.push(o);
   }
-  return out;
+  if (list.length) visit(list);
 }
 
 /**
@@ -238,6 +239,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   const rows = checkPerRunRows(data, models, chemistry, inletCtx);
   addLongSources(raw.data, data, rows, inletCtx);
   const { runs, observations, runIndex } = settleRunSizes(rows.runs, rows.observations, data.ledger);
+  rows.observations = []; // the settled list is the only one left (observationsWithSigma converts it in place)
   checkModelUnits(models, observations);
   const replicateGroups = findReplicates(runs, settings.replicateTolerance);
   const pure = pureErrors(observations, replicateGroups);
@@ -275,7 +277,7 @@ function resolveStudy(raw: RawStudy, studyPath: string, readFile: (absPath: stri
   study.referenceTemperatureApplies = referenceTemperatureMatters(study);
   const notes = data.perRun.flatMap((m) => m.rateNotes ?? []);
   if (notes.length) study.rateNotes = notes;
-  const labCtx = { baseDir: dirname(studyPath), readFile, definedRunIds: perRunIds(data.tables, raw.data) };
+  const labCtx = { baseDir: dirname(studyPath), readFile, ...(raw.labData ? { definedRunIds: perRunIds(data.tables, raw.data) } : {}) };
   return { study: attachLabData(study, raw.labData, raw.activity, labCtx), report };
 }
 
@@ -350,7 +352,7 @@ function readData(
   const { speciesNames, reactor, errorModelNames, settings } = setup;
   const tables = readSources(raw.data, studyPath, readFile, options);
   const ledger = new Ledger();
-  raw.data.forEach((s, i) => ledger.addSource(s.file, s.layout, tables[i].rows.length));
+  raw.data.forEach((s, i) => ledger.addSource(s.file, s.layout, tables[i].rowCount));
   const parameterStart = parameterStartFor(raw.parameters);
   const ctxFor = (i: number): MappingContext => ({ speciesNames, kind: reactor.kind, phase: reactor.phase, errorModelNames, path: ['data', i], parameterStart });
 
@@ -413,7 +415,9 @@ function checkPerRunRows(data: SourceData, models: Record<string, ErrorModel>, c
   for (const r of data.runs) runById.set(r.id, r);
   let observations: MappedObservation[] = [];
   for (const m of perRun) for (const o of m.observations) if (!ledger.isRejected(o.location)) observations.push(o);
-  for (const list of rowGroups(observations, new Set(perRun.map((m) => m.file)).size === perRun.length)) {
+  // The sources' own lists are let go: this list (and its successors) holds the observations now.
+  for (const m of perRun) m.observations = [];
+  forEachRowGroup(observations, new Set(perRun.map((m) => m.file)).size === perRun.length, (list) => {
     const run = runById.get(list[0].runId) as MappedRun;
     const rowRun = run.location.line === list[0].location.line && run.location.file === list[0].location.file ? run : { ...run, location: { file: list[0].location.file, line: list[0].location.line } };
     for (const o of list) {
@@ -422,7 +426,7 @@ function checkPerRunRows(data: SourceData, models: Record<string, ErrorModel>, c
     }
     const eb = checkElementBalance(rowRun, list, chemistry, inletCtx);
     if (eb) ledger.reject(eb);
-  }
+  });
   const rejectedRuns = new Map<string, RowLocation>();
   const runs = data.runs.filter((r) => {
     if (!ledger.isRejected(r.location)) return true;
@@ -475,9 +479,17 @@ function settleRunSizes(checked: readonly MappedRun[], observed: readonly Mapped
   return { runs, observations, runIndex };
 }
 
-/** Observations with their error models; a replicates model takes sigma (and its dof) from the pooled pure error of the response. */
-function observationsWithSigma(observations: readonly MappedObservation[], models: Record<string, ErrorModel>, pure: readonly PureError[], runIndex: ReadonlyMap<string, number>): Observation[] {
-  return observations.map((o, index) => {
+/**
+ * Observations with their error models; a replicates model takes sigma (and its dof) from the
+ * pooled pure error of the response. The list is turned into the study's observations in place:
+ * each mapped observation can be collected as soon as its study observation exists, so the two
+ * (three per row of a typical file) are never all in memory at once. The caller hands the list
+ * over and uses only the returned one.
+ */
+function observationsWithSigma(observations: MappedObservation[], models: Record<string, ErrorModel>, pure: readonly PureError[], runIndex: ReadonlyMap<string, number>): Observation[] {
+  const out = observations as unknown as (MappedObservation | Observation)[];
+  for (let index = 0; index < observations.length; index++) {
+    const o = observations[index];
     const modelName = o.errorModel ?? DEFAULT_ERROR_MODEL;
     let sigma = o.sigma;
     if (sigma === undefined && models[modelName].kind === 'replicates') {
@@ -491,8 +503,9 @@ function observationsWithSigma(observations: readonly MappedObservation[], model
       sigma = pe.sigma;
       models[modelName] = { ...models[modelName], dof: pe.dof };
     }
-    return studyObservation(o, index, runIndex.get(o.runId) as number, sigma, modelName);
-  });
+    out[index] = studyObservation(o, index, runIndex.get(o.runId) as number, sigma, modelName);
+  }
+  return out as Observation[];
 }
 
 /** A study run from a mapped run, optional fields only when given. */

@@ -7,8 +7,8 @@ import type { MappedObservation } from '../data/mapping.js';
 /** Ids of the runs whose observations are all 'rate' responses. */
 export function ratesOnlyRuns(observations: readonly MappedObservation[]): Set<string> {
   const rate = new Set<string>();
-  const other = new Set<string>();
-  for (const o of observations) (o.response === 'rate' ? rate : other).add(o.runId);
-  for (const id of other) rate.delete(id);
+  for (const o of observations) if (o.response === 'rate') rate.add(o.runId);
+  if (rate.size === 0) return rate; // the common case: no measured rates, no set of every run id
+  for (const o of observations) if (o.response !== 'rate') rate.delete(o.runId);
   return rate;
 }
