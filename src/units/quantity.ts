@@ -45,10 +45,10 @@ const RATE_VOLUME: Dims = [0, -3, -1, 1, 0];
 
 export const QUANTITIES: Readonly<Record<Quantity, QuantityDef>> = {
   'molar-flow': { dims: [[0, 0, -1, 1, 0]], si: 'mol/s', common: ['mol/s', 'mmol/s', 'mmol/min', 'mol/min', 'mol/h', 'kmol/h'] },
-  mass: { dims: [DIMS.mass], si: 'kg', common: ['kg', 'g', 'mg'] },
+  mass: { dims: [DIMS.mass], si: 'kg', common: ['kg', 'g', 'mg', 't', 'lb'] },
   volume: { dims: [DIMS.volume], si: 'm3', common: ['m3', 'L', 'mL', 'cm3'] },
   'volumetric-flow': { dims: [[0, 3, -1, 0, 0]], si: 'm3/s', common: ['m3/s', 'm3/h', 'L/min', 'L/h', 'mL/min'] },
-  pressure: { dims: [DIMS.pressure], si: 'Pa', common: ['Pa', 'kPa', 'MPa', 'bar', 'mbar', 'atm', 'psi', 'torr', 'mmHg'] },
+  pressure: { dims: [DIMS.pressure], si: 'Pa', common: ['Pa', 'kPa', 'MPa', 'bar', 'mbar', 'atm', 'psi', 'psia', 'torr', 'mmHg'] },
   temperature: { dims: [DIMS.temp], si: 'K', common: ['K', 'degC', 'degF'] },
   time: { dims: [DIMS.time], si: 's', common: ['s', 'min', 'h'] },
   concentration: { dims: [DIMS.conc], si: 'mol/m3', common: ['mol/m3', 'mol/L', 'M', 'mmol/L'] },

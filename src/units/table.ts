@@ -48,8 +48,10 @@ function atom(factor: number, dims: Dims, exact: boolean, source: string): UnitA
   return { factor, dims, exact, source };
 }
 
-/** Pound-force in newtons: 0.45359237 kg x 9.80665 m/s2 (both exact by definition), NIST SP 811 B.8. */
-const LBF = 0.45359237 * STANDARD_GRAVITY;
+/** Pound (avoirdupois) in kilograms, exact by definition (NIST SP 811 B.8: 4.535 924 E-01 kg). */
+const POUND = 0.45359237;
+/** Pound-force in newtons: one pound x 9.80665 m/s2 (both exact by definition), NIST SP 811 B.8. */
+const LBF = POUND * STANDARD_GRAVITY;
 /** Inch in metres, exact (NIST SP 811 B.8: 2.54 E-02 m). */
 const INCH = 0.0254;
 
@@ -68,6 +70,7 @@ export const ATOMS: Readonly<Record<string, UnitAtom>> = {
   mg: atom(1e-6, D.mass, true, SI),
   ug: atom(1e-9, D.mass, true, SI),
   t: atom(1e3, D.mass, true, `${SI} Table 8 (tonne)`),
+  lb: atom(POUND, D.mass, true, `${NIST} (pound (avoirdupois) 4.535 924 E-01 kg)`),
   // length
   m: atom(1, D.length, true, SI),
   cm: atom(1e-2, D.length, true, SI),
@@ -129,6 +132,7 @@ export const ALIASES: Readonly<Record<string, string>> = {
   sec: 's',
   hr: 'h',
   Torr: 'torr',
+  psia: 'psi',
   mmhg: 'mmHg',
   cp: 'cP',
   kelvin: 'K',
