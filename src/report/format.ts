@@ -46,11 +46,11 @@ export function formatNumber(x: number | null | undefined, sig = SIG_VALUE): str
   return `${minus}${trimZeros(mant)}×10${superscript(String(Number(exp)))}`;
 }
 
-/** Text shown for a dimensionless unit. */
-export const DIMENSIONLESS = '–';
+/** Text shown for a dimensionless unit: '1', the unit one (SI Brochure 9th ed. 2.3.3), never a dash that reads as 'missing'. */
+export const DIMENSIONLESS = '1';
 
 /**
- * Make a unit readable: '^2' -> '²', '^-1' -> '⁻¹', '^1.5' -> '¹·⁵', a lone '1' or '' -> '–'
+ * Make a unit readable: '^2' -> '²', '^-1' -> '⁻¹', '^1.5' -> '¹·⁵', a lone '1', '-' or '' -> '1'
  * (dimensionless). Other text is kept as given.
  */
 export function formatUnit(unit: string | null | undefined): string {
@@ -59,7 +59,7 @@ export function formatUnit(unit: string | null | undefined): string {
   return u.replace(/\^(-?\d+(?:\.\d+)?)/g, (_m, e: string) => superscript(e));
 }
 
-/** Axis title with its unit: 'T (K)', 'X_A (–)'. */
+/** Axis title with its unit: 'T (K)', 'X_A (1)'. */
 export function axisTitle(label: string, unit: string | null | undefined): string {
   return `${label} (${formatUnit(unit)})`;
 }

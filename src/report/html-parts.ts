@@ -3,7 +3,7 @@
  * boxes, tables whose number cells always carry a unit, and chart figures with inline SVG.
  * Every piece of text passes through escapeHtml; SVG comes only from our own renderer.
  */
-import { escapeHtml, formatInterval, formatNumber, formatUnit, NOT_COMPUTED, SIG_VALUE } from './format.js';
+import { DIMENSIONLESS, escapeHtml, formatInterval, formatNumber, formatUnit, NOT_COMPUTED, SIG_VALUE } from './format.js';
 import { REPORT_CSS } from './style.js';
 import type { RenderedChart, ReportWarning } from './types.js';
 
@@ -64,10 +64,10 @@ export function cautionsBlock(cautions: string[]): string {
   return `<section class="notes cautions" aria-label="cautions"><h3>Read before using this size</h3><ul>${items}</ul></section>`;
 }
 
-/** Unit span (dimensionless shows '–' with a tooltip). */
+/** Unit span (dimensionless shows '1' with a tooltip). */
 export function unitSpan(unit: string | null | undefined): string {
   const u = formatUnit(unit);
-  const title = u === '–' ? ' title="dimensionless"' : '';
+  const title = u === DIMENSIONLESS ? ' title="dimensionless"' : '';
   return `<span class="unit"${title}>${escapeHtml(u)}</span>`;
 }
 

@@ -84,6 +84,7 @@ export function renderFitMarkdown(data: FitReportData): string {
   const parts = [
     `# ${md(data.title)}`,
     `Study: ${md(data.studyName)} · ${md(data.generatedBy)}${data.generatedAt ? ` · ${md(data.generatedAt)}` : ''}`,
+    'Numbers are in the units the study wrote for them (or its displayUnits); the unit 1 marks a dimensionless quantity.',
     '## Summary',
     statusLine(data.success, data.status, data.message),
     warningLines(data.warnings),
@@ -166,6 +167,7 @@ export function renderSizingMarkdown(data: SizingReportData): string {
   const parts = [
     `# ${md(data.title)}`,
     `Case: ${md(data.caseName)} · ${md(data.generatedBy)}${data.generatedAt ? ` · ${md(data.generatedAt)}` : ''}`,
+    'The unit 1 marks a dimensionless quantity.',
     '## Summary',
     statusLine(data.success, data.status, data.message),
     '> **Read before using this size**\n>\n' + cautions,

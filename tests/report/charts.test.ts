@@ -60,7 +60,7 @@ describe('chart builders', () => {
     expect(warnings).toEqual([]);
     const titles = axisTitles(vg);
     // the heat map's axes are parameter names without a title; its quantity is in the legend
-    if (c.id === 'correlation') expect(JSON.stringify(vg)).toContain('"title":"r (–)"');
+    if (c.id === 'correlation') expect(JSON.stringify(vg)).toContain('"title":"r (1)"');
     else expect(titles.length).toBeGreaterThan(0);
     for (const t of titles) expect(t, `axis title '${t}'`).toMatch(/\([^()]*(\([^()]*\)[^()]*)*\)$/);
   });

@@ -31,8 +31,9 @@ describe('units and intervals', () => {
   it('makes exponents superscript and marks dimensionless quantities', () => {
     expect(formatUnit('mol/(kg s Pa^2)')).toBe('mol/(kg s Pa²)');
     expect(formatUnit('m^-3')).toBe('m⁻³');
-    expect(formatUnit('1')).toBe('–');
-    expect(formatUnit('')).toBe('–');
+    expect(formatUnit('1')).toBe('1');
+    expect(formatUnit('')).toBe('1');
+    expect(formatUnit('-')).toBe('1');
     expect(axisTitle('T', 'K')).toBe('T (K)');
   });
   it('shows open interval sides', () => {

@@ -79,7 +79,7 @@ describe('fit report HTML', async () => {
     expect(report.html).toContain('<h3>Starting values estimated by rateloom</h3>');
     expect(report.html).toMatch(/<code>k_ref<\/code><\/th><td class="num">2\.1×10⁻³<span class="unit">mol\/\(kg s\)<\/span><\/td><td>differential rate analysis<\/td>/);
     expect(report.html).toMatch(/<code>E<\/code><\/th><td class="num">79000<span class="unit">J\/mol<\/span><\/td>/);
-    expect(report.html).toContain('<td class="num">1<span class="unit" title="dimensionless">–</span></td><td>documented default</td>');
+    expect(report.html).toContain('<td class="num">1<span class="unit" title="dimensionless">1</span></td><td>documented default</td>');
     expect(report.html).toContain('The differential method used 9 rate points.');
     expect(report.html).toContain('<li>points up to 40% conversion were used: too few below 15%</li>');
     const none = renderFitHtml({ ...data, startValues: null }, { parity: [], residuals: [], profiles: [], correlation: [], likelihood: [], rivals: [] });

@@ -15,10 +15,12 @@ describe('Markdown summaries', () => {
     const md = renderFitMarkdown(sampleFitReportData());
     for (const h of ['## Parameters', '## Statistics', '## Rival models', '## Parameter correlation']) expect(md).toContain(h);
     expect(md).toContain('| k\\_ref | 2.412×10⁻³ mol/(kg s) | 9.1×10⁻⁵ mol/(kg s) |');
-    expect(md).toContain('0.391 … open –');
-    // every numeric cell is followed by a unit (a dimensionless one reads '–')
+    expect(md).toContain('0.391 … open 1');
+    // every numeric cell is followed by a unit (a dimensionless one reads '1', never a bare dash)
     for (const row of tableRows(md)) {
       for (const cell of row.slice(1)) {
+        expect(cell).not.toMatch(/\s[–-]$/);
+        if (/\s1$/.test(cell)) continue;
         if (/^[−-]?\d[\d.×⁰¹²³⁴⁵⁶⁷⁸⁹⁻…\s]*$/.test(cell)) throw new Error(`number without unit in Markdown cell '${cell}'`);
       }
     }
@@ -30,7 +32,7 @@ describe('Markdown summaries', () => {
     expect(md).toContain('## Starting values estimated by rateloom');
     expect(md).toContain('| k\\_ref | 2.1×10⁻³ mol/(kg s) | differential rate analysis | ln r regression over 9 low-conversion points |');
     expect(md).toContain('| E | 79000 J/mol | differential rate analysis |');
-    expect(md).toContain('| n\\_H2 | 1 – | documented default |');
+    expect(md).toContain('| n\\_H2 | 1 1 | documented default |');
     expect(md).toContain('The differential method used 9 rate points.');
     expect(md).toContain('- points up to 40% conversion were used: too few below 15%');
     expect(md.indexOf('## Starting values')).toBeGreaterThan(md.indexOf('## Parameters'));
