@@ -6,7 +6,7 @@
  * Exit 0 ranked with a trustworthy best fit, 1 the best-ranked fit is not trustworthy (its verdict), 2 bad input.
  */
 import type { Command } from 'commander';
-import { compareStudyParallel, AUTO_RULE_TEXT, fitReportData, type Comparison, type WorkersSetting, shownParameters, studyDisplay } from '../src/index.js';
+import { compareStudyParallel, AUTO_RULE_TEXT, fitReportData, type Comparison, type WorkersSetting, shownParameters, studyDisplay, criterionText, criterionDeltaText } from '../src/index.js';
 import { WORKERS_OPTION } from './fit.js';
 import { join } from 'node:path';
 import { writeFitReport } from './report-render.js';
@@ -28,10 +28,10 @@ Exit codes: 0 ranked and the best fit trustworthy, 1 the best-ranked fit is not 
 
 export function formatComparison(c: Comparison): string {
   const L: string[] = [];
-  const crit = c.criterion.toUpperCase();
+  const crit = c.criterion === 'aicc' ? 'AICc' : 'AIC';
   const rows = [['rank', 'rate-law set', 'weighted SSR', 'params', 'dof', crit, `delta ${crit}`, 'Akaike weight', 'ranked', 'verdict']];
   for (const r of c.ranking) {
-    rows.push([String(r.rank), r.name, g(r.ssr, 5), String(r.p), String(r.dof), g(r.aicc ?? NaN, 6), g(r.delta, 3), g(r.akaikeWeight, 3), r.converged ? 'yes' : 'no', r.verdict]);
+    rows.push([String(r.rank), r.name, g(r.ssr, 5), String(r.p), String(r.dof), criterionText(r.criterion), criterionDeltaText(r.criterion, c.ranking[0].criterion), g(r.akaikeWeight, 3), r.converged ? 'yes' : 'no', r.verdict]);
   }
   L.push(table(rows));
   for (const t of c.nestedTests) {

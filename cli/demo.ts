@@ -14,7 +14,7 @@ import type { Command } from 'commander';
 import { existsSync, readdirSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { RateloomError, summarizeStudy, type StudySummary, applyParameterValues, type Study, type ValidationReport, buildHandoff, type StudyFit, compareStudyParallel, fitStudyParallel, sizeReactorParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, sizingReportData, type Comparison, parseHandoff, kineticsFromHandoff, loadCase, type SizingResult } from '../src/index.js';
+import { RateloomError, summarizeStudy, type StudySummary, applyParameterValues, type Study, type ValidationReport, buildHandoff, type StudyFit, compareStudyParallel, fitStudyParallel, sizeReactorParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, sizingReportData, type Comparison, parseHandoff, kineticsFromHandoff, loadCase, type SizingResult, criterionText, criterionDeltaText } from '../src/index.js';
 import { formatCheck } from './check.js';
 import { formatComparison } from './compare.js';
 import { formatFit, WORKERS_OPTION } from './fit.js';
@@ -78,7 +78,7 @@ export interface DemoResult {
   outDir: string;
   seconds: number;
   check: { rowsIn: number; rowsUsed: number; rowsRejected: number; rejections: { line: number; reason: string; message: string }[]; replicateGroups: number; observations: number; degreesOfFreedom: number };
-  comparison: { best: string; ranking: { name: string; delta: number | null; weight: number | null; converged: boolean }[]; verdict: string; report: { html: string; markdown: string } };
+  comparison: { best: string; ranking: { name: string; criterion: number | null; delta: number | null; weight: number | null; converged: boolean }[]; verdict: string; report: { html: string; markdown: string } };
   fit: DemoStudyResult & { handoff: string; lackOfFitP: number | null };
   sizing: { case: string; status: string; success: boolean; size: number | null; unit: string | null; p90: number | null; p95: number | null; thermal: string | null; warnings: string[]; cautions: string[]; report: { html: string; markdown: string }; json: string }[];
   liquids: DemoStudyResult[];
@@ -229,7 +229,7 @@ async function compareRateLaws(run: DemoRun, study: Study): Promise<DemoResult['
   run.write('pbr-compare.txt', formatComparison(comparison) + '\n');
   return {
     best,
-    ranking: comparison.ranking.map((r) => ({ name: r.name, delta: r.delta, weight: r.akaikeWeight, converged: r.converged })),
+    ranking: comparison.ranking.map((r) => ({ name: r.name, criterion: r.criterion, delta: r.delta, weight: r.akaikeWeight, converged: r.converged })),
     verdict: comparison.verdict,
     report,
   };
@@ -341,7 +341,7 @@ function narrate(r: Omit<DemoResult, 'index' | 'files' | 'text' | 'seconds'>, st
   L.push('');
   L.push(`1. check  ${r.check.rowsIn} rows read, ${r.check.rowsUsed} used, ${r.check.rowsRejected} rejected; ${r.check.observations} observations, ${r.check.degreesOfFreedom} degrees of freedom; ${r.check.replicateGroups} replicate group(s).`);
   for (const x of report.rejections) L.push(`         rejected ${x.file}:${x.line}${x.column ? `:${x.column}` : ''} (${x.reason}): ${x.message}`);
-  L.push(`2. compare  ${r.comparison.ranking.map((x) => `${x.name} (delta AICc ${g(x.delta, 3)}, weight ${g(x.weight, 2)})`).join('; ')}`);
+  L.push(`2. compare  ${r.comparison.ranking.map((x) => `${x.name} (AICc ${criterionText(x.criterion)}, delta ${criterionDeltaText(x.criterion, r.comparison.ranking[0].criterion)}, weight ${g(x.weight, 2)})`).join('; ')}`);
   L.push(`         ${r.comparison.verdict}`);
   L.push(`3. fit  '${r.comparison.best}': ${r.fit.status}; lack-of-fit p = ${r.fit.lackOfFitP === null ? 'n/a' : g(r.fit.lackOfFitP, 3)} (replicates). Fitted vs the recorded truth of the generator (SI units):`);
   L.push(...fmtTruthTable(r.fit.parameters));

@@ -8,7 +8,7 @@
 import { formatTransport } from './transport-text.js';
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study, crossCheckStudyFit, shownFitParts } from '../src/index.js';
+import { DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study, crossCheckStudyFit, shownFitParts, criterionText } from '../src/index.js';
 import { formatCrossCheck } from './cross-check-text.js';
 import { renderFitFiles } from './report-render.js';
 import { assertWritable, checkStem, writeAll } from './io.js';
@@ -62,7 +62,7 @@ export function formatFit(study: Study, sf: StudyFit): string {
   L.push(`Verdict: ${fit.verdict.trustworthy ? 'trustworthy' : 'NOT TRUSTWORTHY'} (${fit.verdict.status})`);
   for (const r of fit.verdict.reasons) L.push(`  - [${r.code}] ${r.message}`);
   L.push(`Observations ${s.n}, free parameters ${s.p}, degrees of freedom ${s.dof}; ${s.iterations} iterations, ${s.evaluations} evaluations`);
-  L.push(`Weighted SSR ${g(s.ssr)}; residual std dev ${g(s.residualStdDev)} (in units of sigma); AICc ${g(s.aicc, 6)}; BIC ${g(s.bic, 6)}`);
+  L.push(`Weighted SSR ${g(s.ssr)}; residual std dev ${g(s.residualStdDev)} (in units of sigma); AICc ${criterionText(s.aicc)}; BIC ${criterionText(s.bic)}`);
   const weights = sf.data.weightsOnly?.length ? ` (error model ${sf.data.weightsOnly.join(', ')} gives relative weights only)` : '';
   L.push(`Covariance: ${s.covarianceBasis === 'known-sigma' ? "(J'J)^-1, measurement sigma taken as known; chi-square test of the fit" : `s^2 (J'J)^-1, sigma scale estimated from the residuals${weights}`}`);
   if (s.chiSquarePValue !== null) L.push(`Chi-square: ${g(s.chiSquare)} on ${s.dof} dof, p = ${g(s.chiSquarePValue, 3)} (misfit below p = ${DEFAULT_VERDICT_RULES.misfitPValue})`);

@@ -8,6 +8,7 @@
  * chi-square statistics, SSR_s - SSR_l ~ chi2(p_l - p_s), is used instead.
  * Fits that did not converge are listed last and take no part in weights or the verdict.
  */
+import { criterionDeltaText, criterionText } from '../core/criterion.js';
 import { RateloomError } from '../core/errors.js';
 import type { Warning } from '../core/outcome.js';
 import { chiSquareCdf, fSurvival } from './distributions.js';
@@ -43,7 +44,9 @@ export interface RankedModel {
   dof: number;
   aicc: number | null;
   bic: number;
-  /** Criterion minus the best model's; null for non-converged fits. */
+  /** The value of the ranking criterion (AICc, or AIC when AICc is undefined for some model); null for non-converged fits. */
+  criterion: number | null;
+  /** Criterion minus the best model's; null for non-converged fits. Print it with criterionDeltaText (src/core/criterion.ts). */
   delta: number | null;
   /** Akaike weight; null for non-converged fits. */
   akaikeWeight: number | null;
@@ -118,6 +121,7 @@ export function compareModels(rivals: readonly RivalFit[], options: CompareOptio
     dof: r.fit.statistics.dof,
     aicc: r.fit.statistics.aicc,
     bic: r.fit.statistics.bic,
+    criterion: conv ? crit(r) : null,
     delta,
     akaikeWeight: w,
   });
@@ -191,7 +195,7 @@ function verdictText(ranking: RankedModel[], tied: string[], tests: NestedTest[]
   }
   const weaker = conv.filter((m) => !tied.includes(m.name));
   if (weaker.length) {
-    parts.push(`Less supported: ${weaker.map((m) => `${m.name} (delta ${label} ${(m.delta as number).toFixed(1)})`).join(', ')}.`);
+    parts.push(`Less supported: ${weaker.map((m) => `${m.name} (${label} ${criterionText(m.criterion)}, ${criterionDeltaText(m.criterion, best.criterion)} above ${best.name}'s ${criterionText(best.criterion)})`).join(', ')}.`);
   }
   for (const t of tests) {
     parts.push(

@@ -4,6 +4,7 @@
  * rival models, observations. Sections of the sizing report: summary, cautions (always, up front),
  * warnings, size cards, outlet and design tables, charts, sensitivity. Charts arrive rendered.
  */
+import { criterionDeltaText, criterionText } from '../core/criterion.js';
 import { escapeHtml, formatNumber, formatUnit, paToKPa } from './format.js';
 import {
   cautionsBlock,
@@ -95,8 +96,8 @@ function statisticsTable(data: FitReportData): string {
     ['Degrees of freedom n − p', countCell(s.dof, 'dof')],
     ['Sum of squared residuals', numCell(s.ssr, s.ssrUnit ?? '1')],
     ['Residual standard deviation', numCell(s.residualStdDev, s.residualUnit ?? '1')],
-    ['AICc', numCell(s.aicc, '1', 5)],
-    ['BIC', numCell(s.bic, '1', 5)],
+    ['AICc', criterionCell(criterionText(s.aicc))],
+    ['BIC', criterionCell(criterionText(s.bic))],
     ['Covariance basis', textCell(s.covarianceBasis)],
   ];
   const lof = s.lackOfFit;
@@ -113,6 +114,11 @@ function statisticsTable(data: FitReportData): string {
   return keyValueTable(rows);
 }
 
+/** A criterion cell: the printed text of src/core/criterion.ts, unit 1. */
+function criterionCell(text: string): string {
+  return text === 'n/a' ? '<td class="na">n/a</td>' : `<td class="num">${escapeHtml(text)}${unitSpan('1')}</td>`;
+}
+
 function rivalTable(data: FitReportData): string {
   const models = data.rivalModels ?? [];
   if (models.length === 0) return '<p>No rival models were compared.</p>';
@@ -121,9 +127,9 @@ function rivalTable(data: FitReportData): string {
     `<th scope="row">${escapeHtml(m.name)}</th>`,
     numCell(m.ssr, m.ssrUnit ?? '1'),
     countCell(m.dof, 'dof'),
-    numCell(m.aicc, '1', 5),
-    numCell(Number.isFinite(best) ? m.aicc - best : null, '1', 3),
-    numCell(m.bic, '1', 5),
+    criterionCell(criterionText(m.aicc)),
+    criterionCell(criterionDeltaText(m.aicc, best)),
+    criterionCell(criterionText(m.bic)),
     numCell(m.akaikeWeight, '1', 3),
     textCell(m.verdict),
   ]);

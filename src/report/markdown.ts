@@ -2,6 +2,7 @@
  * Markdown summaries of the fit and sizing reports: the same numbers as the HTML documents in
  * plain tables (every number followed by its unit), without charts.
  */
+import { criterionDeltaText, criterionText } from '../core/criterion.js';
 import { escapeMarkdown as md, formatInterval, formatNumber, formatUnit, NOT_COMPUTED, paToKPa, SIG_VALUE } from './format.js';
 import type { FitReportData, PelletReportData, ReportWarning, SizingReportData, ThermalReportData, TransportReportData } from './types.js';
 
@@ -37,8 +38,8 @@ function statisticsRows(data: FitReportData): string[][] {
     ['Degrees of freedom', q(s.dof, 'dof', 12)],
     ['Sum of squared residuals', q(s.ssr, s.ssrUnit ?? '1')],
     ['Residual standard deviation', q(s.residualStdDev, s.residualUnit ?? '1')],
-    ['AICc', q(s.aicc, '1', 5)],
-    ['BIC', q(s.bic, '1', 5)],
+    ['AICc', `${criterionText(s.aicc)} 1`],
+    ['BIC', `${criterionText(s.bic)} 1`],
     ['Covariance basis', md(s.covarianceBasis)],
   ];
   if (s.lackOfFit) {
@@ -112,9 +113,9 @@ export function renderFitMarkdown(data: FitReportData): string {
           md(m.name),
           q(m.ssr, m.ssrUnit ?? '1'),
           q(m.dof, 'dof', 12),
-          q(m.aicc, '1', 5),
-          q(Number.isFinite(best) ? m.aicc - best : null, '1', 3),
-          q(m.bic, '1', 5),
+          `${criterionText(m.aicc)} 1`,
+          `${criterionDeltaText(m.aicc, best)} 1`,
+          `${criterionText(m.bic)} 1`,
           q(m.akaikeWeight, '1', 3),
           md(m.verdict),
         ]),

@@ -2,6 +2,7 @@
  * Rival-model chart: Akaike weights (AICc-based) as horizontal bars on a fixed 0–1 axis, each
  * labelled with its weight and ΔAICc to the best model, coloured by verdict.
  */
+import { criterionDeltaText } from '../../core/criterion.js';
 import { axisTitle } from '../format.js';
 import { OKABE_ITO } from '../theme.js';
 import type { ChartSpec, RivalModelData } from '../types.js';
@@ -14,12 +15,11 @@ export function rivalCharts(models: RivalModelData[] | undefined, size: ChartSiz
   const best = Math.min(...kept.map((m) => m.aicc));
   const rows = kept
     .map((m) => {
-      const d = m.aicc - best;
       return {
         name: m.name,
         weight: m.akaikeWeight,
         verdict: m.verdict,
-        label: `${m.akaikeWeight.toFixed(3)}  (ΔAICc ${d.toFixed(1)})`,
+        label: `${m.akaikeWeight.toFixed(3)}  (ΔAICc ${criterionDeltaText(m.aicc, best)})`,
       };
     })
     .sort((a, b) => b.weight - a.weight);
