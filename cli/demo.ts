@@ -10,6 +10,7 @@
  * refused unless --force. Files the demo does not write are never touched or deleted.
  * Exit 0 every fit converged and the in-range case was sized, 1 otherwise, 2 bad input.
  */
+import { writeLines } from './stderr-lines.js';
 import type { Command } from 'commander';
 import { existsSync, readdirSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
@@ -393,7 +394,7 @@ Exit codes: 0 all fits converged and the in-range case was sized, 1 otherwise, 2
           outDir: flags.out ?? 'reports/demo',
           force: !!flags.force,
           liquids: flags.liquids !== false,
-          ...(!flags.json && process.stderr.isTTY ? { log: (l: string) => process.stderr.write(`${l}\n`) } : {}),
+          ...(!flags.json && process.stderr.isTTY ? { log: (l: string) => writeLines(process.stderr, l) } : {}),
         });
         const trustworthy = r.fit.converged && r.liquids.every((l) => l.converged) && r.sizing[0]?.success === true;
         const { text, ...json } = r;

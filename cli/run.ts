@@ -5,6 +5,7 @@
 import type { Command, CommanderError } from 'commander';
 import { ERROR_CODES, isRateloomError } from '../src/index.js';
 import { written } from './io.js';
+import { endOpenLine, type LineStream, writeLines, writePartial, writeWrittenList } from './stderr-lines.js';
 
 export const EXIT_OK = 0;
 export const EXIT_UNTRUSTWORTHY = 1;
@@ -41,8 +42,9 @@ export async function runCommand(json: boolean, body: () => Promise<CommandOutpu
     const out = await body();
     if (json) process.stdout.write(toJson(out.json) + '\n');
     else {
+      endOpenLine(process.stderr);
       if (out.text) process.stdout.write(out.text.endsWith('\n') ? out.text : out.text + '\n');
-      if (written.length) process.stderr.write(`wrote:\n${written.map((w) => `  ${w}`).join('\n')}\n`);
+      writeWrittenList(process.stderr, written);
     }
     process.exitCode = out.trustworthy ? EXIT_OK : EXIT_UNTRUSTWORTHY;
   } catch (e) {
@@ -55,18 +57,18 @@ export async function runCommand(json: boolean, body: () => Promise<CommandOutpu
 export function printError(json: boolean, e: unknown): void {
   if (isRateloomError(e)) {
     if (json) process.stdout.write(toJson({ status: 'error', error: e.toJSON() }) + '\n');
-    else process.stderr.write(`error [${e.code}] ${e.message}\n`);
+    else writeLines(process.stderr, `error [${e.code}] ${e.message}`);
   } else {
     const err = e instanceof Error ? e : new Error(String(e));
     const fix = ERROR_CODES.E_INTERNAL;
     if (json) process.stdout.write(toJson({ status: 'error', error: { code: 'E_INTERNAL', message: `${err.message}. Fix: ${fix}`, problem: err.message, fix, path: '' } }) + '\n');
-    else process.stderr.write(`internal error: ${err.stack ?? err.message}\nFix: ${fix}\n`);
+    else writeLines(process.stderr, `internal error: ${err.stack ?? err.message}\nFix: ${fix}`);
   }
 }
 
-/** Progress reporting on stderr, only when attached to a terminal and not in --json mode. */
-export function progressReporter(json: boolean, label: string): ((done: number, total: number) => void) | undefined {
-  if (json || !process.stderr.isTTY) return undefined;
+/** Progress reporting on stderr (or `stream`), only when attached to a terminal and not in --json mode. */
+export function progressReporter(json: boolean, label: string, stream: LineStream = process.stderr): ((done: number, total: number) => void) | undefined {
+  if (json || !stream.isTTY) return undefined;
   let last = -1;
   return (done, total) => {
     const pct = Math.floor((100 * done) / Math.max(total, 1));
@@ -74,8 +76,8 @@ export function progressReporter(json: boolean, label: string): ((done: number, 
     last = pct;
     const width = 30;
     const filled = Math.round((width * pct) / 100);
-    process.stderr.write(`\r${label} [${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${pct}%`);
-    if (done >= total) process.stderr.write('\n');
+    writePartial(stream, `\r${label} [${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${pct}%`);
+    if (done >= total) endOpenLine(stream);
   };
 }
 
@@ -92,7 +94,7 @@ export function configureUsageErrors(program: Command, argv: readonly string[] =
   program.showHelpAfterError(json ? false : `Fix: ${fix}`);
   program.configureOutput({
     writeErr: (s) => {
-      if (!json) process.stderr.write(s);
+      if (!json) writeLines(process.stderr, s);
     },
   });
   program.exitOverride((err: CommanderError) => {
