@@ -8,7 +8,7 @@
 import { formatTransport } from './transport-text.js';
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study, crossCheckStudyFit, shownFitParts, criterionText } from '../src/index.js';
+import { DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study, crossCheckStudyFit, shownFitParts, criterionText, influentialTable } from '../src/index.js';
 import { formatCrossCheck } from './cross-check-text.js';
 import { renderFitFiles } from './report-render.js';
 import { assertWritable, checkStem, writeAll } from './io.js';
@@ -96,18 +96,21 @@ export function formatFit(study: Study, sf: StudyFit): string {
     for (const n of sv.notes) L.push(`  note: ${n}`);
   }
   if (sf.starts) L.push('', ...formatStarts(sf));
-  if (fit.influential.length) {
-    L.push('', 'Influential observations:');
-    for (const o of fit.influential) {
-      const ob = study.observations[o.index];
-      L.push(`  run ${ob.runId} ${ob.response}${ob.species ? ` ${ob.species}` : ''} (${ob.location.file}:${ob.location.line}): ${o.reason}`);
-    }
-  }
+  if (fit.influential.length) L.push('', ...formatInfluential(study, sf));
   if (fit.warnings.length) {
     L.push('', 'Warnings:');
     for (const w of fit.warnings) L.push(`  [${w.code}] ${w.message}`);
   }
   return L.join('\n');
+}
+
+/** The influential observations: the count, then a table of the most extreme few. */
+function formatInfluential(study: Study, sf: StudyFit): string[] {
+  const t = influentialTable(sf.fit, study);
+  const head = t.count > t.rows.length ? `Influential observations: ${t.count}; the ${t.rows.length} with the largest |studentized residual|:` : `Influential observations: ${t.count}:`;
+  const rows = [['run', 'response', 'CSV line', 'studentized residual', "Cook's distance", 'moves the estimates']];
+  for (const r of t.rows) rows.push([r.runId, r.response, r.line, g(r.studentizedResidual, 3), g(r.cooksDistance, 3), r.movesEstimates ? 'yes' : 'little']);
+  return [head, table(rows)];
 }
 
 /** The multistart: every start with its end SSR, status and the minimum it reached. */

@@ -67,6 +67,7 @@ export { estimateStartValues } from './workflow/start-values.js';
 export { derivedQuantities, type DerivedQuantity } from './workflow/derived.js';
 export { driftCheck, type DriftCheck, type ReferenceSeries } from './workflow/drift.js';
 export { fitReportData } from './workflow/fit-report-data.js';
+export { influentialTable } from './workflow/observation-names.js';
 export { shownFitParts, shownParameters, shownDerived, shownObservations, shownQuantity, type ShownQuantity, type ShownParameter, type ShownDerived, type ShownObservation } from './workflow/shown-results.js';
 export { crossCheckStudyFit, crossCheckIntegration, CROSS_CHECK_TOLERANCES, type StudyCrossCheck, type IntegrationCrossCheck } from './workflow/cross-check-study.js';
 export { crossCheckOptimum, sharedDigits, weightedSsr, type OptimumCrossCheck, type EstimateAgreement } from './estimation/cross-check.js';

@@ -108,6 +108,8 @@ export interface InfluentialObservation {
   index: number;
   cooksDistance: number | null;
   studentizedResidual: number | null;
+  /** Cook's distance is above the median of F(p, n - p): dropping it moves the estimates beyond their 50 % region. */
+  movesEstimates: boolean;
   reason: string;
 }
 

@@ -75,7 +75,7 @@ export function findInfluential(
       (cook === null ? '' : moves
         ? `; Cook's distance ${cook.toFixed(3)} > median of F(${p}, ${n - p}) = ${t.cooks.toFixed(3)}: dropping it moves the estimates beyond their 50% confidence region`
         : `; Cook's distance ${cook.toFixed(3)}: dropping it changes the estimates little`);
-    out.push({ index: i, cooksDistance: cook, studentizedResidual: studentized[i], reason });
+    out.push({ index: i, cooksDistance: cook, studentizedResidual: studentized[i], movesEstimates: moves, reason });
   }
   return out;
 }

@@ -67,6 +67,18 @@ function labLines(data: FitReportData): string[] {
 }
 
 /** The fit summary in Markdown. */
+/** The influential observations: the count and a table of the most extreme few (nothing when there are none). */
+function influentialMarkdown(data: FitReportData): string[] {
+  const inf = data.influential;
+  if (!inf || inf.count === 0) return [];
+  const shown = inf.count > inf.rows.length ? `The ${inf.rows.length} with the largest |studentized residual| of ${inf.count}` : `All ${inf.count}`;
+  return [
+    `## Influential observations (${inf.count})`,
+    `${shown}, beyond the Bonferroni bound of the outlier test (a warning only; the verdict does not depend on it).`,
+    mdTable(['Run', 'Response', 'CSV line', 'Studentized residual', "Cook's distance", 'Moves the estimates'], inf.rows.map((r) => [md(r.runId), md(r.response), md(r.line), q(r.studentizedResidual, '1', 3), q(r.cooksDistance, '1', 3), r.movesEstimates ? 'yes' : 'little'])),
+  ];
+}
+
 export function renderFitMarkdown(data: FitReportData): string {
   const level = data.parameters.find((p) => p.ciLevel !== undefined)?.ciLevel;
   const lv = level === undefined ? '' : `${formatNumber(level * 100, 3)} % `;
@@ -102,6 +114,7 @@ export function renderFitMarkdown(data: FitReportData): string {
     if (sv.notes && sv.notes.length) parts.push(sv.notes.map((n) => `- ${md(n)}`).join('\n'));
   }
   parts.push('## Statistics', mdTable(['Quantity', 'Value'], statsRows));
+  parts.push(...influentialMarkdown(data));
   const models = data.rivalModels ?? [];
   if (models.length) {
     const best = Math.min(...models.map((m) => m.aicc).filter(Number.isFinite));

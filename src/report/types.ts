@@ -239,7 +239,9 @@ export interface FitReportData {
   /** Rate laws as readable lines, for example 'r1 = k1 K_A p_A / (1 + K_A p_A)^2'. */
   kinetics?: string[];
   /** Starting values rateloom estimated for parameters the study left open; null or absent when the study gave every value. */
-  startValues?: StartValuesData | null;  /** Lab data and catalyst activity (docs/lab-data.md); null or absent when the study has neither. */
+  startValues?: StartValuesData | null;
+  /** Influential observations: their count and the most extreme few (absent or null when there are none). */
+  influential?: InfluentialTableData | null;  /** Lab data and catalyst activity (docs/lab-data.md); null or absent when the study has neither. */
   lab?: LabReportData | null;
 }
 
@@ -574,4 +576,23 @@ export interface RenderedReport {
   charts: RenderedChart[];
   /** Problems met while drawing (a chart that failed, values dropped as non-finite). */
   warnings: ReportWarning[];
+}
+
+/** One influential observation as a table row. */
+export interface InfluentialRow {
+  runId: string;
+  /** Response and species, for example 'outlet-flow C2H4'. */
+  response: string;
+  /** CSV file and line. */
+  line: string;
+  studentizedResidual: number | null;
+  cooksDistance: number | null;
+  /** Dropping it moves the estimates beyond their 50 % confidence region (Cook's distance above the median of F). */
+  movesEstimates: boolean;
+}
+
+/** The influential observations of a fit: how many, and the most extreme few (by |studentized residual|). */
+export interface InfluentialTableData {
+  count: number;
+  rows: InfluentialRow[];
 }

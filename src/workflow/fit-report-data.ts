@@ -10,6 +10,7 @@ import type { Study } from '../study/types.js';
 import type { StudyFit } from './fit-study.js';
 import { feedRatio, responseLabel, spaceTime } from './labels.js';
 import { labReportData } from './lab-report-data.js';
+import { influentialTable } from './observation-names.js';
 import { VERSION } from '../version.js';
 import { checkArgs, is } from '../core/args.js';
 
@@ -198,6 +199,7 @@ export function fitReportData(study: Study, sf: StudyFit, comparison?: Compariso
     ...(comparison ? { rivalModels: rivals(comparison) } : {}),
     kinetics: sf.model.kinetics.describe().map((d) => `${d.id}: ${d.equation};  r = ${d.text}  [${d.rateUnit}]`),
     startValues: startValues(sf),
+    influential: fit.influential.length ? influentialTable(fit, study) : null,
     ...(lab ? { lab } : {}),
   };
 }

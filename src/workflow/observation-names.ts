@@ -6,11 +6,37 @@
 import type { VerdictReason } from '../core/verdict.js';
 import type { FitResult } from '../estimation/fit-types.js';
 import type { Study } from '../study/types.js';
+import type { InfluentialTableData } from '../report/types.js';
 
-const label = (study: Study, i: number): string => {
-  const o = study.observations[i];
-  return `run ${o.runId} ${o.species ?? ''} ${o.response}${o.position !== undefined ? ` at ${o.position}` : ''} (${o.location.file}:${o.location.line})`.replace(/\s+/g, ' ');
-};
+/** How many influential observations are shown by name (the rest are counted). */
+export const INFLUENTIAL_SHOWN = 5;
+
+/** The influential observations: how many, and the `shown` most extreme by |studentized residual| (the outlier test's statistic). */
+export function influentialTable(fit: Pick<FitResult, 'influential'>, study: Study, shown = INFLUENTIAL_SHOWN): InfluentialTableData {
+  const sorted = [...fit.influential].sort((a, b) => Math.abs(b.studentizedResidual ?? 0) - Math.abs(a.studentizedResidual ?? 0));
+  return {
+    count: fit.influential.length,
+    rows: sorted.slice(0, shown).map((o) => {
+      const ob = study.observations[o.index];
+      return {
+        runId: ob.runId,
+        response: `${ob.response}${ob.species ? ` ${ob.species}` : ''}${ob.position !== undefined ? ` at ${ob.position}` : ''}`,
+        line: `${ob.location.file}:${ob.location.line}`,
+        studentizedResidual: o.studentizedResidual,
+        cooksDistance: o.cooksDistance,
+        movesEstimates: o.movesEstimates,
+      };
+    }),
+  };
+}
+
+/** The influence warning: the count, and the most extreme few by name. */
+function influenceMessage(fit: FitResult, study: Study): string {
+  const t = influentialTable(fit, study);
+  const named = t.rows.map((r) => `run ${r.runId} ${r.response} (${r.line})`).join('; ');
+  const which = t.count > t.rows.length ? `the ${t.rows.length} most extreme of them (largest |studentized residual|)` : t.count > 1 ? 'they are' : 'it is';
+  return `${t.count} influential observation(s) (a studentized residual beyond the Bonferroni bound); ${which}: ${named}. The fit's table of influential observations gives their residuals and Cook's distances.`;
+}
 
 /** Root-mean-square weighted residual per key, largest first. */
 function rmsBy(fit: FitResult, key: (i: number) => string): { key: string; rms: number }[] {
@@ -51,7 +77,7 @@ export function nameObservations(fit: FitResult, study: Study): FitResult {
     if (w.code !== 'influential-observations') return w;
     return {
       ...w,
-      message: `${fit.influential.length} influential observation(s) (Cook's distance above the median of F(p, n-p), or a studentized residual beyond the Bonferroni bound): ${fit.influential.map((o) => label(study, o.index)).join('; ')}`,
+      message: influenceMessage(fit, study),
       path: [...new Set(fit.influential.map((o) => study.observations[o.index].runId))],
     };
   });
