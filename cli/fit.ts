@@ -8,12 +8,12 @@
 import { formatTransport } from './transport-text.js';
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study, crossCheckStudyFit, shownFitParts, criterionText, influentialTable } from '../src/index.js';
+import { DEFAULT_VERDICT_RULES, buildHandoff, type StudyFit, fitStudyParallel, AUTO_RULE_TEXT, type WorkersSetting, fitReportData, type Study, crossCheckStudyFit, shownFitParts, criterionText, influentialTable, studyDisplay, shownValue } from '../src/index.js';
 import { formatCrossCheck } from './cross-check-text.js';
 import { renderFitFiles } from './report-render.js';
 import { assertWritable, checkStem, writeAll } from './io.js';
 import type { OutputFile } from './output.js';
-import { g, table } from './format.js';
+import { g, table, withUnit } from './format.js';
 import { progressReporter, runCommand, toJson } from './run.js';
 import { readStudy, studyStem } from './study-input.js';
 
@@ -54,9 +54,10 @@ export const WORKERS_OPTION = ['--workers <n>', "worker threads: 'auto' or a num
 export function formatFit(study: Study, sf: StudyFit): string {
   const { fit } = sf;
   const s = fit.statistics;
+  const shown = shownFitParts(study, fit, sf.derived);
   const L: string[] = [];
   L.push(`Study: ${study.title ?? study.studyPath}`);
-  const tref = study.referenceTemperatureApplies === false ? '' : `; reference temperature ${g(study.referenceTemperature, 5)} K (${study.referenceTemperatureSource === 'data' ? 'picked from the data' : 'from the study'})`;
+  const tref = study.referenceTemperatureApplies === false ? '' : `; reference temperature ${withUnit(shown.referenceTemperature.value, shown.referenceTemperature.unit, 5)} (${study.referenceTemperatureSource === 'data' ? 'picked from the data' : 'from the study'})`;
   L.push(`Rate-law set: ${sf.variant}${tref}`);
   L.push(`Status: ${fit.status} - ${fit.message}`);
   L.push(`Verdict: ${fit.verdict.trustworthy ? 'trustworthy' : 'NOT TRUSTWORTHY'} (${fit.verdict.status})`);
@@ -73,7 +74,7 @@ export function formatFit(study: Study, sf: StudyFit): string {
   const level = fit.parameters[0]?.ci.level ?? 0.95;
   const pc = `${g(level * 100, 3)}%`;
   const rows = [['parameter', 'value', 'std error', `${pc} linear interval`, `${pc} profile interval`, 'unit', 'note']];
-  for (const p of fit.parameters) {
+  for (const p of shown.parameters) {
     const lin = p.ci.linear ? `[${g(p.ci.linear[0])}, ${g(p.ci.linear[1])}]` : 'n/a';
     const pro = p.ci.profile ? `[${p.ci.profile[0] === null ? 'open' : g(p.ci.profile[0])}, ${p.ci.profile[1] === null ? 'open' : g(p.ci.profile[1])}]` : p.fixed ? '' : 'not computed';
     rows.push([p.name, g(p.value, 5), p.fixed ? 'fixed' : g(p.stdError, 3), p.fixed ? '' : lin, pro, p.unit, p.atBound ? 'at a bound' : '']);
@@ -81,7 +82,7 @@ export function formatFit(study: Study, sf: StudyFit): string {
   L.push('', table(rows));
   if (sf.derived.length) {
     const d = [['derived', 'value', 'std error', `${pc} interval`, 'unit', 'definition']];
-    for (const q of sf.derived) d.push([q.name, g(q.value, 5), g(q.stdError, 3), q.ci.linear ? `[${g(q.ci.linear[0])}, ${g(q.ci.linear[1])}]` : 'n/a', q.unit, q.definition]);
+    for (const q of shown.derived) d.push([q.name, g(q.value, 5), g(q.stdError, 3), q.ci.linear ? `[${g(q.ci.linear[0])}, ${g(q.ci.linear[1])}]` : 'n/a', q.unit, q.definition]);
     L.push('', table(d));
   }
   const c = fit.correlation;
@@ -92,7 +93,12 @@ export function formatFit(study: Study, sf: StudyFit): string {
   if (sf.startValues) {
     const sv = sf.startValues;
     L.push('', `Starting values estimated by rateloom (the study gave none); then ${sf.minima ? `a multistart fit (${sf.minima.reduce((n, m) => n + m.count, 0)} starts converged; change with --starts)` : 'a single fit'}:`);
-    L.push(table([['parameter', 'start', 'unit', 'how'], ...sv.estimated.map((e) => [e.name, g(e.value, 4), e.unit, e.detail])]));
+    const display = studyDisplay(study);
+    const startRow = (e: (typeof sv.estimated)[number]) => {
+      const c = display.parameter(e.name, e.unit);
+      return [e.name, g(shownValue(c, e.value), 4), c.unit, e.detail];
+    };
+    L.push(table([['parameter', 'start', 'unit', 'how'], ...sv.estimated.map(startRow)]));
     for (const n of sv.notes) L.push(`  note: ${n}`);
   }
   if (sf.starts) L.push('', ...formatStarts(sf));

@@ -163,8 +163,8 @@ function observationTable(data: FitReportData): string {
     for (const r of run.responses) {
       rows.push([
         `<th scope="row">${escapeHtml(run.runId)}</th>`,
-        numCell(c.temperature, 'K'),
-        numCell(paToKPa(c.pressure), 'kPa'),
+        numCell(c.temperature, c.temperatureUnit ?? 'K'),
+        c.pressureUnit ? numCell(c.pressure, c.pressureUnit) : numCell(paToKPa(c.pressure), 'kPa'),
         ...(st ? [c.spaceTime ? numCell(c.spaceTime.value, c.spaceTime.unit) : numCell(null, '')] : []),
         ...(fr ? [c.feedRatio ? numCell(c.feedRatio.value, c.feedRatio.unit, 3) : numCell(null, '')] : []),
         textCell(r.response),

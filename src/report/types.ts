@@ -103,10 +103,14 @@ export interface LabelledValue {
 
 /** Operating conditions of one run. */
 export interface RunConditionsData {
-  /** Temperature in K. */
+  /** Temperature in `temperatureUnit` (K when absent). */
   temperature: number;
-  /** Total inlet pressure in Pa (shown in kPa). */
+  /** Unit of `temperature`: that of the study's temperature column, or its displayUnits; default K. */
+  temperatureUnit?: string;
+  /** Total inlet pressure in `pressureUnit` (Pa, shown in kPa, when absent). */
   pressure: number;
+  /** Unit of `pressure`: that of the study's pressure column, or its displayUnits; absent: Pa (shown in kPa). */
+  pressureUnit?: string;
   /** Space time: W/F_A0 (kg s/mol) for packed beds or τ (s) for volume reactors. */
   spaceTime?: LabelledValue | null;
   /** Feed ratio, for example H2/A in mol/mol. */

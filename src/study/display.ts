@@ -82,8 +82,8 @@ export interface StudyDisplay {
   parameter(name: string, siUnit: string): DisplayConversion;
   /** A measured response, in the unit of its column. */
   observation(o: Pick<Observation, 'unit' | 'location'>): DisplayConversion;
-  /** A condition of run `runIndex`, in the unit of its column. */
-  condition(kind: ConditionKind, runIndex: number, siUnit: string): DisplayConversion;
+  /** A condition of run `runIndex`, in the unit of its column (else `fallback`, else SI). */
+  condition(kind: ConditionKind, runIndex: number, siUnit: string, fallback?: string): DisplayConversion;
   /** The reference temperature (SI K). */
   referenceTemperature(): DisplayConversion;
   /** Any other value: SI unit, and the unit the user wrote for it if known. */
@@ -111,7 +111,7 @@ export function studyDisplay(study: Pick<Study, 'display' | 'sources' | 'runs'>)
       const w = src && col !== undefined ? columns(src).get(col) : undefined;
       return conversionFor(o.unit, w, units);
     },
-    condition: (kind, runIndex, siUnit) => conversionFor(siUnit, conditionUnit(sourceOf(study, study.runs[runIndex]?.location.file), kind), units),
+    condition: (kind, runIndex, siUnit, fallback) => conversionFor(siUnit, conditionUnit(sourceOf(study, study.runs[runIndex]?.location.file), kind) ?? fallback, units),
     referenceTemperature: () => conversionFor('K', study.display?.referenceTemperatureUnit, units),
     other: (siUnit, w) => conversionFor(siUnit, w, units),
   };

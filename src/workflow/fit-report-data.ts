@@ -11,6 +11,9 @@ import type { StudyFit } from './fit-study.js';
 import { feedRatio, responseLabel, spaceTime } from './labels.js';
 import { labReportData } from './lab-report-data.js';
 import { influentialTable } from './observation-names.js';
+import { shownDerived, shownParameters } from './shown-results.js';
+import { studyDisplay, type StudyDisplay } from '../study/display.js';
+import { shownDifference, shownValue } from '../units/index.js';
 import { VERSION } from '../version.js';
 import { checkArgs, is } from '../core/args.js';
 
@@ -27,13 +30,13 @@ function covarianceText(sf: StudyFit): string {
   return w.length && basis === 's2-scaled' ? `${text}; error model${w.length > 1 ? 's' : ''} ${w.map((n) => `'${n}'`).join(', ')} give${w.length > 1 ? '' : 's'} relative weights only, so no chi-square test is made` : text;
 }
 
-function parameterRows(sf: StudyFit): ParameterRowData[] {
+function parameterRows(sf: StudyFit, display: StudyDisplay): ParameterRowData[] {
   const flagsFor = new Map<string, string[]>();
   for (const w of sf.fit.warnings) {
     const name = w.path?.find((s) => typeof s === 'string' && sf.fit.parameters.some((p) => p.name === s));
     if (typeof name === 'string') flagsFor.set(name, [...(flagsFor.get(name) ?? []), w.code]);
   }
-  return sf.fit.parameters.map((p) => ({
+  return shownParameters(display, sf.fit.parameters).map((p) => ({
     name: p.name,
     unit: p.unit,
     value: p.value,
@@ -46,7 +49,15 @@ function parameterRows(sf: StudyFit): ParameterRowData[] {
   }));
 }
 
-function runRows(study: Study, sf: StudyFit): RunObservationData[] {
+/** A run's temperature and pressure in the units of their columns (pressure in kPa when no column gives one). */
+function runConditions(study: Study, runIndex: number, display: StudyDisplay): Pick<RunObservationData['conditions'], 'temperature' | 'pressure' | 'temperatureUnit' | 'pressureUnit'> {
+  const run = study.runs[runIndex];
+  const t = display.condition('temperature', runIndex, 'K');
+  const p = display.condition('pressure', runIndex, 'Pa', 'kPa');
+  return { temperature: shownValue(t, run.temperature) as number, temperatureUnit: t.unit, pressure: run.pressure === undefined ? NaN : (shownValue(p, run.pressure) as number), pressureUnit: p.unit };
+}
+
+function runRows(study: Study, sf: StudyFit, display: StudyDisplay): RunObservationData[] {
   const byRun = new Map<number, RunObservationData>();
   for (const o of study.observations) {
     if (o.position !== undefined) continue;
@@ -56,8 +67,7 @@ function runRows(study: Study, sf: StudyFit): RunObservationData[] {
       row = {
         runId: run.id,
         conditions: {
-          temperature: run.temperature,
-          pressure: run.pressure ?? NaN,
+          ...runConditions(study, o.runIndex, display),
           spaceTime: spaceTime(run, study),
           feedRatio: feedRatio(run, study),
         },
@@ -66,15 +76,17 @@ function runRows(study: Study, sf: StudyFit): RunObservationData[] {
       byRun.set(o.runIndex, row);
     }
     const d = sf.fit.observations[o.index];
-    const { label, unit } = responseLabel(o, study);
+    const { label } = responseLabel(o, study);
+    const c = display.observation(o);
+    const unit = c.unit;
     // A run the model could not evaluate at the estimate has no fitted observation: shown as failed.
-    if (!d || !Number.isFinite(d.predicted)) row.responses.push({ response: label, unit, measured: o.value, predicted: null, residual: null, studentized: null });
-    else row.responses.push({ response: label, unit, measured: d.measured, predicted: d.predicted, residual: d.residual, studentized: d.studentizedResidual });
+    if (!d || !Number.isFinite(d.predicted)) row.responses.push({ response: label, unit, measured: shownValue(c, o.value) as number, predicted: null, residual: null, studentized: null });
+    else row.responses.push({ response: label, unit, measured: shownValue(c, d.measured) as number, predicted: shownValue(c, d.predicted), residual: shownDifference(c, d.residual), studentized: d.studentizedResidual });
   }
   return [...byRun.values()];
 }
 
-function profiles(study: Study, sf: StudyFit): RunProfileData[] {
+function profiles(study: Study, sf: StudyFit, display: StudyDisplay): RunProfileData[] {
   const external = Float64Array.from(sf.fit.parameters, (p) => p.value);
   const runs = new Map<number, typeof study.observations>();
   for (const o of study.observations) {
@@ -92,15 +104,18 @@ function profiles(study: Study, sf: StudyFit): RunProfileData[] {
     const kind = obs[0].response;
     const useConc = kind === 'outlet-concentration';
     const species = [...new Set(obs.map((o) => o.speciesIndex ?? -1).filter((j) => j >= 0))];
-    const first = responseLabel(obs[0], study);
+    const cy = display.observation(obs[0]);
+    const cx = display.condition('size', runIndex, prof.unit);
+    const sx = (x: number) => shownValue(cx, x) as number;
+    const sy = (y: number) => shownValue(cy, y) as number;
     out.push({
       runId: run.id,
-      coordinate: { label: prof.coordinate, unit: prof.unit },
-      quantity: { label: useConc ? 'C_j' : study.reactor.kind === 'batch' ? 'N_j' : 'F_j', unit: first.unit },
+      coordinate: { label: prof.coordinate, unit: cx.unit },
+      quantity: { label: useConc ? 'C_j' : study.reactor.kind === 'batch' ? 'N_j' : 'F_j', unit: cy.unit },
       species: species.map((j) => ({
         species: study.chemistry.speciesNames[j],
-        measured: obs.filter((o) => o.speciesIndex === j).map((o) => ({ x: o.position!, y: o.value })),
-        predicted: prof.x.map((x, i) => ({ x, y: (useConc ? prof.concentrations[i] : prof.amounts[i])[j] })),
+        measured: obs.filter((o) => o.speciesIndex === j).map((o) => ({ x: sx(o.position!), y: sy(o.value) })),
+        predicted: prof.x.map((x, i) => ({ x: sx(x), y: sy((useConc ? prof.concentrations[i] : prof.amounts[i])[j]) })),
       })),
     });
   }
@@ -130,11 +145,14 @@ const START_METHOD_TEXT: Record<string, string> = {
   default: 'documented default',
 };
 
-function startValues(sf: StudyFit): StartValuesData | null {
+function startValues(sf: StudyFit, display: StudyDisplay): StartValuesData | null {
   const sv = sf.startValues;
   if (!sv || sv.estimated.length === 0) return null;
   return {
-    rows: sv.estimated.map((e) => ({ parameter: e.name, value: e.value, unit: e.unit, method: START_METHOD_TEXT[e.method] ?? e.method, how: e.detail })),
+    rows: sv.estimated.map((e) => {
+      const c = display.parameter(e.name, e.unit);
+      return { parameter: e.name, value: shownValue(c, e.value) as number, unit: c.unit, method: START_METHOD_TEXT[e.method] ?? e.method, how: e.detail };
+    }),
     points: sv.points,
     notes: [...sv.notes],
   };
@@ -144,6 +162,7 @@ function startValues(sf: StudyFit): StartValuesData | null {
 export function fitReportData(study: Study, sf: StudyFit, comparison?: Comparison): FitReportData {
   checkArgs('fitReportData', [study, sf, comparison], [{ name: 'study', check: is.study }, { name: 'sf', check: is.studyFit }, { name: 'comparison', check: is.optional(is.object) }]);
   const { fit } = sf;
+  const display = studyDisplay(study);
   const lab = labReportData(study, sf);
   const s = fit.statistics;
   const lof = s.lackOfFit;
@@ -156,8 +175,8 @@ export function fitReportData(study: Study, sf: StudyFit, comparison?: Compariso
     message: fit.message,
     warnings: fit.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.path ? { path: w.path } : {}) })),
     parameters: [
-      ...parameterRows(sf),
-      ...sf.derived.map((q) => ({ name: q.name, unit: q.unit, value: q.value, stdError: q.stdError, ciLevel: q.ci.level, linearCI: q.ci.linear, profileCI: null, flags: [`derived = ${q.definition.split(',')[0]}`] })),
+      ...parameterRows(sf, display),
+      ...shownDerived(display, sf.derived).map((q) => ({ name: q.name, unit: q.unit, value: q.value, stdError: q.stdError, ciLevel: q.ci.level, linearCI: q.ci.linear, profileCI: null, flags: [`derived = ${q.definition.split(',')[0]}`] })),
     ],
     correlation: fit.correlation.matrix ? { names: fit.correlation.names, matrix: fit.correlation.matrix } : null,
     statistics: {
@@ -181,24 +200,25 @@ export function fitReportData(study: Study, sf: StudyFit, comparison?: Compariso
           }
         : null,
     },
-    runs: runRows(study, sf),
+    runs: runRows(study, sf, display),
     transport: sf.transport ? transportReportData(sf.transport) : null,
-    profiles: profiles(study, sf),
+    profiles: profiles(study, sf, display),
     likelihoodProfiles: fit.profiles.map((pr) => {
       const p = fit.parameters.find((q) => q.name === pr.name)!;
+      const c = display.parameter(p.name, p.unit);
       return {
         parameter: pr.name,
-        unit: p.unit,
-        estimate: p.value,
+        unit: c.unit,
+        estimate: shownValue(c, p.value) as number,
         objectiveLabel: 'SSR',
         objectiveUnit: '1',
-        points: pr.points.map((pt) => ({ value: pt.value, objective: pt.ssr })),
+        points: pr.points.map((pt) => ({ value: shownValue(c, pt.value) as number, objective: pt.ssr })),
         threshold: pr.threshold,
       };
     }),
     ...(comparison ? { rivalModels: rivals(comparison) } : {}),
     kinetics: sf.model.kinetics.describe().map((d) => `${d.id}: ${d.equation};  r = ${d.text}  [${d.rateUnit}]`),
-    startValues: startValues(sf),
+    startValues: startValues(sf, display),
     influential: fit.influential.length ? influentialTable(fit, study) : null,
     ...(lab ? { lab } : {}),
   };

@@ -10,6 +10,8 @@ import { RateloomError } from '../../src/core/errors';
 import { fitStudy } from '../../src/workflow/fit-study';
 import { shownFitParts } from '../../src/workflow/shown-results';
 import { baseStudy, load } from '../data/helpers';
+import { fitReportData } from '../../src/workflow/fit-report-data';
+import { formatFit } from '../../cli/fit';
 
 const dims = (u: string) => unitDims(u)!;
 
@@ -117,5 +119,38 @@ describe('fit results in the user units with SI beside', () => {
     expect(shown.observations[0].measured).toBeCloseTo(shown.observations[0].measuredSI * 3600, 9);
     const A = shown.derived.find((q) => q.name === 'A(k1)')!;
     expect(A.unit).toBe(k1.unit);
+  });
+});
+
+describe('reports and command text in the user units', () => {
+  const plain = load(baseStudy()).study;
+  const sf = fitStudy(plain, { profile: false });
+  it('the report view model: parameters, run conditions and responses in the units of the study', () => {
+    const data = fitReportData(plain, sf);
+    expect(data.parameters.find((p) => p.name === 'E1')!.unit).toBe('kJ/mol');
+    const run = data.runs[0];
+    // T_C is written in degC; the pressure column is gauge (barg), so kPa absolute is shown
+    expect(run.conditions.temperatureUnit).toBe('degC');
+    expect(run.conditions.temperature + 273.15).toBeCloseTo(plain.runs[0].temperature, 10);
+    expect(run.conditions.pressureUnit).toBe('kPa');
+    expect(run.conditions.pressure * 1000).toBeCloseTo(plain.runs[0].pressure!, 6);
+    expect(run.responses[0].unit).toBe('mmol/min');
+    const o = plain.observations.find((x) => x.runId === run.runId && x.position === undefined)!;
+    expect(run.responses[0].measured).toBeCloseTo((o.value * 60) / 1e-3, 9);
+  });
+  it('displayUnits reach the report and the command text', () => {
+    const s = baseStudy();
+    s.displayUnits = { temperature: 'K', energy: 'kcal/mol', molarFlow: 'mol/h', pressure: 'bar' };
+    const study = load(s).study;
+    const data = fitReportData(study, sf);
+    expect(data.runs[0].conditions.temperatureUnit).toBe('K');
+    expect(data.runs[0].conditions.pressureUnit).toBe('bar');
+    expect(data.runs[0].responses[0].unit).toBe('mol/h');
+    const E1 = data.parameters.find((p) => p.name === 'E1')!;
+    expect(E1.unit).toBe('kcal/mol');
+    const text = formatFit(study, sf);
+    const row = text.split('\n').find((l) => l.startsWith('E1 '))!;
+    expect(row).toContain('kcal/mol');
+    expect(Number(row.split(/\s+/)[1]) * 4184).toBeCloseTo(sf.fit.parameters.find((p) => p.name === 'E1')!.value, -2); // 4 significant digits printed
   });
 });
