@@ -6,7 +6,7 @@
  */
 import { formatPelletSizing } from './pellet-text.js';
 import type { Command } from 'commander';
-import { RateloomError, parseHandoff, kineticsFromHandoff, loadCase, type SizingResult, sizeReactorParallel, AUTO_RULE_TEXT, sizingReportData, type WorkersSetting } from '../src/index.js';
+import { RateloomError, parseHandoff, kineticsFromHandoff, loadCase, type SizingResult, sizeReactorParallel, AUTO_RULE_TEXT, sizingReportData, type WorkersSetting, shownSizing, type ShownSizing } from '../src/index.js';
 import { WORKERS_OPTION } from './fit.js';
 import { assertWritable, readJson, writeAll } from './io.js';
 import type { OutputFile } from './output.js';
@@ -59,7 +59,7 @@ interface SizeFlags {
 const pct = (level: number) => `P${g(level * 100, 3)}`;
 
 /** Human-readable report of a sizing result. */
-export function formatSizing(r: SizingResult): string {
+export function formatSizing(r: SizingResult, shown: ShownSizing = shownSizing(r, undefined)): string {
   const L: string[] = [];
   L.push(`Case: ${r.case} (${r.reactor.kind}, ${r.reactor.phase})`);
   L.push(`Status: ${r.status} - ${r.message}`);
@@ -76,7 +76,10 @@ export function formatSizing(r: SizingResult): string {
     );
   }
   if (r.size) {
-    L.push(`${r.size.quantity[0].toUpperCase()}${r.size.quantity.slice(1)} (nominal fit): ${g(r.size.value, 5)} ${r.size.unit}`);
+    const s = shown.size;
+    const inSI = s && s.unit !== r.size.unit ? ` (${g(r.size.value, 5)} ${r.size.unit})` : '';
+    L.push(`${r.size.quantity[0].toUpperCase()}${r.size.quantity.slice(1)} (nominal fit): ${s ? `${g(s.value, 5)} ${s.unit}` : `${g(r.size.value, 5)} ${r.size.unit}`}${inSI}`);
+    if (s && shown.percentiles?.length && s.unit !== r.size.unit) L.push(`  in ${s.unit}: ${shown.percentiles.map((p) => `${pct(p.level)} ${g(p.value, 5)}`).join(', ')}`);
     if (r.spaceTime) L.push(`Space time ${r.spaceTime.definition}: ${g(r.spaceTime.value, 5)} ${r.spaceTime.unit}`);
   }
   const u = r.uncertainty;
@@ -104,15 +107,19 @@ export function formatSizing(r: SizingResult): string {
         (d ? `; ${d.overAllowed} of ${d.of} parameter sets need more${d.dropAtLevel && P ? ` (${P} of the drops they need: ${g(d.dropAtLevel.bar, 4)} bar)` : ''}` : ''),
     );
   }
-  if (r.pressure) L.push(`Pressure: inlet ${g(r.pressure.inlet / 1e5, 5)} bar, outlet ${g(r.pressure.outlet / 1e5, 5)} bar`);
+  const sp = shown.pressure;
+  if (sp) L.push(`Pressure: inlet ${g(sp.inlet, 5)} ${sp.unit}, outlet ${g(sp.outlet, 5)} ${sp.unit}`);
   if (r.outlet) {
     if (r.outlet.conversion) L.push(`Conversion of ${r.outlet.conversion.species}: ${g(r.outlet.conversion.value, 5)}`);
     const o = r.outlet;
     const band = o.lo && o.hi && o.band;
-    L.push(`Outlet at the nominal size (${o.amountUnit}; mole fraction${band ? `; P5 and P95 over ${o.band!.draws} parameter sets` : ''}):`);
+    const so = shown.outlet;
+    const f = so ? so.amounts[Object.keys(so.amounts)[0]] : undefined;
+    const factor = f && f.valueSI !== 0 ? f.value / f.valueSI : 1;
+    L.push(`Outlet at the nominal size (${so?.unit ?? o.amountUnit}; mole fraction${band ? `; P5 and P95 over ${o.band!.draws} parameter sets` : ''}):`);
     for (const [s, v] of Object.entries(o.amounts)) {
-      const b = band ? `  ${g(o.lo![s], 5).padStart(12)} ${g(o.hi![s], 5).padStart(12)}` : '';
-      L.push(`  ${s.padEnd(10)} ${g(v, 5).padStart(12)}  ${g(o.moleFractions[s], 4).padEnd(8)}${b}`);
+      const b = band ? `  ${g(o.lo![s] * factor, 5).padStart(12)} ${g(o.hi![s] * factor, 5).padStart(12)}` : '';
+      L.push(`  ${s.padEnd(10)} ${g(so ? so.amounts[s].value : v, 5).padStart(12)}  ${g(o.moleFractions[s], 4).padEnd(8)}${b}`);
     }
   }
   if (r.pellet) L.push(...formatPelletSizing(r.pellet, r.size?.value));
@@ -165,13 +172,14 @@ export function registerSize(program: Command): void {
           },
         }, { handoff: handoffRaw, case: caseRaw }, { workers });
         // Everything is rendered first, then written together: a kill or a failure leaves no partial set.
-        const files: OutputFile[] = flags.out ? [{ path: flags.out, content: toJson(result) + '\n' }] : [];
+        const shown = shownSizing(result, kase.display);
+        const files: OutputFile[] = flags.out ? [{ path: flags.out, content: toJson({ ...result, shown }) + '\n' }] : [];
         if (flags.report) files.push(...(await renderSizingFiles(sizingReportData(result), { outDir: flags.report, baseName: reportStem })).files);
         const paths = writeAll(files, { force: !!flags.force });
         const outputs: { result?: string; html?: string; markdown?: string } = {};
         if (flags.out) outputs.result = paths[0];
         if (flags.report) [outputs.html, outputs.markdown] = paths.slice(flags.out ? 1 : 0);
-        return { json: Object.keys(outputs).length ? { ...result, outputs } : result, text: formatSizing(result), trustworthy: result.verdict.trustworthy };
+        return { json: Object.keys(outputs).length ? { ...result, shown, outputs } : { ...result, shown }, text: formatSizing(result, shown), trustworthy: result.verdict.trustworthy };
       });
     });
 }

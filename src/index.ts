@@ -15,6 +15,7 @@ export { makeParameter, toInternal, toExternal, type Parameter, type Transform }
 // Units at the edges.
 export { toSI, fromSI, unitFor, acceptedUnits, siUnit, compoundToSI, checkDisplayUnits, displayUnitFor, displayConversion, shownValue, shownDifference, unitDims, type DisplayUnits, type DisplayConversion } from './units/index.js';
 export { criterionText, criterionDeltaText } from './core/criterion.js';
+export { shownSizing, type ShownSizing, type CaseDisplaySpec } from './design/shown-sizing.js';
 export { studyDisplay, type StudyDisplay, type StudyDisplaySpec } from './study/display.js';
 
 // Chemistry and kinetics.

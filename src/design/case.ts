@@ -23,6 +23,7 @@
  * (the catalyst to install) keeps the pressure drop within tubes.allowedPressureDrop, so only the
  * parameter sets beyond the percentile may need more.
  */
+import { caseDisplaySpec, type CaseDisplaySpec } from './shown-sizing.js';
 import { loadCasePellet, type CasePellet } from './case-pellet.js';
 import { RateloomError, closestName, type FieldPath } from '../core/errors.js';
 import { OPTION_RANGES } from '../core/option-ranges.js';
@@ -61,6 +62,8 @@ export interface TubeSpec {
 /** A loaded production case, all SI. */
 export interface DesignCase {
   name: string;
+  /** The case's displayUnits and the units it wrote, for showing the sizing (shown-sizing.ts). */
+  display?: CaseDisplaySpec;
   reactor: { kind: DesignReactorKind; phase: 'gas' | 'liquid' };
   /** Feed molar flows per species (mol/s), for flow reactors; indexed as `species`. */
   feed: Float64Array;
@@ -172,7 +175,7 @@ function speciesIndex(name: unknown, species: readonly string[], path: FieldPath
   return i;
 }
 
-const TOP = ['name', 'reactor', 'feed', 'temperature', 'pressure', 'target', 'tubes', 'pressureDrop', 'bulkDensity', 'catalystLoading', 'heat', 'uncertainty', 'description', 'pellet'] as const;
+const TOP = ['name', 'reactor', 'feed', 'temperature', 'pressure', 'target', 'tubes', 'pressureDrop', 'bulkDensity', 'catalystLoading', 'heat', 'uncertainty', 'description', 'pellet', 'displayUnits'] as const;
 
 type Reactor = DesignCase['reactor'];
 
@@ -208,6 +211,7 @@ export function loadCase(raw: unknown, species: readonly string[], reactionIds: 
     temperature,
     target,
     uncertainty: { draws: DEFAULT_DRAWS, seed: DEFAULT_SEED, levels: [...DEFAULT_LEVELS], designLevel: DEFAULT_DESIGN_LEVEL },
+    display: caseDisplaySpec(top),
   };
   if (pressure !== undefined) out.pressure = pressure;
   if (inlet.volumetricFlow !== undefined) out.volumetricFlow = inlet.volumetricFlow;

@@ -224,3 +224,16 @@ export function shownValue(c: DisplayConversion, si: number | null): number | nu
 export function shownDifference(c: DisplayConversion, si: number | null): number | null {
   return si === null || !Number.isFinite(si) ? si : si / c.factor;
 }
+
+/** A value in the user's unit with its SI value beside it (the JSON shape of docs/display-units.md). */
+export interface ShownQuantity {
+  value: number | null;
+  unit: string;
+  valueSI: number | null;
+  unitSI: string;
+}
+
+/** A quantity of SI value `si` and SI unit `unitSI` shown through `c`. */
+export function shownQuantity(c: DisplayConversion, si: number | null, unitSI: string): ShownQuantity {
+  return { value: shownValue(c, si), unit: c.unit, valueSI: si, unitSI };
+}

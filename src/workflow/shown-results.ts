@@ -6,18 +6,12 @@
  * from src/study/display.ts; the numbers themselves are the fit's own, converted once here.
  */
 import type { FittedParameter, ObservationDiagnostics, ParameterInterval } from '../estimation/fit-types.js';
-import { shownDifference, shownValue, type DisplayConversion } from '../units/index.js';
+import { shownDifference, shownQuantity, shownValue, type DisplayConversion } from '../units/index.js';
+export { shownQuantity, type ShownQuantity } from '../units/index.js';
 import { studyDisplay, type StudyDisplay } from '../study/display.js';
 import type { Study } from '../study/types.js';
 import type { DerivedQuantity } from './derived.js';
 
-/** A value in the user's unit with its SI value beside it. */
-export interface ShownQuantity {
-  value: number | null;
-  unit: string;
-  valueSI: number | null;
-  unitSI: string;
-}
 
 /** An interval end pair converted; null ends (open profile sides) stay null. */
 function shownPair<T extends number | null>(c: DisplayConversion, pair: readonly [T, T]): [T, T] {
@@ -28,10 +22,6 @@ function shownInterval(c: DisplayConversion, ci: ParameterInterval): ParameterIn
   return { ...ci, linear: ci.linear ? shownPair(c, ci.linear) : null, ...(ci.profile ? { profile: shownPair(c, ci.profile) } : {}) };
 }
 
-/** A quantity of SI value `si` and SI unit `unitSI` shown through `c`. */
-export function shownQuantity(c: DisplayConversion, si: number | null, unitSI: string): ShownQuantity {
-  return { value: shownValue(c, si), unit: c.unit, valueSI: si, unitSI };
-}
 
 /** A fitted parameter as it appears in JSON results: shown values, SI beside. */
 export type ShownParameter = Omit<FittedParameter, 'lower' | 'upper'> & {
