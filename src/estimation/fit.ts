@@ -17,7 +17,7 @@ import type { FitData, FitOptions, FitResult, FittedParameter, ObservationDiagno
 import { findInfluential } from './influence.js';
 import type { LmResult } from './lm.js';
 import type { RegressionModel } from './model.js';
-import { profileParameter } from './profile.js';
+import { profileParameter, profileTangent } from './profile.js';
 import { makeProblem, prepareFit, solveFree, type PreparedFit } from './solve.js';
 import { analyseJacobian, informationCriteria, lackOfFit, nullDirection, observationStats, type JacobianAnalysis } from './statistics.js';
 import type { FitStatus } from './status.js';
@@ -230,7 +230,15 @@ export type ProfileJob = Omit<Parameters<typeof profileParameter>[0], 'prep'>;
 function profileJobs(prep: PreparedFit, fit: FitResult, thetaHat: Float64Array): ProfileJob[] {
   const covInt = fit.covariance.internal;
   if (!profilesApply(fit) || !covInt) return [];
-  return prep.freeIndex.map((j, k) => ({ thetaHat, index: j, ssrMin: fit.statistics.ssr, internalStdError: Math.sqrt(covInt[k][k]), linear: fit.parameters[j].ci.linear }));
+  const free = prep.freeIndex;
+  return free.map((j, k) => ({
+    thetaHat,
+    index: j,
+    ssrMin: fit.statistics.ssr,
+    internalStdError: Math.sqrt(covInt[k][k]),
+    linear: fit.parameters[j].ci.linear,
+    tangent: profileTangent(covInt, free, k, thetaHat.length),
+  }));
 }
 
 /** Build the FitResult from a solver result, profiles included unless withProfile is false. */
