@@ -3,6 +3,8 @@ import { makeParameter } from '../../src/core/parameter';
 import { chiSquareQuantile, fQuantile } from '../../src/estimation/distributions';
 import { fitModel } from '../../src/estimation/fit';
 import type { RegressionModel } from '../../src/estimation/model';
+import { PROFILE_REFIT_FTOL, profileParameter } from '../../src/estimation/profile';
+import { prepareFit } from '../../src/estimation/solve';
 
 const xs = [1, 2, 3, 5, 7, 10];
 const y = Float64Array.from([120, 160, 178, 172, 190, 181]);
@@ -85,5 +87,28 @@ describe('open profile ends', () => {
     expect(pb.ends[1]).toBe('crossed');
     expect(fit.warnings.find((w) => w.code === 'profile-open')?.message).toMatch(/bound/);
     expect(JSON.stringify(fit)).not.toMatch(/NaN/);
+  });
+});
+
+describe('profile warm starts and refit tolerance', () => {
+  it('the predicted warm starts and ftol 1e-8 refits give the intervals of cold ftol 1e-14 refits', () => {
+    // The same profile computed two ways: as fitModel does (tangent from the covariance, secant
+    // predictors, refits at PROFILE_REFIT_FTOL) and the plain way (each refit from the last solution
+    // at ftol 1e-14). The ends must agree far below the 4 significant digits the reports show.
+    const data = { measured: y, sigma: new Float64Array(6).fill(1), sigmaKnown: false };
+    const fit = fitModel(model, [makeParameter({ name: 'a', value: 200 }), makeParameter({ name: 'b', value: 0.5 })], data);
+    expect(fit.success).toBe(true);
+    const prep = prepareFit(model, fit.parameters.map((p) => makeParameter({ name: p.name, value: p.value })), data);
+    const cov = fit.covariance.internal!;
+    for (const [k, pr] of fit.profiles.entries()) {
+      const plain = profileParameter({ prep, thetaHat: prep.thetaFull, index: k, ssrMin: fit.statistics.ssr, internalStdError: Math.sqrt(cov[k][k]), linear: fit.parameters[k].ci.linear, refitFtol: 1e-14 });
+      expect(pr.ends).toEqual(plain.ends);
+      pr.interval.forEach((end, i) => {
+        const ref = plain.interval[i];
+        if (end === null || ref === null) return expect(end).toBe(ref);
+        expect(Math.abs(end - ref) / Math.abs(ref)).toBeLessThan(1e-7);
+      });
+    }
+    expect(PROFILE_REFIT_FTOL).toBe(1e-8);
   });
 });
