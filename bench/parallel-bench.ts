@@ -9,17 +9,19 @@
  * included (it overlaps the first fit). The results must be identical (JSON text compared). CPU
  * time covers all threads: "cores busy" = cpu / wall shows how much of the 2 cores the work got on
  * a shared machine.
- * Run alone: npx tsx bench/parallel-bench.ts [--quick]
+ * The library is the compiled one (dist/, built by `npm run build`, which `npm run bench` runs first),
+ * so the workers load the bundled job modules of dist/bundle/parallel/ as the installed package does.
+ * Run alone: npm run build && npx tsx bench/parallel-bench.ts [--quick]
  */
 import { readFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
-import { loadCase } from '../src/design/case';
-import { parseHandoff } from '../src/design/handoff-load';
-import { kineticsFromHandoff } from '../src/design/kinetics';
-import { sizeReactor } from '../src/design/size';
-import { fitStudyParallel } from '../src/parallel/fit-parallel';
-import { sizeReactorParallel } from '../src/parallel/size-parallel';
-import { fitStudy, type StudyFit } from '../src/workflow/fit-study';
+import { loadCase } from '../dist/src/design/case.js';
+import { parseHandoff } from '../dist/src/design/handoff-load.js';
+import { kineticsFromHandoff } from '../dist/src/design/kinetics.js';
+import { sizeReactor } from '../dist/src/design/size.js';
+import { fitStudyParallel } from '../dist/src/parallel/fit-parallel.js';
+import { sizeReactorParallel } from '../dist/src/parallel/size-parallel.js';
+import { fitStudy, type StudyFit } from '../dist/src/workflow/fit-study.js';
 import { toJson } from '../cli/run';
 import { syntheticStudy } from './synthetic-study';
 

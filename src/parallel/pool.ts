@@ -14,7 +14,9 @@
  * (see bootstrap). A job that throws, or a worker that dies, gives an outcome { ok: false, message } for that job; nothing is thrown.
  * Method: plain work queue (dynamic scheduling, one job in flight per worker).
  */
+import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
+import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { JobOutcome, JobProgress } from '../core/jobs.js';
 
@@ -38,7 +40,20 @@ export function siblingModule(stem: string, base: string): string {
   return new URL(`./${stem}${base.endsWith('.ts') ? '.ts' : '.js'}`, base).href;
 }
 
-const WORKER_URL = siblingModule('worker', import.meta.url);
+/**
+ * The module a worker thread loads for `url`: for a module of the compiled dist/src/parallel/, its
+ * bundled copy in dist/bundle/parallel/ when that exists (scripts/bundle-cli.mjs builds it: one
+ * module and a shared chunk instead of ~250 modules, about 0.15 s less CPU per worker start),
+ * else `url` itself. Only worker threads use the copies; a pool in this thread imports `url`.
+ */
+export function workerModule(url: string): string {
+  const m = /\/dist\/src\/parallel\/([^/]+\.js)$/.exec(url);
+  if (!m) return url;
+  const bundled = new URL(`../../bundle/parallel/${m[1]}`, url);
+  return existsSync(fileURLToPath(bundled)) ? bundled.href : url;
+}
+
+const WORKER_URL = workerModule(siblingModule('worker', import.meta.url));
 
 /**
  * Bootstrap source of a worker. Compiled JavaScript is imported directly; when the worker or the
@@ -128,10 +143,11 @@ export async function startPool<C, J, R>(moduleUrl: string, context: C, options:
     };
   }
   const slots: Slot[] = [];
+  const workerUrl = workerModule(moduleUrl);
   await Promise.all(
     Array.from({ length: nWorkers }, () =>
       new Promise<void>((ready) => {
-        const w = new Worker(bootstrap(moduleUrl), { eval: true, workerData: { moduleUrl, context } });
+        const w = new Worker(bootstrap(workerUrl), { eval: true, workerData: { moduleUrl: workerUrl, context } });
         const slot: Slot = { w, alive: false, current: -1 };
         let started = false;
         w.on('message', (m: { type: 'ready' } | { type: 'result'; index: number; ok: boolean; value?: R; message?: string }) => {

@@ -52,9 +52,11 @@ describe('compiled package', () => {
       expect(serial.every(([, , ci]) => (ci as { profile: unknown }).profile !== null)).toBe(true);
       rmSync(profiles, { recursive: true, force: true });
       expect(fit('2')).toEqual(serial);
-      // one CPU profile per thread: the worker threads ran the compiled job module of dist/src/parallel
+      // one CPU profile per thread: the worker threads ran the bundled job module of dist/bundle/parallel
+      // (pool.ts, workerModule), not the ~250 modules of dist/src
       const threads = readdirSync(profiles).map((f) => readFileSync(join(profiles, f), 'utf8'));
-      expect(threads.filter((t) => t.includes('dist/src/parallel/study-jobs.js')).length).toBe(2);
+      expect(threads.filter((t) => t.includes('dist/bundle/parallel/study-jobs.js')).length).toBe(2);
+      expect(threads.filter((t) => t.includes('dist/src/parallel/study-jobs.js')).length).toBe(0);
     } finally {
       rmSync(out, { recursive: true, force: true });
     }

@@ -32,7 +32,8 @@ describe('npm pack contents', () => {
     for (const f of ['dist/src/index.js', 'dist/src/index.d.ts', 'dist/bundle/main.js', 'bin/rateloom.js', 'cjs/index.cjs', 'schema/study.schema.json', 'datasets-demo/truth.json', 'datasets-demo/pbr/pbr.study.json', 'README.md', 'package.json']) {
       expect(files, f).toContain(f);
     }
-    // the worker threads load the unbundled job modules
+    // the worker threads load the bundled job modules; the unbundled ones stay for the library's own imports
+    for (const f of ['dist/bundle/parallel/worker.js', 'dist/bundle/parallel/study-jobs.js', 'dist/bundle/parallel/mc-jobs.js']) expect(files, f).toContain(f);
     expect(files.filter((f) => f.startsWith('dist/src/parallel/') && f.endsWith('.js')).length).toBeGreaterThan(3);
   });
 
