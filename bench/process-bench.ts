@@ -8,6 +8,8 @@
  *   fit        `rateloom fit <bench study> --no-report --json` (profile intervals on, the default)
  *              vs `python3 bench/scipy_fit.py` (SciPy least_squares + solve_ivp) on the same data,
  *              both as whole processes (interpreter start, imports, reading the data, the fit).
+ *   demo       `rateloom demo` (npm run demo: every fit, sizing and report of the demo data) beside
+ *              `node -e 0`; the target is the issue's absolute 5 s on a 2-core machine.
  */
 import { spawnSync } from 'node:child_process';
 import { median } from 'simple-statistics';
@@ -118,6 +120,23 @@ export function processFitBench(study: Study, reps: number, python: string): { l
       `ratio SciPy / rateloom: ${ratio.toFixed(1)}x wall${rateloom.cpuMs && scipy.cpuMs ? `, ${(scipy.cpuMs / rateloom.cpuMs).toFixed(1)}x cpu` : ''}; max relative difference of the estimates ${maxRel.toExponential(2)}`,
     ];
     return { lines, rateloom, scipy, ratio, maxRel };
+  } finally {
+    rmSync(scratch, { recursive: true, force: true });
+  }
+}
+
+/**
+ * `rateloom demo` as a whole process (check, compare, fit with profiles, three sizings, two liquid
+ * fits, every report), written into a scratch folder; `node -e 0` timed beside it in the same run.
+ */
+export function demoBench(reps: number): { lines: string[]; floor: Timing; demo: Timing } {
+  const scratch = mkdtempSync(join(tmpdir(), 'rateloom-bench-'));
+  try {
+    const [floor, demo] = interleaved([
+      { label: 'node -e 0', argv: [process.execPath, '-e', '0'] },
+      { label: 'rateloom demo', argv: [process.execPath, BIN, 'demo', '--out', join(scratch, 'demo'), '--force', '--json'] },
+    ], reps, scratch);
+    return { lines: [floor, demo].map((t) => `${t.label.padEnd(34)} ${ms(t)}`), floor, demo };
   } finally {
     rmSync(scratch, { recursive: true, force: true });
   }

@@ -35,7 +35,7 @@ import { runParallelBench } from './parallel-bench';
 import { runPelletSizing } from './pellet-sizing';
 import { runHeatSizing } from './heat-sizing';
 import { checkJacobian } from '../src/estimation/jacobian-check';
-import { processFitBench, scipyPython, startupBench } from './process-bench';
+import { demoBench, processFitBench, scipyPython, startupBench } from './process-bench';
 import { runPlanningBench } from './planning-bench';
 
 const quick = process.argv.includes('--quick');
@@ -215,6 +215,11 @@ if (processFit) {
   console.log('  no python3 with scipy: the fit pair is skipped');
 }
 
+const demoRun = demoBench(quick ? 1 : 3);
+console.log('  rateloom demo, whole process (all fits, sizings and reports):');
+for (const l of demoRun.lines) console.log(`  ${l}`);
+report.demo = { demoMs: demoRun.demo.wallMs, demoCpuMs: demoRun.demo.cpuMs, nodeMs: demoRun.floor.wallMs };
+
 // ---------------------------------------------------------------- (l) run planning
 section('(l) planning 8 lab runs for the demo packed bed against one fit of the same study');
 const planBench = runPlanningBench(quick ? 1 : 3);
@@ -249,6 +254,7 @@ target('10,000 Monte Carlo draws < 10 s', draws === 10000 && mc.drawsMs < 10000,
 target('sizing with a numerically solved pellet within 20x of sizing without pellets', pel.ratio <= 20, `${pel.ratio.toFixed(1)}x (${fmt(pel.pelletMs)} vs ${fmt(pel.plainMs)}, ${pel.pelletSolves} pellet solves)`);
 target('one non-isothermal packed-bed solve within 4x of the isothermal solve', heat.ratio <= 4, `${heat.ratio.toFixed(2)}x (${heat.thermalMs.toFixed(3)} vs ${heat.isothermalMs.toFixed(3)} ms)`);
 target('10,000 Monte Carlo draws with the energy balance < 20 s', heat.draws === 10000 && heat.drawsMs < 20000, `${fmt(heat.drawsMs)} for ${heat.draws} draws`);
+target('rateloom demo (npm run demo) <= 5 s (whole process, wall)', demoRun.demo.wallMs <= 5000, `${fmt(demoRun.demo.wallMs)} wall${demoRun.demo.cpuMs === null ? '' : `, ${fmt(demoRun.demo.cpuMs)} cpu`}`);
 const startRatio = (t: typeof startup.check) => t.wallMs / startup.floor.wallMs;
 target('rateloom --version at most 2x node -e 0 (whole process, wall)', startRatio(startup.version) <= 2, `${startRatio(startup.version).toFixed(2)}x (${fmt(startup.version.wallMs)} vs ${fmt(startup.floor.wallMs)})`);
 target('rateloom check <demo> at most 2x node -e 0 (whole process, wall)', startRatio(startup.check) <= 2, `${startRatio(startup.check).toFixed(2)}x (${fmt(startup.check.wallMs)} vs ${fmt(startup.floor.wallMs)})`);
