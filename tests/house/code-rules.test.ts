@@ -11,7 +11,6 @@ const ALLOWED_LONG: ReadonlyMap<string, number> = new Map([
   ['src/estimation/lm.ts:levenbergMarquardt', 180],
   ['src/numerics/newton.ts:newton', 174],
   ['src/reactors/ode-driver.ts:runOde', 124],
-  ['src/estimation/profile.ts:profileParameter', 116],
   ['src/numerics/rosenbrock.ts:step', 112],
   ['src/estimation/card-lm.ts:cardLevenbergMarquardt', 109],
   ['src/numerics/dopri5.ts:step', 106],
