@@ -174,7 +174,7 @@ export function registerSize(program: Command): void {
         // Everything is rendered first, then written together: a kill or a failure leaves no partial set.
         const shown = shownSizing(result, kase.display);
         const files: OutputFile[] = flags.out ? [{ path: flags.out, content: toJson({ ...result, shown }) + '\n' }] : [];
-        if (flags.report) files.push(...(await renderSizingFiles(sizingReportData(result), { outDir: flags.report, baseName: reportStem })).files);
+        if (flags.report) files.push(...(await renderSizingFiles(sizingReportData(result, shown), { outDir: flags.report, baseName: reportStem })).files);
         const paths = writeAll(files, { force: !!flags.force });
         const outputs: { result?: string; html?: string; markdown?: string } = {};
         if (flags.out) outputs.result = paths[0];

@@ -104,7 +104,7 @@ export function studyDisplay(study: Pick<Study, 'display' | 'sources' | 'runs'>)
   const columns = (src: AnySourceSpec) => columnCache.get(src) ?? columnCache.set(src, columnUnits(src)).get(src)!;
   return {
     units,
-    parameter: (name, siUnit) => conversionFor(siUnit, written[baseParameterName(name)], units),
+    parameter: (name, siUnit) => conversionFor(siUnit, written[baseParameterName(name)] ?? written[name.replace(/_0$/, '')], units),
     observation: (o) => {
       const src = sourceOf(study, o.location.file);
       const col = o.location.column;

@@ -2,6 +2,8 @@
  * From a sizing result (design/size.ts) to the sizing report's view model (report/types.ts).
  * Only reshapes numbers; the cautions are passed through unchanged, always.
  */
+import type { ShownSizing } from '../design/shown-sizing.js';
+import { displayConversion, shownValue } from '../units/index.js';
 import type { SizingResult } from '../design/size.js';
 import type { SizingReportData } from '../report/types.js';
 import { VERSION } from '../version.js';
@@ -18,9 +20,17 @@ function targetText(r: SizingResult): SizingReportData['target'] {
 const percentile = (r: SizingResult, level: number): number =>
   r.uncertainty?.percentiles.find((p) => Math.abs(p.level - level) < 1e-9)?.value ?? NaN;
 
-export function sizingReportData(r: SizingResult): SizingReportData {
-  checkArgs('sizingReportData', [r], [{ name: 'r', check: is.sizingResult }]);
+/**
+ * The sizing report's view model. With `shown` (design/shown-sizing.ts) the size, its percentiles
+ * and the outlet amounts are in the case's units; otherwise SI.
+ */
+export function sizingReportData(r: SizingResult, shown?: ShownSizing): SizingReportData {
+  checkArgs('sizingReportData', [r, shown], [{ name: 'r', check: is.sizingResult }, { name: 'shown', check: is.optional(is.object) }]);
   const u = r.uncertainty;
+  const cs = shown?.size ? displayConversion(shown.size.unit) : undefined;
+  const sz = (x: number | null) => (cs ? shownValue(cs, x) : x);
+  const co = shown?.outlet ? displayConversion(shown.outlet.unit) : undefined;
+  const out = (x: number | null) => (co ? shownValue(co, x) : x);
   const sizeQuantity = r.size?.quantity ?? (u?.quantity === 'conversion' ? 'conversion' : 'size');
   const rating = r.target.kind === 'size';
   return {
@@ -34,19 +44,19 @@ export function sizingReportData(r: SizingResult): SizingReportData {
     target: targetText(r),
     size: {
       label: rating ? `conversion of the key species` : sizeQuantity,
-      unit: rating ? '1' : (r.size?.unit ?? '1'),
-      median: u ? u.median : NaN,
-      p90: percentile(r, 0.9),
-      p95: percentile(r, 0.95),
-      nominal: rating ? (r.outlet?.conversion?.value ?? null) : (r.size?.value ?? null),
+      unit: rating ? '1' : (shown?.size?.unit ?? r.size?.unit ?? '1'),
+      median: u ? (rating ? u.median : (sz(u.median) as number)) : NaN,
+      p90: rating ? percentile(r, 0.9) : (sz(percentile(r, 0.9)) as number),
+      p95: rating ? percentile(r, 0.95) : (sz(percentile(r, 0.95)) as number),
+      nominal: rating ? (r.outlet?.conversion?.value ?? null) : sz(r.size?.value ?? null),
     },
     reactor: `${r.reactor.kind.replace('-', ' ')}, ${r.reactor.phase} phase, ${r.thermal ? `${r.thermal.mode} energy balance (one-dimensional pseudo-homogeneous)` : 'isothermal'}`,
     outlet: r.outlet
       ? Object.entries(r.outlet.amounts).map(([species, value]) => ({
           species,
-          value,
-          unit: r.outlet!.amountUnit,
-          ...(r.outlet!.lo && r.outlet!.hi ? { lo: r.outlet!.lo[species] ?? null, hi: r.outlet!.hi[species] ?? null } : {}),
+          value: out(value) as number,
+          unit: shown?.outlet?.unit ?? r.outlet!.amountUnit,
+          ...(r.outlet!.lo && r.outlet!.hi ? { lo: out(r.outlet!.lo[species] ?? null), hi: out(r.outlet!.hi[species] ?? null) } : {}),
         }))
       : [],
     pressureDrop: r.pressure ? { value: r.pressure.drop, fractionOfInlet: r.pressure.drop / r.pressure.inlet } : null,

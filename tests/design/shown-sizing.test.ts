@@ -10,6 +10,7 @@ import { kineticsFromHandoff } from '../../src/design/kinetics';
 import { sizeReactor } from '../../src/design/size';
 import { shownSizing } from '../../src/design/shown-sizing';
 import { formatSizing } from '../../cli/size';
+import { sizingReportData } from '../../src/workflow/sizing-report-data';
 import { tubeBundleCase, tubeBundleHandoff } from './handoff-fixture';
 
 const h = tubeBundleHandoff();
@@ -42,6 +43,10 @@ describe('sizing in the case units', () => {
     expect(s.pressure!.unit).toBe('kPa');
     expect(s.pressure!.inlet).toBeCloseTo(500, 9);
     expect(formatSizing(r, s)).toMatch(/Catalyst mass \(nominal fit\): [\d.e+-]+ t \([\d.e+-]+ kg\)/);
+    const report = sizingReportData(r, s);
+    expect(report.size.unit).toBe('t');
+    expect(report.size.nominal! * 1e3).toBeCloseTo(r.size!.value, 9);
+    expect(report.outlet[0].unit).toBe('mol/s');
   });
   it('bad displayUnits in a case: E_UNKNOWN_FIELD and E_UNIT with the field path', () => {
     const bad = (d: unknown) => () => loadCase(tubeBundleCase('x', '470 K', { displayUnits: d }), SPECIES, ['r1']);
