@@ -21,8 +21,7 @@ import type { DesignCase } from './case.js';
 import type { CasePellet } from './case-pellet.js';
 import { buildSystem, type DesignSystem, type RateHook } from './system.js';
 import { Sizer } from './sizer.js';
-import { Marcher } from './march.js';
-import type { OdeEvent } from '../numerics/ode-types.js';
+import { learnEtaTable } from './pellet-learn.js';
 import { GAS_CONSTANT, STANDARD_ATMOSPHERE } from '../core/constants.js';
 
 /** The pellet scaled to another diameter (all lengths in proportion). */
@@ -147,23 +146,29 @@ function learnUpTo(kase: DesignCase): number {
   return kase.target.kind === 'conversion' ? Math.min(0.995, kase.target.value + 0.05) : 0.99;
 }
 
+/** Tables kept per hook for recently seen (alpha, parameters) pairs. */
+const TABLES_KEPT = 8;
+
 /**
- * The rate hook: rates times eta from the table. The table is filled by a learning pass, an
- * integration of the bed with the current parameters (those of the bound system) at the current
- * pressure-drop parameter, in which the pellet is solved wherever the table cannot interpolate
- * within `etaStep`; afterwards the sizing with those parameters only interpolates. The table is
- * thus a function of the case, the parameters and alpha alone, so serial and worker Monte Carlo
- * paths see the same numbers. A new alpha (another tube count) or a new parameter vector (another
- * draw) starts a new pass; both are looked at when a march starts (t = 0) or outside a march (rates
- * at a state, t NaN), never at the later steps of a march.
+ * The rate hook: rates times eta from the table. The table is filled by a learning pass
+ * (pellet-learn.ts), an integration of the bed with the current parameters (those of the bound
+ * system) at the current pressure-drop parameter that solves the pellet at the end of each
+ * error-controlled conversion segment; afterwards the sizing with those parameters only
+ * interpolates. The learning pass starts from flat pellet profiles and depends on nothing but the
+ * case, the parameters and alpha, so serial and worker Monte Carlo paths see the same numbers, and
+ * the last TABLES_KEPT tables are kept by (alpha, parameters) and reused when a pair comes back
+ * (the tube search's final count, the nominal parameters after a gradient step). A new alpha
+ * (another tube count) or a new parameter vector (another draw) is looked at when a march starts
+ * (t = 0) or outside a march (rates at a state, t NaN), never at the later steps of a march.
  */
 export class PelletRateHook implements RateHook {
-  readonly table: EtaTable;
+  table: EtaTable;
   readonly evaluator: EffectivenessEvaluator;
   private readonly eta: Float64Array;
   private readonly theta: Float64Array;
   private alpha = NaN;
   private learning = false;
+  private readonly kept = new Map<string, { table: EtaTable; direct: boolean }>();
   /**
    * Solve the pellet at every call instead of reading the table: set when the table holds an eta
    * above DIRECT_ABOVE (a reaction whose surface rate nearly vanishes, such as a product that
@@ -175,8 +180,10 @@ export class PelletRateHook implements RateHook {
   /** Pellet solves that did not converge (their eta is still used). */
   failures = 0;
   lastFailure?: string;
+  /** Learning passes run (a kept table reused is not counted). */
+  learnings = 0;
 
-  constructor(readonly model: PelletModel, private readonly kase: DesignCase, theta: ArrayLike<number>, private readonly key: number, private readonly inlet: number, step: number) {
+  constructor(readonly model: PelletModel, private readonly kase: DesignCase, theta: ArrayLike<number>, private readonly key: number, private readonly inlet: number, private readonly step: number) {
     this.theta = Float64Array.from(theta);
     this.evaluator = new EffectivenessEvaluator(model, this.theta);
     this.table = new EtaTable(model.kinetics.reactionIds.length, step);
@@ -206,42 +213,66 @@ export class PelletRateHook implements RateHook {
     return false;
   }
 
-  /** Fill the table for pressure-drop parameter alpha by integrating the bed with the table's parameters. */
+  /** The table for pressure-drop parameter alpha and the table's parameters: a kept one, or learned now. */
   learn(alpha: number): void {
-    this.table.clear();
     this.alpha = alpha;
+    const id = `${alpha}|${this.theta.join(',')}`;
+    const kept = this.kept.get(id);
+    if (kept) {
+      this.table = kept.table;
+      this.direct = kept.direct;
+      return;
+    }
+    this.table = new EtaTable(this.model.kinetics.reactionIds.length, this.step);
+    this.evaluator.clearWarmStart();
     this.learning = true;
     try {
-      const sys = buildSystem(this.model.kinetics, this.kase, this.theta, this);
-      sys.alpha = alpha;
-      const sizer = new Sizer(sys);
-      const est = sizer.initialEstimate();
-      const end = learnUpTo(this.kase);
-      if (Number.isFinite(est) && est > 0) {
-        const events: OdeEvent[] = [{ name: 'end', g: (_t, y) => this.progress(y) - end, direction: 1, terminal: true }];
-        if (sys.hasPressure) events.push({ name: 'pressure', g: (_t, y) => y[sys.nS], direction: -1, terminal: true });
-        new Marcher(sys.dim).integrate(sys.rhs, 0, sys.y0, est * 1e6, { rtol: 1e-8, events });
-      }
+      this.learnPass(alpha);
     } finally {
       this.learning = false;
     }
+    this.learnings++;
     this.direct = this.table.entries().some((e) => needsDirect(e.values));
+    if (this.kept.size >= TABLES_KEPT) this.kept.delete(this.kept.keys().next().value as string);
+    this.kept.set(id, { table: this.table, direct: this.direct });
+  }
+
+  /** Integrate the bed with the table's parameters at alpha, solving the pellet segment by segment. */
+  private learnPass(alpha: number): void {
+    const sys = buildSystem(this.model.kinetics, this.kase, this.theta, this);
+    sys.alpha = alpha;
+    const C = new Float64Array(sys.nS);
+    learnEtaTable({
+      sys,
+      table: this.table,
+      progress: (y) => this.progress(y),
+      solveAt: (_t, y) => {
+        const eta = new Float64Array(this.eta.length);
+        sys.concentrations(y, C);
+        solvePellet(this.evaluator, C, this.kase.temperature, eta, this);
+        return eta;
+      },
+      end: learnUpTo(this.kase),
+      maxStep: this.step,
+      sizeLimit: () => {
+        const est = new Sizer(sys).initialEstimate();
+        return Number.isFinite(est) && est > 0 ? est * 1e6 : 0;
+      },
+    });
   }
 
   apply(t: number, y: Float64Array, C: Float64Array, T: number, r: Float64Array): void {
     const eta = this.eta;
     const x = this.progress(y);
     if (this.learning) {
-      if (!this.table.lookup(x, eta)) {
-        solvePellet(this.evaluator, C, T, eta, this);
-        this.table.insert(x, eta, t);
-      }
+      this.table.predict(x, eta);
     } else {
       // The parameters and alpha change only between marches: look at them where a march starts
       // (t = 0, its first evaluation) or outside one (t NaN: ratesAt), not at every step.
       if (!(t > 0)) {
         const alpha = this.sys ? this.sys.alpha : 0;
         if (this.thetaMoved() || alpha !== this.alpha) this.learn(alpha);
+        if (this.direct) this.evaluator.clearWarmStart();
       }
       if (this.direct) eta.set(this.evaluator.evaluate(C, T).factor);
       else if (!this.table.interpolate(x, eta)) eta.fill(1);

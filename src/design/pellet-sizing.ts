@@ -143,12 +143,15 @@ function tradeOffRow(input: PelletSizingInput, d: number): TradeOffRow {
   const p = scaledPellet(cp.pellet, d);
   const geo = pelletGeometry(p);
   const k2: DesignCase = kase.tubes ? { ...kase, tubes: { ...kase.tubes, particleDiameter: (kase.tubes.particleDiameter * d) / cp.pellet.diameter } } : kase;
-  const { sys, hook } = systemWithPellet(kinetics, k2, theta, cp, species, p);
+  // The plant pellet's own row reuses the sized system, whose hook keeps the table of this alpha.
+  const { sys, hook } = d === cp.pellet.diameter ? { sys: input.sys, hook: input.hook } : systemWithPellet(kinetics, k2, theta, cp, species, p);
+  const alpha0 = sys.alpha;
   if (k2.tubes && tubeCount !== undefined && molarMasses) sys.alpha = bundleAlpha(sys, molarMasses, tubeCount).alpha;
   const C = new Float64Array(sys.nS);
   sys.concentrations(sys.y0, C);
   const etaInlet = hook.evaluator.evaluate(C, kase.temperature).factor[0];
   const r = new Sizer(sys).size();
+  sys.alpha = alpha0;
   const drop = r.status === 'sized' && sys.hasPressure && kase.pressure !== undefined ? kase.pressure * (1 - Math.sqrt(Math.max(r.y[sys.nS], 0))) : null;
   return {
     diameter: d,

@@ -108,6 +108,24 @@ export class EtaTable {
     return true;
   }
 
+  /**
+   * Prediction at x from the last (up to) three entries by Lagrange extrapolation (quadratic with
+   * three entries, linear with two, the value itself with one): the predictor of a learning pass
+   * that marches past the last entry. False when empty.
+   */
+  predict(x: number, out: Float64Array): boolean {
+    const n = this.xs.length;
+    if (n === 0) return false;
+    const i0 = Math.max(0, n - 3);
+    out.fill(0);
+    for (let a = i0; a < n; a++) {
+      let w = 1;
+      for (let b = i0; b < n; b++) if (b !== a) w *= (x - this.xs[b]) / (this.xs[a] - this.xs[b]);
+      for (let q = 0; q < this.nR; q++) out[q] += w * this.rows[a][q];
+    }
+    return true;
+  }
+
   /** Store values at progress x (computed at size coordinate t). */
   insert(x: number, values: Float64Array, t: number): void {
     const k = this.lowerBound(x);

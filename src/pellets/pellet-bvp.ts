@@ -53,6 +53,12 @@ export interface PelletSolveOptions {
   maxIterations?: number;
   /** Keep the profile at the collocation points; default false. */
   profile?: boolean;
+  /**
+   * Start Newton from the previous converged profile of this solver (scaled to the new surface
+   * state) when it has the same points and unknowns; default false. The caller clears it
+   * (`clearWarmStart`) where a pass must not depend on what was solved before.
+   */
+  warmStart?: boolean;
 }
 
 export interface PelletSolution extends Outcome<PelletStatus> {
@@ -76,10 +82,15 @@ function grid(N: number, a: number): CollocationGrid {
   return g;
 }
 
-/** Collocation intervals for a surface Thiele modulus phi (steeper profiles need more points). */
+/**
+ * Collocation intervals for a linearised Thiele modulus phi (PelletSolver.gridModulus; steeper
+ * profiles need more points): N = ceil(8 + phi/2), from 8 to 120. Measured against the first-order closed forms (all
+ * three shapes) and a 160-point solve of second-order pellets, for phi from 0.5 to 212: relative
+ * error of eta below 1e-8 (tests/pellets/eta.test.ts checks it against the closed forms).
+ */
 export function nodesFor(phi: number): number {
-  const n = Math.ceil(10 + 1.1 * (Number.isFinite(phi) ? phi : 200));
-  return Math.min(120, Math.max(12, n));
+  const n = Math.ceil(8 + 0.5 * (Number.isFinite(phi) ? phi : 224));
+  return Math.min(120, Math.max(8, n));
 }
 
 /** The pellet problem bound to one parameter vector; solve it for many surface states. */
@@ -97,6 +108,12 @@ export class PelletSolver {
   /** Full concentration vector at a point (passive species at their surface value). */
   private readonly Cpt: Float64Array;
   private fixedT = 0;
+  /** Per component c and reaction i: coefficient times the balance's scale R^2/D (current solve). */
+  private cs: Float64Array = new Float64Array(0);
+  /** Newton workspaces, reallocated when the number of unknowns changes. */
+  private ws?: NewtonWorkspace;
+  /** The last converged profile relative to its surface state (warm start), with its grid and unknowns. */
+  private warm?: { N: number; act: string; ratio: Float64Array };
 
   constructor(readonly problem: PelletProblem, readonly theta: Float64Array) {
     const k = problem.kinetics;
@@ -124,6 +141,21 @@ export class PelletSolver {
   }
 
   /**
+   * The modulus that sets the number of points: the largest linearised modulus at the surface state
+   * scaled by 1, 1/4 and 1/20. Inside the pellet the concentrations fall, and a saturating rate
+   * (Langmuir-Hinshelwood) or an order below one is steepest there, not at the surface.
+   */
+  private gridModulus(Cs: Float64Array, Ts: number): number {
+    let phi = this.surfaceModulus(Cs, Ts);
+    const C = this.Cpt;
+    for (const f of [0.25, 0.05]) {
+      for (let j = 0; j < this.nS; j++) C[j] = f * Cs[j];
+      phi = Math.max(phi, this.surfaceModulus(C, Ts));
+    }
+    return phi;
+  }
+
+  /**
    * Species some rate depends on: a non-zero d r_i / d C_j at the surface state or at two other
    * positive states. The rest (inerts, products no rate contains) cannot change eta and are not
    * solved for; the profile reports them at their surface value.
@@ -145,15 +177,64 @@ export class PelletSolver {
 
   /** Solve for surface concentrations Cs (mol/m3) and temperature Ts (K). */
   solve(Cs: Float64Array, Ts: number, options: PelletSolveOptions = {}): PelletSolution {
-    const N = options.nodes ?? nodesFor(this.surfaceModulus(Cs, Ts));
+    const N = options.nodes ?? nodesFor(this.gridModulus(Cs, Ts));
     const g = grid(N, this.problem.a);
     this.act = this.activeSpecies(Cs, Ts);
     this.m = this.act.length + (this.thermalIndex ? 1 : 0);
     this.fixedT = Ts;
     this.Cpt.set(Cs);
-    const z = this.initial(N, Cs, Ts);
-    const res = this.m === 0 ? { status: 'converged' as const, iterations: 0 } : this.newton(g, z, Cs, Ts, options.maxIterations ?? 60);
+    this.cs = this.coefficients();
+    const maxIt = options.maxIterations ?? 60;
+    let z = this.initial(N, Cs, Ts);
+    const warm = options.warmStart === true && this.warmGuess(N, Cs, Ts, z);
+    let res = this.m === 0 ? { status: 'converged' as const, iterations: 0 } : this.newton(g, z, Cs, Ts, maxIt);
+    if (warm && res.status !== 'converged') {
+      // the previous profile was a poor guess here: start again from the flat profile
+      z = this.initial(N, Cs, Ts);
+      const again = this.newton(g, z, Cs, Ts, maxIt);
+      res = { status: again.status, iterations: res.iterations + again.iterations };
+    }
+    if (res.status === 'converged') this.keepWarm(N, z, Cs, Ts);
     return this.finish(g, z, Cs, Ts, res, options.profile === true);
+  }
+
+  /** Forget the warm-start profile (a new pass starts from flat profiles). */
+  clearWarmStart(): void {
+    this.warm = undefined;
+  }
+
+  /** Per component and reaction: stoichiometric (or enthalpy) coefficient times the scale R^2/D. */
+  private coefficients(): Float64Array {
+    const { m, nR } = this;
+    const cs = new Float64Array(m * nR);
+    for (let c = 0; c < m; c++) for (let i = 0; i < nR; i++) cs[c * nR + i] = this.coef(c, i) * this.scaleOf(c);
+    return cs;
+  }
+
+  /** The warm-start guess into z: the last profile scaled by the new surface values; false when none fits. */
+  private warmGuess(N: number, Cs: Float64Array, Ts: number, z: Float64Array): boolean {
+    const w = this.warm;
+    if (!w || w.N !== N || w.act !== this.act.join(',')) return false;
+    const { m, act } = this;
+    for (let k = 0; k < N; k++) {
+      for (let c = 0; c < act.length; c++) z[k * m + c] = w.ratio[k * m + c] * Cs[act[c]];
+      if (this.thermalIndex) z[k * m + act.length] = Ts + w.ratio[k * m + act.length];
+    }
+    return true;
+  }
+
+  /** Store the converged profile relative to its surface state: C / C_s (0 where C_s is 0) and T - T_s. */
+  private keepWarm(N: number, z: Float64Array, Cs: Float64Array, Ts: number): void {
+    const { m, act } = this;
+    const ratio = new Float64Array(N * m);
+    for (let k = 0; k < N; k++) {
+      for (let c = 0; c < act.length; c++) {
+        const s = Cs[act[c]];
+        ratio[k * m + c] = s > 0 ? z[k * m + c] / s : 0;
+      }
+      if (this.thermalIndex) ratio[k * m + act.length] = z[k * m + act.length] - Ts;
+    }
+    this.warm = { N, act: act.join(','), ratio };
   }
 
   private initial(N: number, Cs: Float64Array, Ts: number): Float64Array {
@@ -202,8 +283,8 @@ export class PelletSolver {
         let s = L[k * n1 + N] * this.surfaceValue(c, Cs, Ts);
         for (let l = 0; l < N; l++) s += L[k * n1 + l] * z[l * m + c];
         let src = 0;
-        for (let i = 0; i < nR; i++) src += this.coef(c, i) * r[i];
-        F[k * m + c] = s + src * this.scaleOf(c);
+        for (let i = 0; i < nR; i++) src += this.cs[c * nR + i] * r[i];
+        F[k * m + c] = s + src;
       }
     }
   }
@@ -220,13 +301,13 @@ export class PelletSolver {
       for (let c = 0; c < m; c++) for (let l = 0; l < N; l++) J[(k * m + c) * n + l * m + c] = L[k * n1 + l];
       const T = this.pointRates(z, k, r);
       kinetics.ratesJacC(Cpt, T, this.theta, jc);
+      const cs = this.cs;
       for (let c = 0; c < m; c++) {
         const row = (k * m + c) * n + k * m;
-        const scale = this.scaleOf(c);
         for (let q = 0; q < act.length; q++) {
           let d = 0;
-          for (let i = 0; i < nR; i++) d += this.coef(c, i) * rateToPellet[i] * jc[i * nS + act[q]];
-          J[row + q] += scale * d;
+          for (let i = 0; i < nR; i++) d += cs[c * nR + i] * rateToPellet[i] * jc[i * nS + act[q]];
+          J[row + q] += d;
         }
       }
       if (this.thermalIndex) this.temperatureColumn(z, k, J, n);
@@ -241,23 +322,20 @@ export class PelletSolver {
     this.pointRates(z, k, r2, -h);
     for (let c = 0; c < m; c++) {
       let d = 0;
-      for (let i = 0; i < nR; i++) d += (this.coef(c, i) * (r[i] - r2[i])) / (2 * h);
-      J[(k * m + c) * n + k * m + this.act.length] += this.scaleOf(c) * d;
+      for (let i = 0; i < nR; i++) d += (this.cs[c * nR + i] * (r[i] - r2[i])) / (2 * h);
+      J[(k * m + c) * n + k * m + this.act.length] += d;
     }
   }
 
   /** Damped Newton on the collocation equations; z is updated in place. */
   private newton(g: CollocationGrid, z: Float64Array, Cs: Float64Array, Ts: number, maxIt: number): { status: PelletStatus; iterations: number } {
     const n = g.N * this.m;
-    const F = new Float64Array(n);
-    const Ft = new Float64Array(n);
-    const J = new Float64Array(n * n);
-    const dz = new Float64Array(n);
-    const zt = new Float64Array(n);
-    const piv = new Int32Array(n);
+    if (this.ws?.n !== n) this.ws = newtonWorkspace(n);
+    const { F, Ft, J, dz, zt, piv } = this.ws;
     const scale = this.scales(Cs, Ts);
     this.residual(g, z, Cs, Ts, F);
     let f0 = norm2(F);
+    let prev = Infinity;
     for (let it = 1; it <= maxIt; it++) {
       if (!Number.isFinite(f0)) return { status: 'non-finite', iterations: it };
       this.jacobian(g, z, J);
@@ -283,6 +361,10 @@ export class PelletSolver {
       F.set(Ft);
       f0 = f1;
       if (lam * full < 1e-11 || f0 === 0) return { status: 'converged', iterations: it };
+      // Quadratic convergence: with K = |dz_k| / |dz_(k-1)|^2 the error left after a full step dz_k
+      // is about K |dz_k|^2 (Dennis & Schnabel, thm. 5.2.1); stop when that is below 1e-12.
+      if (lam === 1 && full < 1e-5 && prev < 1 && (full / (prev * prev)) * full * full < 1e-12) return { status: 'converged', iterations: it };
+      prev = lam === 1 ? full : Infinity;
     }
     return { status: 'newton-failed', iterations: maxIt };
   }
@@ -302,14 +384,13 @@ export class PelletSolver {
     const { nR, act } = this;
     const { a, kinetics, rateToPellet } = this.problem;
     const N = g.N;
-    const q = gaussFor(N + 8);
-    const row = new Float64Array(N + 1);
+    const q = quadratureFor(g);
     const C = Float64Array.from(Cs);
     const r = new Float64Array(nR);
     const acc = new Float64Array(nR);
     for (let p = 0; p < q.x.length; p++) {
       const x = q.x[p];
-      interpolationRow(g, x * x, row);
+      const row = q.rows[p];
       for (let c = 0; c < act.length; c++) C[act[c]] = this.interpolate(z, N, row, c, Cs, Ts);
       const T = this.thermalIndex ? this.interpolate(z, N, row, act.length, Cs, Ts) : Ts;
       kinetics.rates(C, T, this.theta, r);
@@ -356,11 +437,39 @@ export class PelletSolver {
   }
 }
 
-const gauss = new Map<number, { x: Float64Array; w: Float64Array }>();
-function gaussFor(m: number): { x: Float64Array; w: Float64Array } {
-  let q = gauss.get(m);
-  if (!q) gauss.set(m, (q = gaussLegendre01(m)));
+/** Gauss-Legendre points (N + 8 of them) of a grid with the grid's interpolation row at each. */
+interface GridQuadrature {
+  x: Float64Array;
+  w: Float64Array;
+  rows: Float64Array[];
+}
+const quadratures = new WeakMap<CollocationGrid, GridQuadrature>();
+function quadratureFor(g: CollocationGrid): GridQuadrature {
+  let q = quadratures.get(g);
+  if (!q) {
+    const { x, w } = gaussLegendre01(g.N + 8);
+    const rows = Array.from(x, (xp) => {
+      const row = new Float64Array(g.N + 1);
+      interpolationRow(g, xp * xp, row);
+      return row;
+    });
+    quadratures.set(g, (q = { x, w, rows }));
+  }
   return q;
+}
+
+/** Newton's work arrays for n unknowns. */
+interface NewtonWorkspace {
+  n: number;
+  F: Float64Array;
+  Ft: Float64Array;
+  J: Float64Array;
+  dz: Float64Array;
+  zt: Float64Array;
+  piv: Int32Array;
+}
+function newtonWorkspace(n: number): NewtonWorkspace {
+  return { n, F: new Float64Array(n), Ft: new Float64Array(n), J: new Float64Array(n * n), dz: new Float64Array(n), zt: new Float64Array(n), piv: new Int32Array(n) };
 }
 
 function norm2(v: Float64Array): number {

@@ -46,6 +46,27 @@ describe('first-order eta: numerical pellet vs closed forms', () => {
       });
     }
   }
+  it('the default number of points (nodesFor) keeps the relative error below 1e-8 up to phi = 150', () => {
+    // closed forms as above (Thiele 1939; Aris 1975), first order, all three shapes
+    for (const a of [1, 2, 3] as const) {
+      for (const phi of [0.5, 2, 5, 10, 20, 30, 50, 80, 150]) {
+        const kv = ((phi / R) ** 2) * De;
+        const sol = pellet(a, 1, kv / rho).solve(Float64Array.of(10, 0), 500);
+        expect(Math.abs(sol.eta[0] / closed[a](phi) - 1)).toBeLessThan(1e-8);
+      }
+    }
+  });
+
+  it('a warm start from the previous profile gives the same eta as a cold start', () => {
+    const s = pellet(3, 2, 0.05);
+    for (let c = 10; c > 2; c -= 0.7) {
+      const w = s.solve(Float64Array.of(c, 10 - c), 500, { warmStart: true });
+      const cold = pellet(3, 2, 0.05).solve(Float64Array.of(c, 10 - c), 500);
+      expect(Math.abs(w.eta[0] / cold.eta[0] - 1)).toBeLessThan(1e-10);
+      expect(w.iterations).toBeLessThanOrEqual(cold.iterations);
+    }
+  });
+
   it('closed forms at hand-checked points', () => {
     // tanh(1)/1 = 0.761594156; sphere phi=1: 3(coth 1 - 1) = 3(1.313035285 - 1) = 0.939105856
     expect(etaSlabFirstOrder(1)).toBeCloseTo(0.761594156, 9);
