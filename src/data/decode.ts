@@ -22,6 +22,7 @@ export interface DecodedText {
 
 /** The BOM at the start of `bytes`, if any, with its length. */
 export function sniffBom(bytes: Uint8Array): { encoding: InputEncoding; length: number } | undefined {
+  checkArgs('sniffBom', [bytes], [{ name: 'bytes', check: is.bytes }]);
   if (bytes.length >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf) return { encoding: 'UTF-8', length: 3 };
   if (bytes.length >= 2 && bytes[0] === 0xff && bytes[1] === 0xfe) return { encoding: 'UTF-16LE', length: 2 };
   if (bytes.length >= 2 && bytes[0] === 0xfe && bytes[1] === 0xff) return { encoding: 'UTF-16BE', length: 2 };

@@ -10,6 +10,7 @@ import { sumNthPowerDeviations } from 'simple-statistics';
 import { RateloomError } from '../core/errors.js';
 import type { MappedObservation, MappedRun, RowLocation } from './mapping.js';
 import { describeRules, type CheckSettings, type PureError, type Rejection, type ReplicateGroup, type SourceLayout, type SourceSummary, type ValidationReport } from './report.js';
+import { checkArgs, is } from '../core/args.js';
 
 /** Row bookkeeping for every source of a study. */
 export class Ledger {
@@ -520,6 +521,7 @@ export function buildReport(ledger: Ledger, replicateGroups: ReplicateGroup[], p
 
 /** Format one rejection as 'file:line:column: reason: message'. */
 export function formatRejection(r: Rejection): string {
+  checkArgs('formatRejection', [r], [{ name: 'r', check: is.object }]);
   return `${r.file}:${r.line}${r.column !== undefined ? `:${r.column}` : ''}: ${r.reason}: ${r.message}`;
 }
 

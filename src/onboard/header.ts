@@ -7,6 +7,7 @@
  * recognised is reported, never guessed silently.
  */
 import { unitFor, type Quantity } from '../units/index.js';
+import { checkArgs, is } from '../core/args.js';
 
 /** What a column holds. */
 export type ColumnRole =
@@ -78,6 +79,7 @@ function normaliseUnit(u: string): string {
  * `name / unit` or `name in unit`. The unit is returned as written (normalised), unchecked.
  */
 export function splitHeader(header: string): { name: string; unit?: string } {
+  checkArgs('splitHeader', [header], [{ name: 'header', check: is.text }]);
   const h = header.trim();
   const bracket = /^(.*?)\s*[[(]\s*([^\])]+?)\s*[\])]\s*$/.exec(h);
   if (bracket && bracket[1] !== '') return { name: bracket[1].trim(), unit: normaliseUnit(bracket[2]) };
@@ -149,6 +151,7 @@ function conditionRole(name: string, unit: string | undefined): { role: ColumnRo
 
 /** Recognise one header cell; undefined when it matches no pattern. */
 export function recogniseColumn(header: string): RecognisedColumn | undefined {
+  checkArgs('recogniseColumn', [header], [{ name: 'header', check: is.text }]);
   const { name, unit } = splitHeader(header);
   const cond = conditionRole(name, unit);
   if (cond) return { header, ...cond };

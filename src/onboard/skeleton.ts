@@ -15,6 +15,7 @@ import { locatePath } from '../study/locate.js';
 import { inferStudy, type Inference, type SkeletonFile } from './infer.js';
 import { equilibriumConstantUnit, rateConstantUnit, type UserUnits } from './rate-units.js';
 import { skeletonSources, type SkeletonTodo } from './sources.js';
+import { checkArgs, is } from '../core/args.js';
 
 /** Choices the caller makes instead of the skeleton's guesses. */
 export interface SkeletonOptions {
@@ -77,6 +78,7 @@ function equations(inf: Inference, opts: SkeletonOptions, inert: Set<string>, to
 
 /** Orders from 'A^1 B^0.5', 'A:1, B:0.5' or 'A*B^0.5' (order 1 when none is written). */
 export function parseOrders(text: string, path: FieldPath): Record<string, number> {
+  checkArgs('parseOrders', [text, path], [{ name: 'text', check: is.text }, { name: 'path', check: is.list(is.key) }]);
   const orders: Record<string, number> = {};
   for (const tok of text.split(/[\s,*]+/).filter((t) => t !== '')) {
     const m = /^(?:C_)?([A-Za-z][A-Za-z0-9_]*)(?:[:^]([-+]?\d*\.?\d+))?$/.exec(tok);

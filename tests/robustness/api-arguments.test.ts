@@ -25,6 +25,7 @@ const ENTRY_POINTS: Record<string, number> = {
   buildHandoff: 2, studyVariants: 1, fitReportData: 3, sizingReportData: 1, summarizeStudy: 2,
   compareStudy: 2, applyParameterValues: 3, simulateStudy: 3, renderFitReport: 1, renderSizingReport: 1,
   optionProblem: 2, checkOption: 2, rangeText: 1,
+  sniffBom: 1, formatRejection: 1, parseOrders: 2, splitHeader: 1, recogniseColumn: 1,
 };
 
 /** Values a caller gets wrong. */
